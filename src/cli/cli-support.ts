@@ -1,0 +1,59 @@
+/**
+ * Shared plumbing for `winnow` commands: a typed error with the exit code the contract fixes
+ * (2 = bad input, 1 = internal fault) and a minimal output sink that tests can capture.
+ */
+import { parseArgs, type ParseArgsConfig } from 'node:util';
+
+export class CliError extends Error {
+  constructor(
+    message: string,
+    readonly exitCode: 1 | 2 = 2,
+  ) {
+    super(message);
+    this.name = 'CliError';
+  }
+}
+
+export interface CliIo {
+  stdout(text: string): void;
+  stderr(text: string): void;
+}
+
+export const processIo: CliIo = {
+  stdout: (t) => void process.stdout.write(t),
+  stderr: (t) => void process.stderr.write(t),
+};
+
+/** Collects output in memory (for tests and for commands that call one another). */
+export function memoryIo(): CliIo & { out: string; err: string } {
+  const io = {
+    out: '',
+    err: '',
+    stdout(t: string) {
+      io.out += t;
+    },
+    stderr(t: string) {
+      io.err += t;
+    },
+  };
+  return io;
+}
+
+export type CommandRun = (args: string[], io: CliIo) => Promise<number>;
+
+/** node:util parseArgs, with unknown options and missing values turned into exit-2 errors. */
+export function parseCommandArgs<T extends ParseArgsConfig['options']>(command: string, args: string[], options: T) {
+  try {
+    return parseArgs({ args, options, allowPositionals: true, strict: true });
+  } catch (e) {
+    throw new CliError(`winnow ${command}: ${(e as Error).message}`);
+  }
+}
+
+/** Parses a finite number option, or throws a CliError naming the option and the bad value. */
+export function numberOption(command: string, name: string, value: string | undefined, fallback: number): number {
+  if (value === undefined) return fallback;
+  const v = Number(value);
+  if (!Number.isFinite(v) || value.trim() === '') throw new CliError(`winnow ${command}: --${name} must be a number, got "${value}"`);
+  return v;
+}

@@ -1,0 +1,6 @@
+/** `winnow simulate` — not built yet (placeholder until its issue lands). */
+import { CliError, type CliIo } from './cli-support.ts';
+
+export async function run(_args: string[], _io: CliIo): Promise<number> {
+  throw new CliError('winnow simulate is not available yet', 1);
+}

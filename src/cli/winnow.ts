@@ -1,0 +1,47 @@
+/**
+ * `winnow <command>`: the headless entry point over src/core. Each command lives in its own file and is
+ * loaded on demand so that one command's dependencies never slow another's start.
+ */
+import { CliError, processIo, type CliIo, type CommandRun } from './cli-support.ts';
+
+const commands: Record<string, { summary: string; load: () => Promise<{ run: CommandRun }> }> = {
+  inspect: { summary: 'print a recording header, channels and events as JSON', load: () => import('./inspect.ts') },
+  read: { summary: 'print samples as TSV', load: () => import('./read.ts') },
+  forward: { summary: 'potentials of a current dipole at electrodes (TSV)', load: () => import('./forward.ts') },
+  'fit-dipole': { summary: 'fit one equivalent dipole to a scalp map (JSON)', load: () => import('./fit-dipole.ts') },
+  simulate: { summary: 'simulate a mobile EEG session with known sources', load: () => import('./simulate.ts') },
+  decompose: { summary: 'run ICA (extended Infomax or Picard) on a recording', load: () => import('./decompose.ts') },
+  evidence: { summary: 'compute per-component evidence and suggested verdicts', load: () => import('./evidence.ts') },
+  apply: { summary: 'write the cleaned recording from a decisions file', load: () => import('./apply.ts') },
+};
+
+function usage(): string {
+  const lines = Object.entries(commands).map(([name, c]) => `  ${name.padEnd(11)} ${c.summary}`);
+  return `usage: winnow <command> [options]\n\ncommands:\n${lines.join('\n')}\n\nWinnow is a research tool, not for clinical diagnosis.\n`;
+}
+
+export async function main(argv: string[], io: CliIo = processIo): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === '--help' || name === '-h' || name === 'help') {
+    io.stdout(usage());
+    return name === undefined ? 2 : 0;
+  }
+  const command = commands[name];
+  if (!command) {
+    io.stderr(`error: unknown command "${name}"\n${usage()}`);
+    return 2;
+  }
+  try {
+    const mod = await command.load();
+    return await mod.run(rest, io);
+  } catch (e) {
+    if (e instanceof CliError) {
+      io.stderr(`error: ${e.message}\n`);
+      return e.exitCode;
+    }
+    const err = e as Error;
+    io.stderr(`error: internal fault in winnow ${name}: ${err?.message ?? String(e)}\n`);
+    if (process.env.WINNOW_DEBUG) io.stderr(`${err?.stack ?? ''}\n`);
+    return 1;
+  }
+}
