@@ -1,0 +1,187 @@
+/**
+ * The decisions file (issue 7, fixed contract): format "winnow-decisions/1", JSON with the aim, reviewer,
+ * creation time, software, the SHA-256 of the recording's and the decomposition file's bytes, and one
+ * entry per component (1-based index, verdict, reason, note, and the suggestion shown at the time).
+ * A TSV twin with columns `index verdict reason note` is written for spreadsheets.
+ *
+ * Parsing never throws: bad input gives a ParseResult error naming the file and the fault.
+ */
+import { parseFail, parseOk, type ParseResult } from '../formats/parse-result.ts';
+import { AIMS, REASON_CODES, VERDICTS, type Aim, type ReasonCode, type Suggestion, type Verdict } from './vocabulary.ts';
+
+export const DECISIONS_FORMAT = 'winnow-decisions/1';
+
+/** One reviewer decision. A component without a decision is `undecided` with no reason and an empty note. */
+export interface ReviewDecision {
+  readonly verdict: Verdict;
+  readonly reason: ReasonCode | null;
+  readonly note: string;
+}
+
+export const UNDECIDED: ReviewDecision = Object.freeze({ verdict: 'undecided', reason: null, note: '' });
+
+export interface DecisionsFileComponent {
+  readonly index: number;
+  readonly verdict: Verdict;
+  readonly reason: ReasonCode | null;
+  readonly note: string;
+  readonly suggested: { readonly verdict: Verdict; readonly reason: ReasonCode; readonly because: readonly string[] } | null;
+}
+
+export interface DecisionsFile {
+  readonly format: typeof DECISIONS_FORMAT;
+  readonly aim: Aim;
+  readonly reviewer: string;
+  /** ISO 8601 with zone (UTC "Z"). */
+  readonly createdAt: string;
+  /** e.g. "winnow 0.1.0". */
+  readonly software: string;
+  readonly recordingSha256: string;
+  readonly decompositionSha256: string;
+  readonly components: readonly DecisionsFileComponent[];
+}
+
+export interface DecisionsFileInput {
+  readonly aim: Aim;
+  readonly reviewer: string;
+  readonly createdAt: string;
+  readonly software: string;
+  readonly recordingSha256: string;
+  readonly decompositionSha256: string;
+  /** Number of components in the decomposition; every one gets an entry (undecided when absent). */
+  readonly nComponents: number;
+  readonly decisions: Readonly<Record<number, ReviewDecision>>;
+  /** Suggestion per 1-based index (undefined/null when none was computed). */
+  readonly suggestions?: (index: number) => Suggestion | null | undefined;
+}
+
+/** Builds the decisions file object: one component entry per index 1…nComponents, in order. */
+export function buildDecisionsFile(input: DecisionsFileInput): DecisionsFile {
+  const components: DecisionsFileComponent[] = [];
+  for (let index = 1; index <= input.nComponents; index++) {
+    const d = input.decisions[index] ?? UNDECIDED;
+    const s = input.suggestions?.(index) ?? null;
+    components.push({
+      index,
+      verdict: d.verdict,
+      reason: d.reason,
+      note: d.note,
+      suggested: s ? { verdict: s.verdict, reason: s.reason, because: [...s.because] } : null,
+    });
+  }
+  return {
+    format: DECISIONS_FORMAT,
+    aim: input.aim,
+    reviewer: input.reviewer,
+    createdAt: input.createdAt,
+    software: input.software,
+    recordingSha256: input.recordingSha256,
+    decompositionSha256: input.decompositionSha256,
+    components,
+  };
+}
+
+/** JSON text of a decisions file (two-space indent, trailing newline). */
+export function formatDecisionsJson(file: DecisionsFile): string {
+  return `${JSON.stringify(file, null, 2)}\n`;
+}
+
+/** The decisions map a file describes; undecided entries without reason or note are left out. */
+export function decisionsFromFile(file: Pick<DecisionsFile, 'components'>): Record<number, ReviewDecision> {
+  const out: Record<number, ReviewDecision> = {};
+  for (const c of file.components) {
+    if (c.verdict === 'undecided' && c.reason === null && c.note === '') continue;
+    out[c.index] = { verdict: c.verdict, reason: c.reason, note: c.note };
+  }
+  return out;
+}
+
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+const isVerdict = (v: unknown): v is Verdict => typeof v === 'string' && (VERDICTS as readonly string[]).includes(v);
+const isReason = (v: unknown): v is ReasonCode => typeof v === 'string' && (REASON_CODES as readonly string[]).includes(v);
+const isAim = (v: unknown): v is Aim => typeof v === 'string' && (AIMS as readonly string[]).includes(v);
+
+/** Parses and validates decisions-file JSON; every fault names the file and the field. */
+export function parseDecisionsJson(text: string, fileName: string): ParseResult<DecisionsFile> {
+  const fail = (message: string) => parseFail<DecisionsFile>({ code: 'bad-value', message: `${fileName}: ${message}`, file: fileName });
+  let raw: unknown;
+  try {
+    raw = JSON.parse(text);
+  } catch (e) {
+    return fail(`not valid JSON (${(e as Error).message})`);
+  }
+  if (!isRecord(raw)) return fail('expected a JSON object');
+  if (raw.format !== DECISIONS_FORMAT) return fail(`"format" must be "${DECISIONS_FORMAT}", got ${JSON.stringify(raw.format)}`);
+  if (!isAim(raw.aim)) return fail(`"aim" must be one of ${AIMS.join(', ')}, got ${JSON.stringify(raw.aim)}`);
+  for (const key of ['reviewer', 'createdAt', 'software', 'recordingSha256', 'decompositionSha256'] as const) {
+    if (typeof raw[key] !== 'string') return fail(`"${key}" must be a string`);
+  }
+  if (!Array.isArray(raw.components)) return fail('"components" must be an array');
+  const components: DecisionsFileComponent[] = [];
+  const seen = new Set<number>();
+  for (let i = 0; i < raw.components.length; i++) {
+    const c: unknown = raw.components[i];
+    const where = `components[${i}]`;
+    if (!isRecord(c)) return fail(`${where} must be an object`);
+    if (typeof c.index !== 'number' || !Number.isInteger(c.index) || c.index < 1) return fail(`${where}.index must be a whole number ≥ 1`);
+    if (seen.has(c.index)) return fail(`${where}.index ${c.index} appears twice`);
+    seen.add(c.index);
+    if (!isVerdict(c.verdict)) return fail(`${where}.verdict must be keep, remove or undecided, got ${JSON.stringify(c.verdict)}`);
+    if (c.reason !== null && c.reason !== undefined && !isReason(c.reason)) return fail(`${where}.reason ${JSON.stringify(c.reason)} is not a reason code`);
+    if (c.note !== undefined && typeof c.note !== 'string') return fail(`${where}.note must be text`);
+    let suggested: DecisionsFileComponent['suggested'] = null;
+    if (c.suggested !== null && c.suggested !== undefined) {
+      const s = c.suggested;
+      if (!isRecord(s) || !isVerdict(s.verdict) || !isReason(s.reason) || !Array.isArray(s.because) || !s.because.every((b) => typeof b === 'string')) {
+        return fail(`${where}.suggested must be {verdict, reason, because: [text]}`);
+      }
+      suggested = { verdict: s.verdict, reason: s.reason, because: s.because as string[] };
+    }
+    components.push({ index: c.index, verdict: c.verdict, reason: (c.reason as ReasonCode | null | undefined) ?? null, note: (c.note as string | undefined) ?? '', suggested });
+  }
+  return parseOk({
+    format: DECISIONS_FORMAT,
+    aim: raw.aim,
+    reviewer: raw.reviewer as string,
+    createdAt: raw.createdAt as string,
+    software: raw.software as string,
+    recordingSha256: raw.recordingSha256 as string,
+    decompositionSha256: raw.decompositionSha256 as string,
+    components,
+  });
+}
+
+/**
+ * Parses the TSV twin (columns `index verdict reason note`, any order, extra columns ignored). A cell that
+ * was formula-neutralised on export (a leading apostrophe before = + - @) gets the apostrophe back off.
+ * Undecided rows without reason and note are left out of the map.
+ */
+export function parseDecisionsTsv(text: string, fileName: string): ParseResult<Record<number, ReviewDecision>> {
+  const fail = (message: string, line?: number) =>
+    parseFail<Record<number, ReviewDecision>>({ code: 'bad-tsv', message: `${fileName}: ${message}`, file: fileName, ...(line ? { line } : {}) });
+  const lines = text.replace(/\r\n?/g, '\n').split('\n');
+  while (lines.length > 0 && lines[lines.length - 1] === '') lines.pop();
+  if (lines.length === 0) return fail('the file is empty');
+  const header = lines[0].split('\t').map((h) => h.trim());
+  const col = (name: string) => header.indexOf(name);
+  for (const name of ['index', 'verdict', 'reason', 'note']) {
+    if (col(name) < 0) return parseFail({ code: 'missing-column', message: `${fileName}: header has no "${name}" column (found ${header.join(', ')})`, file: fileName, line: 1 });
+  }
+  const unneutralise = (cell: string) => (/^'[=+\-@\t\r]/.test(cell) ? cell.slice(1) : cell);
+  const out: Record<number, ReviewDecision> = {};
+  for (let i = 1; i < lines.length; i++) {
+    const cells = lines[i].split('\t');
+    const get = (name: string) => unneutralise(cells[col(name)] ?? '');
+    const index = Number(get('index'));
+    if (!Number.isInteger(index) || index < 1) return fail(`line ${i + 1}: index "${get('index')}" is not a whole number ≥ 1`, i + 1);
+    const verdict = get('verdict');
+    if (!isVerdict(verdict)) return fail(`line ${i + 1}: verdict "${verdict}" must be keep, remove or undecided`, i + 1);
+    const reasonText = get('reason');
+    const reason = reasonText === '' || reasonText === 'n/a' ? null : reasonText;
+    if (reason !== null && !isReason(reason)) return fail(`line ${i + 1}: reason "${reasonText}" is not a reason code`, i + 1);
+    const note = get('note').replace(/\\n/g, '\n').replace(/\\t/g, '\t');
+    if (verdict === 'undecided' && reason === null && note === '') continue;
+    out[index] = { verdict, reason, note };
+  }
+  return parseOk(out);
+}

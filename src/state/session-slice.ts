@@ -1,0 +1,168 @@
+/**
+ * Actions that span slices: loading a participant (read → hash → decomposition → evidence → resume offer),
+ * the demo, importing a decisions file. Each long step reports progress and can be cancelled; a cancelled
+ * or failed load leaves the start screen with a notice.
+ */
+import type { StateCreator } from 'zustand';
+import { decisionsFromFile, parseDecisionsJson, parseDecisionsTsv } from '../core/review/decisions-file.ts';
+import { getWorkbenchServices, resumeOfferFrom, reviewKey, type OnFraction } from './services.ts';
+import { progressAt } from './task-progress.ts';
+import { DEFAULT_ROI } from './view-slice.ts';
+import type { SessionSlice, WorkbenchState } from './types.ts';
+
+/** Default decomposition when none is given: extended Infomax, seed 1, 1 Hz high-pass (METHODS §14, common practice). */
+export const DEFAULT_DECOMPOSE = { method: 'infomax', seed: 1, highpassHz: 1 } as const;
+
+const now = () => (typeof performance !== 'undefined' ? performance.now() : Date.now());
+
+async function readText(file: File | Blob | string): Promise<{ text: string; name: string }> {
+  if (typeof file === 'string') return { text: file, name: 'decisions' };
+  const name = (file as File).name ?? 'decisions';
+  return { text: await file.text(), name };
+}
+
+export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSlice> = (set, get) => {
+  let current: AbortController | null = null;
+
+  /** Runs one step with its own progress record; the cancel button aborts the whole load. */
+  async function step<T>(task: string, controller: AbortController, run: (onProgress: OnFraction) => Promise<T>): Promise<T> {
+    const started = now();
+    const cancel = () => controller.abort();
+    set({ progress: progressAt(task, 0, started, started, cancel) });
+    let lastMs = 0;
+    const onProgress: OnFraction = (f) => {
+      const t = now();
+      if (t - lastMs < 50 && f < 1) return; // at most ~20 store updates per second
+      lastMs = t;
+      if (!controller.signal.aborted) set({ progress: progressAt(task, f, started, t, cancel) });
+    };
+    return run(onProgress);
+  }
+
+  return {
+    loadParticipant: async (input) => {
+      current?.abort();
+      const controller = new AbortController();
+      current = controller;
+      const { signal } = controller;
+      set({ notice: null, resumeOffer: null });
+      try {
+        const services = await getWorkbenchServices();
+        const { recording, sha256: recordingSha256 } = await step('Reading the recording', controller, (p) =>
+          services.readRecording(input.recordingFiles, signal, p),
+        );
+        signal.throwIfAborted();
+        set({ recording, recordingSha256, decomposition: null, decompositionSha256: null, evidence: null, decisions: {}, past: [], future: [], selected: null, roi: DEFAULT_ROI });
+        let decomposition;
+        if (input.decompositionFiles && input.decompositionFiles.length > 0) {
+          decomposition = await step('Reading the decomposition', controller, () =>
+            services.readDecomposition(input.decompositionFiles!, recording, recordingSha256, signal),
+          );
+        } else if (input.decompose === null) {
+          // Recording only: the start screen shows the recording and offers to compute a decomposition.
+          set({ progress: null, screen: 'start' });
+          return;
+        } else {
+          const options = input.decompose ?? DEFAULT_DECOMPOSE;
+          decomposition = await step(`Decomposing (${options.method}, seed ${options.seed})`, controller, (p) =>
+            services.computeDecomposition(recording, recordingSha256, options, signal, p),
+          );
+        }
+        signal.throwIfAborted();
+        set({ decomposition: decomposition.decomposition, decompositionSha256: decomposition.sha256 });
+        const evidence = await step('Computing evidence', controller, (p) =>
+          services.computeEvidence(recording, decomposition.decomposition, get().aim, signal, p),
+        );
+        signal.throwIfAborted();
+        set({ evidence, selected: decomposition.decomposition.nComponents > 0 ? 1 : null });
+        const key = reviewKey(recordingSha256, decomposition.sha256);
+        const saved = await services.loadReview(key).catch(() => null);
+        signal.throwIfAborted();
+        set({ progress: null, screen: 'board', resumeOffer: input.decisionsFile ? null : resumeOfferFrom(saved) });
+        if (input.decisionsFile) await get().importDecisions(input.decisionsFile);
+      } catch (e) {
+        if (current !== controller) return; // superseded by a newer load
+        const cancelled = signal.aborted;
+        set({
+          progress: null,
+          notice: cancelled ? { kind: 'info', text: 'Loading cancelled.' } : { kind: 'error', text: (e as Error)?.message ?? String(e) },
+        });
+      } finally {
+        if (current === controller) current = null;
+      }
+    },
+
+    loadDemo: async () => {
+      const services = await getWorkbenchServices();
+      const controller = new AbortController();
+      let input;
+      try {
+        set({ notice: null, progress: progressAt('Fetching the demo participant', 0, now(), now(), () => controller.abort()) });
+        input = await services.demoInput(controller.signal);
+      } catch (e) {
+        set({ progress: null, notice: { kind: 'error', text: `Demo participant unavailable: ${(e as Error)?.message ?? String(e)}` } });
+        return;
+      }
+      await get().loadParticipant(input);
+    },
+
+    importDecisions: async (file) => {
+      const { text, name } = await readText(file);
+      const s = get();
+      const n = s.decomposition?.nComponents ?? 0;
+      const trimmed = text.trimStart();
+      if (trimmed.startsWith('{')) {
+        const parsed = parseDecisionsJson(text, name);
+        if (!parsed.ok) {
+          set({ notice: { kind: 'error', text: parsed.error.message } });
+          return false;
+        }
+        const f = parsed.value;
+        if (s.recordingSha256 && f.recordingSha256 !== s.recordingSha256) {
+          set({ notice: { kind: 'error', text: `${name}: made for another recording (SHA-256 ${f.recordingSha256.slice(0, 12)}…, this one is ${s.recordingSha256.slice(0, 12)}…)` } });
+          return false;
+        }
+        if (s.decompositionSha256 && f.decompositionSha256 !== s.decompositionSha256) {
+          set({ notice: { kind: 'error', text: `${name}: made for another decomposition (SHA-256 ${f.decompositionSha256.slice(0, 12)}…, this one is ${s.decompositionSha256.slice(0, 12)}…)` } });
+          return false;
+        }
+        const tooHigh = f.components.find((c) => n > 0 && c.index > n);
+        if (tooHigh) {
+          set({ notice: { kind: 'error', text: `${name}: component ${tooHigh.index} does not exist (the decomposition has ${n})` } });
+          return false;
+        }
+        get().replaceDecisions(decisionsFromFile(f), f.aim);
+        set({ reviewer: f.reviewer, resumeOffer: null, notice: { kind: 'info', text: `Restored ${f.components.length} decisions from ${name}.` } });
+        return true;
+      }
+      const parsed = parseDecisionsTsv(text, name);
+      if (!parsed.ok) {
+        set({ notice: { kind: 'error', text: parsed.error.message } });
+        return false;
+      }
+      const tooHigh = Object.keys(parsed.value).map(Number).find((i) => n > 0 && i > n);
+      if (tooHigh !== undefined) {
+        set({ notice: { kind: 'error', text: `${name}: component ${tooHigh} does not exist (the decomposition has ${n})` } });
+        return false;
+      }
+      get().replaceDecisions(parsed.value);
+      set({ resumeOffer: null, notice: { kind: 'info', text: `Restored decisions from ${name} (TSV carries no hashes; check it belongs to this participant).` } });
+      return true;
+    },
+
+    resume: (accept) => {
+      const offer = get().resumeOffer;
+      set({ resumeOffer: null });
+      if (accept && offer) get().replaceDecisions(offer.decisions, offer.aim);
+    },
+
+    closeParticipant: () => {
+      current?.abort();
+      current = null;
+      set({
+        recording: null, recordingSha256: null, decomposition: null, decompositionSha256: null, evidence: null,
+        decisions: {}, past: [], future: [], selected: null, screen: 'start', progress: null, resumeOffer: null, roi: DEFAULT_ROI,
+      });
+    },
+  };
+};
