@@ -1,0 +1,147 @@
+/**
+ * Everything Winnow measures about one independent component, with units. Produced by
+ * `computeEvidence` (compute-evidence.ts), read by the suggestion rules (review/suggest.ts), the impact
+ * estimate (review/impact.ts), the workbench tiles and `winnow evidence`.
+ *
+ * Conventions: "activation" = row i of S = W (X − mean), arbitrary units. Spectra, averages and epoch
+ * images are given for the component back-projected to its strongest channel (the channel with the
+ * largest |A[c, i]|), i.e. activation × A[c, i], in µV; `strongestChannel.weight` is that factor, so
+ * activation-unit values are recovered by dividing by it (power: by its square).
+ */
+export type { Aim, ReasonCode, Suggestion, Verdict } from '../review/vocabulary.ts';
+import type { Aim, Suggestion } from '../review/vocabulary.ts';
+
+export interface SpectrumEvidence {
+  /** Bin frequencies in Hz from 1 Hz to min(Nyquist, 100 Hz) (Welch bins, spacing fs / nfft). */
+  readonly frequencies: Float64Array;
+  /** One-sided power spectral density, µV²/Hz, at the strongest channel. */
+  readonly power: Float64Array;
+  /** 10 log10(power), dB re 1 µV²/Hz. */
+  readonly powerDb: Float64Array;
+  /** Welch segment length (samples, power of two) and the bin spacing in Hz. */
+  readonly nfft: number;
+  readonly df: number;
+}
+
+export interface AperiodicFit {
+  /** χ in P ∝ f^−χ (dimensionless; positive for falling spectra). NaN when the fit is impossible. */
+  readonly exponent: number;
+  /** b = log10 P at 1 Hz of the fitted line, log10(µV²/Hz). */
+  readonly offset: number;
+  /** Fit range in Hz. */
+  readonly rangeHz: readonly [number, number];
+}
+
+export interface EogCorrelation {
+  /** Pearson r of the activation with the vertical EOG (or its frontal proxy); sign removed (|r|). */
+  readonly vertical: number | null;
+  /** Pearson |r| with the horizontal EOG (or the lateral frontal bipolar proxy). */
+  readonly horizontal: number | null;
+  /** Where the reference signals came from; 'none' when neither could be built. */
+  readonly source: 'EOG channels' | 'frontal bipolar' | 'none';
+  /** Channels used, e.g. "Fp1+Fp2 vs average" or "F8 − F7". */
+  readonly channels: { readonly vertical: string | null; readonly horizontal: string | null };
+}
+
+export interface CardiacEvidence {
+  /** Beat rate in beats per minute at the autocorrelation peak in 40–150 bpm, or null if no peak. */
+  readonly bpm: number | null;
+  /** Normalised autocorrelation (−1…1) of the activation's slope energy at that lag; 0 when no peak. */
+  readonly peak: number;
+}
+
+export interface ErpEvidence {
+  /** Event type that was epoched and the number of epochs kept. */
+  readonly event: string;
+  readonly nEpochs: number;
+  /** Time of each sample relative to the event, s. */
+  readonly times: Float64Array;
+  /** Baseline-corrected average, µV at the strongest channel. */
+  readonly mean: Float64Array;
+  /** 95 % confidence band (mean ± 1.96 SEM), µV. */
+  readonly band: { readonly lower: Float64Array; readonly upper: Float64Array };
+  /** Inter-trial phase coherence (0…1) at `itcFrequencyHz`, the dominant frequency of the average. */
+  readonly itc: number;
+  readonly itcFrequencyHz: number;
+  /**
+   * Share (0…1) of the single-trial variance that is phase-locked to the events, minus the same share for
+   * shuffled event times (its permutation mean); ≤ 0 means no more locking than chance.
+   */
+  readonly timeLockingStrength: number;
+  /** Phase-locked share before subtracting chance (0…1). */
+  readonly lockedShare: number;
+  /** Permutation p-value of the locked share against shuffled event times ((1 + #≥) / (1 + nPerm)). */
+  readonly permutationP?: number;
+}
+
+export interface EpochImage {
+  readonly nEpochs: number;
+  readonly length: number;
+  /** nEpochs × length, row-major, event order, µV at the strongest channel (baseline removed). */
+  readonly data: Float32Array;
+  readonly times: Float64Array;
+  /** Response time (s) per epoch when the events carry one, else null — for sorting. */
+  readonly responseTimes: Float64Array | null;
+}
+
+export interface DipoleEvidence {
+  /** Position in head coordinates (RAS), mm. */
+  readonly position: readonly [number, number, number];
+  /** Moment (RAS), in the map's units per A·m model (relative scale; direction meaningful). */
+  readonly moment: readonly [number, number, number];
+  /** Residual variance of the single-dipole fit, 0…1 (METHODS §15). */
+  readonly residualVariance: number;
+  /** True when the fit stopped at the brain's boundary (an artifact sign). */
+  readonly atBoundary: boolean;
+  /** Approximate region name (a model estimate, not an anatomical label). */
+  readonly region: string;
+}
+
+export interface ComponentEvidence {
+  /** 1-based component number. */
+  readonly index: number;
+  /** Share (0…1) of the data's total variance carried by the back-projected component, Σ_c A[c,i]² var(s_i) / Σ_c var(x_c). */
+  readonly varianceShare: number;
+  /** Per channel (length nChannels): A[c,i]² var(s_i) / var(x_c), 0…1 for a well-decomposed channel. */
+  readonly variancePerChannel: Float64Array;
+  readonly strongestChannel: { readonly index: number; readonly label: string; readonly weight: number };
+  /** Scalp map (column i of the mixing matrix, unit L2 norm, sign as stored). */
+  readonly map: Float64Array;
+  readonly spectrum: SpectrumEvidence;
+  readonly aperiodic: AperiodicFit;
+  /** Alpha peak frequency in Hz (7–14 Hz, above the aperiodic fit), or null if there is none. */
+  readonly alphaPeakHz: number | null;
+  /** Height of the alpha peak above the aperiodic fit, log10 units (0.1 = ×1.26); 0 when none. */
+  readonly alphaProminence: number;
+  /** BP(20, line−2) / BP(2, line−2) Hz (0…1). */
+  readonly highFrequencyShare: number;
+  /** Log-log slope of the spectrum over 20–(line−2) Hz (≈ 0 or positive for muscle; negative for brain). */
+  readonly highFrequencySlope: number;
+  /** Σ_h BP(h·f0 ± 1 Hz) / BP(1, fmax) over harmonics below fmax (0…1). */
+  readonly lineNoiseShare: number;
+  /** P(f0) over the median of P in f0 ± 5 Hz without ±1 Hz (dimensionless; ≫ 1 for line noise). */
+  readonly linePeakRatio: number;
+  /** BP(1, 4) / BP(1, 45) Hz (0…1). */
+  readonly lowFrequencyShare: number;
+  /** Excess kurtosis of the activation, E[(s−μ)⁴]/σ⁴ − 3 (0 for Gaussian). */
+  readonly kurtosis: number;
+  /** Share (0…1) of the map's energy on its largest electrode, and that electrode. */
+  readonly focality: { readonly share: number; readonly channel: string };
+  /** Mean |a| over frontal-pole sites ÷ mean |a| elsewhere (METHODS §14); NaN without positions. */
+  readonly frontalGradient: number;
+  /** Share (0…1) of the map's energy on frontal-pole sites (front 20 % of the head); NaN without positions. */
+  readonly frontalShare: number;
+  /** −2 Σ a_L a_R / Σ (a_L² + a_R²) over mirror pairs: +1 antisymmetric, −1 symmetric; NaN without pairs. */
+  readonly lateralAntisymmetry: number;
+  /** 0…1: how much of the activation's large slow jumps persist as level shifts (1 = steps, 0 = returns). */
+  readonly stepLikeness: number;
+  readonly eogCorrelation: EogCorrelation;
+  readonly cardiac: CardiacEvidence;
+  /** Phase-locked share of activity around step events (mobile recordings), or null when no step events. */
+  readonly stepLocking: { readonly share: number; readonly event: string; readonly nEpochs: number } | null;
+  readonly erp: ErpEvidence | null;
+  readonly epochImage: EpochImage | null;
+  readonly dipole: DipoleEvidence | null;
+  /** The suggested verdict for each aim. */
+  readonly suggestions: Record<Aim, Suggestion>;
+}
