@@ -30,9 +30,14 @@ export interface EdfSignalLayout {
   readonly samplesPerRecord: number;
   /** Byte offset of this signal's samples inside one data record. */
   readonly byteOffsetInRecord: number;
-  /** Physical value (normalised unit) = gain · digital + offset. */
+  /**
+   * Physical value (normalised unit) = (physicalMin + (digital − digitalMin)·gain)·unitFactor, the spec's
+   * formula in the spec's order [METHODS §11], so values agree to the last bit with a direct evaluation.
+   */
   readonly gain: number;
-  readonly offset: number;
+  readonly physicalMin: number;
+  readonly digitalMin: number;
+  readonly unitFactor: number;
 }
 
 /** What the sample decoder needs to know about a file; derived from the header. */
@@ -216,9 +221,7 @@ export function parseEdfHeader(
     const scale = isAnnotation ? null : voltageScaleToMicrovolts(headerUnit);
     const unitFactor = scale ?? 1;
     const rawGain = isAnnotation ? 1 : (physicalMaxH - physicalMinH) / (digitalMax - digitalMin);
-    const gain = rawGain * unitFactor;
-    const offset = isAnnotation ? 0 : (physicalMinH - rawGain * digitalMin) * unitFactor;
-    signals.push({ label, isAnnotation, samplesPerRecord: spr, byteOffsetInRecord, gain, offset });
+    signals.push({ label, isAnnotation, samplesPerRecord: spr, byteOffsetInRecord, gain: rawGain, physicalMin: physicalMinH, digitalMin, unitFactor });
     byteOffsetInRecord += spr * bytesPerSample;
     if (isAnnotation) continue;
     if (recordDurationSeconds === 0)
@@ -598,19 +601,18 @@ function decodeBatch(
     const n = seg.k1 - seg.k0;
     for (let c = 0; c < sel.indices.length; c++) {
       const s = layout.signals[sel.indices[c]];
-      const gain = s.gain;
-      const offset = s.offset;
+      const { gain, physicalMin: pmin, digitalMin: dmin, unitFactor: uf } = s;
       let p = base + s.byteOffsetInRecord + seg.k0 * bps;
       const out = c * stride + pos;
       if (bps === 2) {
         for (let k = 0; k < n; k++, p += 2) {
           const v = ((bytes[p] | (bytes[p + 1] << 8)) << 16) >> 16;
-          data[out + k] = gain * v + offset;
+          data[out + k] = (pmin + (v - dmin) * gain) * uf;
         }
       } else {
         for (let k = 0; k < n; k++, p += 3) {
           const v = ((bytes[p] | (bytes[p + 1] << 8) | (bytes[p + 2] << 16)) << 8) >> 8;
-          data[out + k] = gain * v + offset;
+          data[out + k] = (pmin + (v - dmin) * gain) * uf;
         }
       }
     }
