@@ -7,6 +7,7 @@
  * Parsing never throws: bad input gives a ParseResult error naming the file and the fault.
  */
 import { parseFail, parseOk, type ParseResult } from '../formats/parse-result.ts';
+import { formatTsv, parseTsv } from '../formats/bids.ts';
 import { AIMS, REASON_CODES, VERDICTS, type Aim, type ReasonCode, type Suggestion, type Verdict } from './vocabulary.ts';
 
 export const DECISIONS_FORMAT = 'winnow-decisions/1';
@@ -152,34 +153,47 @@ export function parseDecisionsJson(text: string, fileName: string): ParseResult<
 }
 
 /**
+ * The TSV twin: columns `index verdict reason note`, one row per component, reason "n/a" when none (BIDS
+ * convention). Backslashes, line breaks and tabs inside notes are written as two characters (backslash + "\\", "n", "t") so every
+ * row stays on one line; spreadsheet formulas are neutralised by formatTsv (leading apostrophe).
+ */
+export function formatDecisionsTsv(file: Pick<DecisionsFile, 'components'>): string {
+  const escape = (note: string) => note.replace(/\\/g, '\\\\').replace(/\r\n?|\n/g, '\\n').replace(/\t/g, '\\t');
+  return formatTsv(
+    ['index', 'verdict', 'reason', 'note'],
+    file.components.map((c) => [c.index, c.verdict, c.reason ?? 'n/a', escape(c.note)]),
+  );
+}
+
+/**
  * Parses the TSV twin (columns `index verdict reason note`, any order, extra columns ignored). A cell that
  * was formula-neutralised on export (a leading apostrophe before = + - @) gets the apostrophe back off.
  * Undecided rows without reason and note are left out of the map.
  */
 export function parseDecisionsTsv(text: string, fileName: string): ParseResult<Record<number, ReviewDecision>> {
-  const fail = (message: string, line?: number) =>
-    parseFail<Record<number, ReviewDecision>>({ code: 'bad-tsv', message: `${fileName}: ${message}`, file: fileName, ...(line ? { line } : {}) });
-  const lines = text.replace(/\r\n?/g, '\n').split('\n');
-  while (lines.length > 0 && lines[lines.length - 1] === '') lines.pop();
-  if (lines.length === 0) return fail('the file is empty');
-  const header = lines[0].split('\t').map((h) => h.trim());
-  const col = (name: string) => header.indexOf(name);
+  const table = parseTsv(text, fileName);
+  if (!table.ok) return table;
+  const { columns, rows } = table.value;
+  const fail = (message: string, line: number) =>
+    parseFail<Record<number, ReviewDecision>>({ code: 'bad-tsv', message: `${fileName}: ${message}`, file: fileName, line });
   for (const name of ['index', 'verdict', 'reason', 'note']) {
-    if (col(name) < 0) return parseFail({ code: 'missing-column', message: `${fileName}: header has no "${name}" column (found ${header.join(', ')})`, file: fileName, line: 1 });
+    if (!columns.includes(name))
+      return parseFail({ code: 'missing-column', message: `${fileName}: header has no "${name}" column (found ${columns.join(', ')})`, file: fileName, line: 1 });
   }
-  const unneutralise = (cell: string) => (/^'[=+\-@\t\r]/.test(cell) ? cell.slice(1) : cell);
+  const unneutralise = (cell: string) => (/^'[=+\-@]/.test(cell) ? cell.slice(1) : cell);
   const out: Record<number, ReviewDecision> = {};
-  for (let i = 1; i < lines.length; i++) {
-    const cells = lines[i].split('\t');
-    const get = (name: string) => unneutralise(cells[col(name)] ?? '');
+  for (let i = 0; i < rows.length; i++) {
+    const line = i + 2;
+    const get = (name: string) => unneutralise(rows[i][columns.indexOf(name)] ?? '');
     const index = Number(get('index'));
-    if (!Number.isInteger(index) || index < 1) return fail(`line ${i + 1}: index "${get('index')}" is not a whole number ≥ 1`, i + 1);
+    if (!Number.isInteger(index) || index < 1) return fail(`line ${line}: index "${get('index')}" is not a whole number ≥ 1`, line);
+    if (index in out) return fail(`line ${line}: component ${index} appears twice`, line);
     const verdict = get('verdict');
-    if (!isVerdict(verdict)) return fail(`line ${i + 1}: verdict "${verdict}" must be keep, remove or undecided`, i + 1);
+    if (!isVerdict(verdict)) return fail(`line ${line}: verdict "${verdict}" must be keep, remove or undecided`, line);
     const reasonText = get('reason');
     const reason = reasonText === '' || reasonText === 'n/a' ? null : reasonText;
-    if (reason !== null && !isReason(reason)) return fail(`line ${i + 1}: reason "${reasonText}" is not a reason code`, i + 1);
-    const note = get('note').replace(/\\n/g, '\n').replace(/\\t/g, '\t');
+    if (reason !== null && !isReason(reason)) return fail(`line ${line}: reason "${reasonText}" is not a reason code`, line);
+    const note = get('note').replace(/\\([nt\\])/g, (_, c: string) => (c === 'n' ? '\n' : c === 't' ? '\t' : '\\'));
     if (verdict === 'undecided' && reason === null && note === '') continue;
     out[index] = { verdict, reason, note };
   }
