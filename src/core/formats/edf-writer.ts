@@ -128,8 +128,10 @@ function prepare(input: EdfWriteInput): Prepared {
         if (a > m) m = a;
       }
       if (!(m > 0)) m = 1;
-      pmin ??= Number(formatEdfNumber(-m, 8, 'down'));
-      pmax ??= Number(formatEdfNumber(m, 8, 'up'));
+      // The negative bound has the sign to fit in 8 characters, so it sets the rounding for both ends.
+      const M = -Number(formatEdfNumber(-m, 8, 'down'));
+      pmin ??= -M;
+      pmax ??= M;
     }
     if (pmin === pmax) throw new RangeError(`channel "${c.label}": physicalMin equals physicalMax (${pmin})`);
     return { dmin, dmax, pmin: Number(formatEdfNumber(pmin, 8, 'nearest')), pmax: Number(formatEdfNumber(pmax, 8, 'nearest')) };
@@ -199,6 +201,7 @@ function prepare(input: EdfWriteInput): Prepared {
   const text = main + sh;
   const header = new Uint8Array(headerBytes);
   for (let i = 0; i < text.length; i++) header[i] = text.charCodeAt(i);
+  if (bdf) header.set([0xff, 0x42, 0x49, 0x4f, 0x53, 0x45, 0x4d, 0x49]); // 0xFF "BIOSEMI" [BioSemi BDF]
   if (text.length !== headerBytes) throw new RangeError(`internal: header is ${text.length} bytes, expected ${headerBytes}`);
   if (p.mo < 1 || p.mo > 12) throw new RangeError(`start month out of range in "${input.start}"`);
 

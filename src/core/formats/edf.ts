@@ -232,8 +232,9 @@ export function parseEdfHeader(
       headerUnit,
       sampleRate: spr / recordDurationSeconds,
       samplesPerRecord: spr,
-      physicalMin: physicalMinH * unitFactor,
-      physicalMax: physicalMaxH * unitFactor,
+      // 15 significant digits drop binary noise of the decimal rescale (32.767 mV → 32767 µV, not …0004)
+      physicalMin: Number((physicalMinH * unitFactor).toPrecision(15)),
+      physicalMax: Number((physicalMaxH * unitFactor).toPrecision(15)),
       digitalMin,
       digitalMax,
       transducer: sfield(1, j).text,
