@@ -1,0 +1,131 @@
+/**
+ * The full evidence table of one component: every number with its unit, the threshold the suggestion
+ * rules compare it with (from the shared threshold table, src/core/review/thresholds.ts) and where the
+ * number and its threshold come from. Pure: the table component only renders these rows.
+ */
+import type { ComponentEvidence } from '../../core/evidence/types.ts';
+import { defaultThresholds, type Thresholds } from '../../core/review/thresholds.ts';
+
+export interface EvidenceRow {
+  readonly key: string;
+  readonly label: string;
+  /** Formatted value, or "n/a" when it could not be computed. */
+  readonly value: string;
+  readonly unit: string;
+  /** What the suggestion compares it with, e.g. "≥ 0.35 → muscle-like"; "" when no rule reads it. */
+  readonly threshold: string;
+  /** How the value is computed and where its threshold comes from. */
+  readonly source: string;
+  /** True when the value passes the threshold in the direction that points to an artifact sign. */
+  readonly flagged: boolean;
+}
+
+function num(v: number | null | undefined, digits = 2): string {
+  return v === null || v === undefined || !Number.isFinite(v) ? 'n/a' : v.toFixed(digits);
+}
+
+function pct(v: number | null | undefined, digits = 1): string {
+  return v === null || v === undefined || !Number.isFinite(v) ? 'n/a' : (v * 100).toFixed(digits);
+}
+
+/** A threshold given as a fraction, written as a whole percentage with its unit. */
+const pctU = (v: number) => `${pct(v, 0)} %`;
+
+const ge = (v: number | null | undefined, t: number) => v !== null && v !== undefined && Number.isFinite(v) && v >= t;
+
+/** Rows in reading order: size, spectrum, map, time course, events, dipole. */
+export function evidenceRows(e: ComponentEvidence, t: Thresholds = defaultThresholds): EvidenceRow[] {
+  const rows: EvidenceRow[] = [];
+  const add = (r: EvidenceRow) => rows.push(r);
+  add({ key: 'variance', label: 'Variance share', value: pct(e.varianceShare), unit: '%', threshold: '', source: 'Σ_c A[c,i]² var(s_i) / Σ_c var(x_c)', flagged: false });
+  add({
+    key: 'strongest', label: 'Strongest channel', value: e.strongestChannel.label, unit: '', threshold: '',
+    source: 'largest |A[c,i]|; spectra, averages and epoch image are in µV there', flagged: false,
+  });
+  add({
+    key: 'exponent', label: 'Aperiodic exponent', value: num(e.aperiodic.exponent), unit: '',
+    threshold: `${t.neuralExponentMin}–${t.neuralExponentMax} brain-like`,
+    source: `log–log fit ${e.aperiodic.rangeHz[0]}–${e.aperiodic.rangeHz[1]} Hz (METHODS §2); range from memory`,
+    flagged: false,
+  });
+  add({
+    key: 'alpha', label: 'Alpha peak', value: e.alphaPeakHz === null ? 'none' : num(e.alphaPeakHz, 1), unit: e.alphaPeakHz === null ? '' : 'Hz',
+    threshold: `prominence ≥ ${t.alphaProminence} log₁₀`, source: '7–14 Hz above the aperiodic fit (METHODS §3)', flagged: false,
+  });
+  add({ key: 'alphaProminence', label: 'Alpha prominence', value: num(e.alphaProminence, 3), unit: 'log₁₀', threshold: `≥ ${t.alphaProminence}`, source: 'height above the aperiodic fit (METHODS §3)', flagged: false });
+  add({
+    key: 'hf', label: 'High-frequency share', value: pct(e.highFrequencyShare), unit: '%',
+    threshold: `≥ ${pctU(t.muscleHighFrequencyShare)} muscle-like (≥ ${pctU(t.muscleHighFrequencyShareStrong)} strong)`,
+    source: 'BP(20, line−2) / BP(2, line−2) Hz (METHODS §4); threshold ours', flagged: ge(e.highFrequencyShare, t.muscleHighFrequencyShare),
+  });
+  add({
+    key: 'hfSlope', label: 'Slope above 20 Hz', value: num(e.highFrequencySlope), unit: 'log–log',
+    threshold: `≥ ${t.muscleSlope} flat or rising`, source: 'METHODS §14, common practice', flagged: ge(e.highFrequencySlope, t.muscleSlope),
+  });
+  add({
+    key: 'line', label: 'Line-noise share', value: pct(e.lineNoiseShare), unit: '%', threshold: `≥ ${pctU(t.lineNoiseShare)}`,
+    source: 'Σ_h BP(h·f0 ± 1 Hz) / BP(1, fmax) (METHODS §4); threshold ours', flagged: ge(e.lineNoiseShare, t.lineNoiseShare),
+  });
+  add({ key: 'linePeak', label: 'Line peak ratio', value: num(e.linePeakRatio, 1), unit: '×', threshold: '', source: 'P(f0) / median P in f0 ± 5 Hz (METHODS §4)', flagged: false });
+  add({
+    key: 'lf', label: 'Low-frequency share', value: pct(e.lowFrequencyShare), unit: '%', threshold: `≥ ${pctU(t.ocularLowFrequencyShare)} ocular-like`,
+    source: 'BP(1, 4) / BP(1, 45) Hz (METHODS §4); threshold ours', flagged: ge(e.lowFrequencyShare, t.ocularLowFrequencyShare),
+  });
+  add({
+    key: 'frontal', label: 'Frontal gradient', value: num(e.frontalGradient), unit: '×', threshold: `≥ ${t.blinkFrontalGradient} blink-like`,
+    source: 'mean |a| at Fp/AF ÷ elsewhere (METHODS §14); threshold ours', flagged: ge(e.frontalGradient, t.blinkFrontalGradient),
+  });
+  add({ key: 'frontalShare', label: 'Frontal share of map', value: pct(e.frontalShare), unit: '%', threshold: '', source: 'map energy in the front 20 % of the head', flagged: false });
+  add({
+    key: 'antisym', label: 'Left–right antisymmetry', value: num(e.lateralAntisymmetry), unit: '', threshold: `≥ ${t.eyeMovementAntisymmetry} eye-movement-like`,
+    source: 'mirror pairs, +1 antisymmetric (METHODS §14); threshold ours', flagged: ge(e.lateralAntisymmetry, t.eyeMovementAntisymmetry),
+  });
+  add({
+    key: 'focality', label: `Focality (${e.focality.channel})`, value: pct(e.focality.share), unit: '%', threshold: `≥ ${pctU(t.electrodeFocality)} single electrode`,
+    source: 'max a² / Σ a² (METHODS §14, common practice)', flagged: ge(e.focality.share, t.electrodeFocality),
+  });
+  add({
+    key: 'kurtosis', label: 'Excess kurtosis', value: num(e.kurtosis, 1), unit: '', threshold: `≥ ${t.blinkKurtosis} blink-like`,
+    source: 'E[(s−μ)⁴]/σ⁴ − 3 of the activation', flagged: ge(e.kurtosis, t.blinkKurtosis),
+  });
+  add({
+    key: 'steps', label: 'Step-likeness', value: num(e.stepLikeness), unit: '', threshold: `≥ ${t.eyeMovementStepLikeness} supports eye movement`,
+    source: 'persistence of slow jumps (ours)', flagged: ge(e.stepLikeness, t.eyeMovementStepLikeness),
+  });
+  const eogSrc = `${e.eogCorrelation.source}`;
+  add({
+    key: 'eogV', label: `|r| vertical EOG${e.eogCorrelation.channels.vertical ? ` (${e.eogCorrelation.channels.vertical})` : ''}`, value: num(e.eogCorrelation.vertical), unit: '',
+    threshold: `≥ ${t.eogCorrelation} ocular`, source: `Pearson r with ${eogSrc}; threshold from memory`, flagged: ge(e.eogCorrelation.vertical, t.eogCorrelation),
+  });
+  add({
+    key: 'eogH', label: `|r| horizontal EOG${e.eogCorrelation.channels.horizontal ? ` (${e.eogCorrelation.channels.horizontal})` : ''}`, value: num(e.eogCorrelation.horizontal), unit: '',
+    threshold: `≥ ${t.eogCorrelation} ocular`, source: `Pearson r with ${eogSrc}; threshold from memory`, flagged: ge(e.eogCorrelation.horizontal, t.eogCorrelation),
+  });
+  add({
+    key: 'cardiac', label: 'Cardiac periodicity', value: e.cardiac.bpm === null ? 'none' : `${num(e.cardiac.peak)} at ${num(e.cardiac.bpm, 0)} bpm`, unit: '',
+    threshold: `≥ ${t.cardiacPeak}`, source: 'autocorrelation peak at 40–150 bpm (ours)', flagged: ge(e.cardiac.peak, t.cardiacPeak),
+  });
+  if (e.stepLocking) {
+    add({
+      key: 'motion', label: `Step locking (${e.stepLocking.event})`, value: pct(e.stepLocking.share), unit: '%', threshold: `≥ ${pctU(t.motionStepLocking)}`,
+      source: `${e.stepLocking.nEpochs} step epochs (ours)`, flagged: ge(e.stepLocking.share, t.motionStepLocking),
+    });
+  }
+  if (e.erp) {
+    add({
+      key: 'locking', label: `Time-locking (${e.erp.event})`, value: pct(e.erp.timeLockingStrength), unit: '%',
+      threshold: `≥ ${pctU(t.timeLockingStrength)} with p ≤ ${t.timeLockingP}`,
+      source: `locked share above shuffled events, ${e.erp.nEpochs} epochs${e.erp.permutationP !== undefined ? `, p = ${num(e.erp.permutationP, 3)}` : ''}`,
+      flagged: false,
+    });
+    add({ key: 'itc', label: 'Inter-trial coherence', value: num(e.erp.itc), unit: '', threshold: '', source: `at ${num(e.erp.itcFrequencyHz, 1)} Hz`, flagged: false });
+  }
+  if (e.dipole) {
+    add({
+      key: 'rv', label: 'Dipole residual variance', value: pct(e.dipole.residualVariance), unit: '%', threshold: `≤ ${pctU(t.dipoleResidualVariance)} dipolar`,
+      source: 'single equivalent dipole, spherical model (METHODS §15); level from memory', flagged: !(e.dipole.residualVariance <= t.dipoleResidualVariance),
+    });
+    add({ key: 'region', label: 'Approximate region', value: e.dipole.region, unit: '', threshold: '', source: 'from the dipole position; a model estimate', flagged: false });
+  }
+  return rows;
+}

@@ -1,0 +1,94 @@
+/**
+ * Layout of stacked sensor traces: one row per channel, a shared µV-per-pixel gain, min/max decimation
+ * when there are more samples than pixels, and which events fall in the window. Pure functions; the canvas
+ * drawing lives in trace-draw.ts.
+ */
+
+/** Vertical centre (px) of each of `nRows` rows spread evenly between `top` and `bottom`. */
+export function rowCentres(nRows: number, top: number, bottom: number): Float64Array {
+  const out = new Float64Array(nRows);
+  const step = nRows > 0 ? (bottom - top) / nRows : 0;
+  for (let r = 0; r < nRows; r++) out[r] = top + (r + 0.5) * step;
+  return out;
+}
+
+/**
+ * A readable gain in µV per row spacing: the 95th percentile over rows of each row's robust spread
+ * (1.4826 · median absolute deviation, the normal-consistent MAD, common practice) times 6, i.e. about ±3
+ * robust SD fills one row. Rows are channel-major with `length` samples. Returns 1 for empty/flat data.
+ */
+export function robustRowSpan(data: ArrayLike<number>, nRows: number, length: number): number {
+  const spreads: number[] = [];
+  const buf = new Float64Array(length);
+  for (let r = 0; r < nRows; r++) {
+    let n = 0;
+    for (let t = 0; t < length; t++) {
+      const v = data[r * length + t];
+      if (Number.isFinite(v)) buf[n++] = v;
+    }
+    if (n === 0) continue;
+    const vals = buf.subarray(0, n).slice().sort();
+    const med = median(vals);
+    for (let i = 0; i < n; i++) vals[i] = Math.abs(vals[i] - med);
+    vals.sort();
+    const mad = 1.4826 * median(vals);
+    if (mad > 0) spreads.push(mad);
+  }
+  if (spreads.length === 0) return 1;
+  spreads.sort((a, b) => a - b);
+  return 6 * spreads[Math.min(spreads.length - 1, Math.floor(0.95 * (spreads.length - 1) + 0.5))];
+}
+
+function median(sorted: Float64Array): number {
+  const n = sorted.length;
+  return n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);
+}
+
+/**
+ * Min/max decimation of samples [start, end) of `x` into `nColumns` pixel columns: column j covers samples
+ * start + floor(j·L/nColumns) … start + floor((j+1)·L/nColumns) − 1. Drawing a vertical line from min to max
+ * per column shows every peak that a plain subsample would miss. NaN-only columns give NaN.
+ */
+export function minMaxColumns(
+  x: ArrayLike<number>,
+  start: number,
+  end: number,
+  nColumns: number,
+  outMin = new Float64Array(nColumns),
+  outMax = new Float64Array(nColumns),
+): { min: Float64Array; max: Float64Array } {
+  const L = Math.max(0, end - start);
+  for (let j = 0; j < nColumns; j++) {
+    const a = start + Math.floor((j * L) / nColumns);
+    const b = Math.max(a + 1, start + Math.floor(((j + 1) * L) / nColumns));
+    let lo = Infinity;
+    let hi = -Infinity;
+    for (let i = a; i < b && i < end; i++) {
+      const v = x[i];
+      if (v < lo) lo = v;
+      if (v > hi) hi = v;
+    }
+    outMin[j] = lo === Infinity ? NaN : lo;
+    outMax[j] = hi === -Infinity ? NaN : hi;
+  }
+  return { min: outMin, max: outMax };
+}
+
+export interface WindowEvent {
+  readonly onset: number;
+  readonly label: string;
+}
+
+/** Events whose onset (s) lies in [t0, t1), in time order. */
+export function eventsInWindow(events: readonly WindowEvent[], t0: number, t1: number): WindowEvent[] {
+  return events.filter((e) => e.onset >= t0 && e.onset < t1).sort((a, b) => a.onset - b.onset);
+}
+
+/**
+ * Clamps a window start (s) so [start, start + lengthS] stays inside a recording of `durationS` seconds;
+ * a window longer than the recording starts at 0.
+ */
+export function clampWindowStart(startS: number, lengthS: number, durationS: number): number {
+  if (!(lengthS < durationS)) return 0;
+  return Math.min(Math.max(0, startS), durationS - lengthS);
+}
