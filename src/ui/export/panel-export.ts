@@ -1,0 +1,115 @@
+/**
+ * Exports a panel's figure(s) as SVG or PNG, entirely in the page (blob downloads; nothing leaves the
+ * machine). Every `<svg>` and `<canvas>` inside the panel is placed at its on-screen offset in one SVG
+ * document: SVG plots are copied as nested `<svg>` elements (XMLSerializer), canvases become PNG `<image>`s
+ * (data URLs, allowed by the CSP's img-src). The PNG is that SVG drawn onto a canvas at 2× and saved with
+ * `toBlob`. Browser only.
+ */
+import type { PanelFormat } from './export-names.ts';
+
+const SVG_NS = 'http://www.w3.org/2000/svg';
+
+/** Builds one standalone SVG document string from the figures inside `panel`. */
+export function panelToSvg(panel: HTMLElement, title?: string): { svg: string; width: number; height: number } {
+  const figures = Array.from(panel.querySelectorAll<SVGSVGElement | HTMLCanvasElement>('svg, canvas')).filter(
+    // nested svgs are copied with their parent
+    (el) => !(el instanceof SVGSVGElement && el.parentElement?.closest('svg')),
+  );
+  const origin = panel.getBoundingClientRect();
+  const titleH = title ? 18 : 0;
+  let width = 1;
+  let height = titleH + 1;
+  const doc = document.implementation.createDocument(SVG_NS, 'svg', null);
+  const root = doc.documentElement;
+  root.setAttribute('font-family', 'system-ui, sans-serif');
+  const bg = doc.createElementNS(SVG_NS, 'rect');
+  bg.setAttribute('fill', '#ffffff');
+  root.appendChild(bg);
+  if (title) {
+    const t = doc.createElementNS(SVG_NS, 'text');
+    t.setAttribute('x', '4');
+    t.setAttribute('y', '13');
+    t.setAttribute('font-size', '12');
+    t.textContent = title; // text node: never parsed as markup
+    root.appendChild(t);
+  }
+  for (const el of figures) {
+    const r = el.getBoundingClientRect();
+    if (r.width === 0 || r.height === 0) continue;
+    const x = Math.round(r.left - origin.left);
+    const y = Math.round(r.top - origin.top) + titleH;
+    width = Math.max(width, x + r.width);
+    height = Math.max(height, y + r.height);
+    if (el instanceof HTMLCanvasElement) {
+      const img = doc.createElementNS(SVG_NS, 'image');
+      img.setAttribute('x', String(x));
+      img.setAttribute('y', String(y));
+      img.setAttribute('width', String(r.width));
+      img.setAttribute('height', String(r.height));
+      img.setAttribute('href', el.toDataURL('image/png'));
+      root.appendChild(img);
+    } else {
+      const copy = doc.importNode(el, true) as SVGSVGElement;
+      copy.setAttribute('x', String(x));
+      copy.setAttribute('y', String(y));
+      copy.setAttribute('width', String(r.width));
+      copy.setAttribute('height', String(r.height));
+      root.appendChild(copy);
+    }
+  }
+  width = Math.ceil(width);
+  height = Math.ceil(height);
+  root.setAttribute('width', String(width));
+  root.setAttribute('height', String(height));
+  root.setAttribute('viewBox', `0 0 ${width} ${height}`);
+  bg.setAttribute('width', String(width));
+  bg.setAttribute('height', String(height));
+  return { svg: new XMLSerializer().serializeToString(doc), width, height };
+}
+
+/** Rasterises an SVG document string to a PNG blob at `scale` × its size. */
+export async function svgToPng(svg: string, width: number, height: number, scale = 2): Promise<Blob> {
+  const url = URL.createObjectURL(new Blob([svg], { type: 'image/svg+xml' }));
+  try {
+    const img = new Image();
+    img.decoding = 'sync';
+    const loaded = new Promise<void>((resolve, reject) => {
+      img.onload = () => resolve();
+      img.onerror = () => reject(new Error('the panel picture could not be drawn'));
+    });
+    img.src = url;
+    await loaded;
+    const canvas = document.createElement('canvas');
+    canvas.width = Math.max(1, Math.round(width * scale));
+    canvas.height = Math.max(1, Math.round(height * scale));
+    const ctx = canvas.getContext('2d');
+    if (!ctx) throw new Error('no 2-D canvas available');
+    ctx.scale(scale, scale);
+    ctx.drawImage(img, 0, 0, width, height);
+    return await new Promise<Blob>((resolve, reject) =>
+      canvas.toBlob((b) => (b ? resolve(b) : reject(new Error('PNG encoding failed'))), 'image/png'),
+    );
+  } finally {
+    URL.revokeObjectURL(url);
+  }
+}
+
+/** Saves `blob` under `fileName` through a temporary object URL (no network). */
+export function downloadBlob(blob: Blob, fileName: string): void {
+  const url = URL.createObjectURL(blob);
+  const a = document.createElement('a');
+  a.href = url;
+  a.download = fileName;
+  a.rel = 'noopener';
+  document.body.appendChild(a);
+  a.click();
+  a.remove();
+  setTimeout(() => URL.revokeObjectURL(url), 1000);
+}
+
+/** Exports `panel` in `format` and starts the download. */
+export async function exportPanel(panel: HTMLElement, format: PanelFormat, fileName: string, title?: string): Promise<void> {
+  const { svg, width, height } = panelToSvg(panel, title);
+  const blob = format === 'svg' ? new Blob([svg], { type: 'image/svg+xml' }) : await svgToPng(svg, width, height);
+  downloadBlob(blob, fileName);
+}
