@@ -1,0 +1,24 @@
+/**
+ * Projection worker (wiring only): the activations S_w = W (X_w − m) of one preview window, computed with
+ * the core's register-blocked kernel off the main thread. The result is transferred, not copied.
+ */
+import { expose, transfer } from 'comlink';
+import { windowActivations } from '../src/core/review/preview-projection.ts';
+
+const api = {
+  /** k × length activations of a channel-major n × length window (see windowActivations). */
+  activations(
+    unmixing: Float64Array,
+    k: number,
+    n: number,
+    window: Float32Array,
+    length: number,
+    channelMeans: Float64Array | null,
+  ): Float64Array {
+    const out = windowActivations(unmixing, k, n, window, length, channelMeans);
+    return transfer(out, [out.buffer]);
+  },
+};
+
+export type ProjectionApi = typeof api;
+expose(api);
