@@ -3,7 +3,7 @@ import { rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { main } from '../../src/cli/winnow.ts';
 import { memoryIo } from '../../src/cli/cli-support.ts';
-import { writeCliRecordings } from './cli-recordings.ts';
+import { writeCliRecordings } from '../core/formats/cli-recordings.ts';
 
 const files = writeCliRecordings();
 afterAll(() => rmSync(files.dir, { recursive: true, force: true }));

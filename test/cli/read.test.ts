@@ -4,7 +4,7 @@ import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { main } from '../../src/cli/winnow.ts';
 import { memoryIo } from '../../src/cli/cli-support.ts';
-import { writeCliRecordings } from './cli-recordings.ts';
+import { writeCliRecordings } from '../core/formats/cli-recordings.ts';
 
 const files = writeCliRecordings();
 afterAll(() => rmSync(files.dir, { recursive: true, force: true }));
@@ -76,5 +76,33 @@ describe('winnow read (issue 2 contract)', () => {
     const bad = spawnSync(process.execPath, ['bin/winnow.mjs', 'inspect', files.truncated], { cwd: repo, encoding: 'utf8' });
     expect(bad.status).toBe(2);
     expect(bad.stderr).toBe(`error: ${files.truncated}: header says 2 data records of 60 bytes but the file holds 1 and 30 bytes\n`);
+  });
+});
+
+describe('file access under winnow read (node-byte-source, atomic-write)', () => {
+  it('reads a file in positioned slices, short at the end', async () => {
+    const { openFileByteSource } = await import('../../src/cli/node-byte-source.ts');
+    const src = await openFileByteSource(files.bdf);
+    try {
+      expect(src.size).toBe(536); // checks/edf_layout.json: bdf size_bytes
+      expect(Array.from(await src.read(0, 8))).toEqual([0xff, 0x42, 0x49, 0x4f, 0x53, 0x45, 0x4d, 0x49]);
+      expect((await src.read(530, 100)).length).toBe(6);
+    } finally {
+      await src.close();
+    }
+  });
+
+  it('writes atomically: the target gets the whole content and no temporary file is left behind', async () => {
+    const { writeFileAtomic, writeFileAtomicChunks } = await import('../../src/cli/atomic-write.ts');
+    const { readdirSync, readFileSync } = await import('node:fs');
+    const { join } = await import('node:path');
+    const target = join(files.dir, 'out.tsv');
+    await writeFileAtomic(target, 'a\tb\n');
+    await writeFileAtomic(target, 'c\td\n'); // replaces
+    expect(readFileSync(target, 'utf8')).toBe('c\td\n');
+    await writeFileAtomicChunks(join(files.dir, 'out.bin'), [new Uint8Array([1, 2]), new Uint8Array([3])]);
+    expect(Array.from(readFileSync(join(files.dir, 'out.bin')))).toEqual([1, 2, 3]);
+    expect(readdirSync(files.dir).filter((f) => f.endsWith('.tmp'))).toEqual([]);
+    await expect(writeFileAtomic(join(files.dir, 'no-such-dir', 'x'), 'x')).rejects.toThrow();
   });
 });

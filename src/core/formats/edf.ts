@@ -473,7 +473,7 @@ export interface EdfReadOptions {
   durationS?: number;
 }
 
-/** A run of consecutive samples of one record that falls inside the requested time window. */
+/** A run of consecutive samples of one record that falls inside the requested time span. */
 interface Segment {
   record: number;
   k0: number;

@@ -7,8 +7,8 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { writeEdf } from '../../src/core/formats/edf-writer.ts';
-import { annotationSignal, le16, specFile, talBytes } from '../core/formats/edf-spec-bytes.ts';
+import { writeEdf } from '../../../src/core/formats/edf-writer.ts';
+import { annotationSignal, le16, specFile, talBytes } from './edf-spec-bytes.ts';
 
 export interface CliRecordings {
   dir: string;
@@ -43,7 +43,7 @@ export function writeCliRecordings(): CliRecordings {
     }),
   );
   const bdf = join(dir, 'example.bdf');
-  writeFileSync(bdf, readFileSync(fileURLToPath(new URL('../fixtures/formats/bdf_example.bdf', import.meta.url))));
+  writeFileSync(bdf, readFileSync(fileURLToPath(new URL('../../fixtures/formats/bdf_example.bdf', import.meta.url))));
   const truncated = join(dir, 'recording.edf');
   const full = readFileSync(multiRate);
   writeFileSync(truncated, full.subarray(0, full.length - 30));
