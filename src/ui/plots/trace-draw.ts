@@ -24,6 +24,13 @@ export interface TraceSpec {
   readonly layers: readonly TraceLayer[];
   /** Value (µV) that spans one row's height. */
   readonly rowSpan: number;
+  /** Optional per-row span overriding `rowSpan` (rows in other units, e.g. an activation). */
+  readonly rowSpans?: ArrayLike<number>;
+  /**
+   * Which data row each drawn row shows (default: row r shows data row r). Lets a caller draw a channel
+   * selection straight from a full channel-major buffer that it keeps updating in place.
+   */
+  readonly rowIndex?: ArrayLike<number>;
   readonly events: readonly WindowEvent[];
   /** Draw the layers in two panels side by side (panel 0 left, 1 right) instead of overlaid. */
   readonly sideBySide?: boolean;
@@ -51,7 +58,6 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
   const nRows = spec.rowLabels.length;
   const centres = rowCentres(nRows, TOP, spec.height - BOTTOM);
   const rowH = nRows ? (spec.height - TOP - BOTTOM) / nRows : 0;
-  const pxPerUnit = spec.rowSpan > 0 ? rowH / spec.rowSpan : 0;
   const panels = spec.sideBySide ? 2 : 1;
   const plotW = (spec.width - LABEL_W - 8 * panels) / panels;
   const durS = spec.length / spec.sampleRate;
@@ -107,8 +113,10 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
       ctx.lineWidth = layer.lineWidth;
       ctx.beginPath();
       for (let r = 0; r < nRows; r++) {
-        const off = r * spec.length;
+        const off = (spec.rowIndex ? spec.rowIndex[r] : r) * spec.length;
         const yc = centres[r];
+        const span = spec.rowSpans ? spec.rowSpans[r] : spec.rowSpan;
+        const pxPerUnit = span > 0 ? rowH / span : 0;
         if (spec.length > 2 * cols) {
           minMaxColumns(layer.data, off, off + spec.length, cols, mn, mx);
           let rowMean = 0;

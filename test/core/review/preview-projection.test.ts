@@ -6,6 +6,8 @@ import {
   extractWindow,
   recomputeCleaned,
   regionErpAfter,
+  regionErpPlan,
+  regionMean,
   regionMixing,
   removedVarianceShare,
   setComponentRemoved,
@@ -172,5 +174,31 @@ describe('removedVarianceShare', () => {
     const share = removedVarianceShare(win);
     expect(share[0]).toBeCloseTo(1, 12);
     expect(share[1]).toBe(0);
+  });
+});
+
+describe('regionErpPlan', () => {
+  it('gives region and component ERPs whose combination equals the ERP of the cleaned data', () => {
+    const n = 5, k = 3, T = 1500, fs = 100;
+    const { X, W, A, m } = randomProblem(n, k, T, 21);
+    // recording rows in a different order from the decomposition channels: decomposition c ↔ row perm[c]
+    const perm = [3, 0, 4, 1, 2];
+    const data = new Float32Array(n * T);
+    for (let c = 0; c < n; c++) data.set(X.subarray(c * T, (c + 1) * T), perm[c] * T);
+    const onsets = [1, 3.3, 5.5, 8.02, 11];
+    const roi = [0, 2];
+    const plan = regionErpPlan(data, T, fs, perm, roi, W, A, k, onsets)!;
+    expect(plan.nEpochs).toBe(5);
+    const S = windowActivations(W, k, n, X, T, m);
+    const removed = new Set([1]);
+    const after = regionErpAfter(plan.before, plan.componentErps, plan.regionWeights, removed);
+    const cleanRoi = regionMean(recomputeCleaned(X, n, T, A, S, k, removed), T, roi);
+    const ep = extractEpochs(cleanRoi, fs, onsets, -0.2, 0.8);
+    const direct = epochMean(ep.epochs, ep.nEpochs, ep.length);
+    for (let t = 0; t < direct.length; t++) expect(after[t]).toBeCloseTo(direct[t], 8);
+  });
+  it('returns null when no epoch fits in the recording', () => {
+    const X = new Float32Array(20);
+    expect(regionErpPlan(X, 10, 100, [0, 1], [0], new Float64Array(2), new Float64Array(2), 1, [5])).toBeNull();
   });
 });
