@@ -147,11 +147,15 @@ function rng(ctx: SourceContext, id: string): Rng {
   return streamRng(ctx.seed, `source/${id}`);
 }
 
-/** Broadband (20–100 Hz, capped below Nyquist) noise gated by bursts plus a small tonic level. */
+/**
+ * Broadband noise gated by bursts plus a small tonic level. The carrier is flat from 15 Hz to 100 Hz
+ * (capped at 0.4 fs) with 8/15 Hz raised-cosine skirts, so the spectrum is flat above 20 Hz even after the
+ * burst envelope smears the lower edge (surface EMG is broadband from ~15–20 Hz up; common practice).
+ */
 function muscleActivation(ctx: SourceContext, id: string, bursts: Scenario['jawLeftBursts'], tonic: number): Float64Array {
   const r = rng(ctx, id);
   const hi = Math.min(100, 0.4 * ctx.fs);
-  const noise = shapedNoise(r, ctx.n, ctx.fs, bandGain(20, hi, Math.min(15, 0.5 * ctx.fs - hi)));
+  const noise = shapedNoise(r, ctx.n, ctx.fs, bandGain(15, hi, 8, Math.min(15, 0.5 * ctx.fs - hi)));
   const env = new Float64Array(ctx.n).fill(tonic);
   for (const b of bursts) addKernel(env, ctx.fs, b.timeS, b.amplitude, 0, b.durS, (t) => burstWindow(t, b.durS));
   for (let i = 0; i < ctx.n; i++) noise[i] *= env[i];
@@ -179,9 +183,9 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     'alpha-posterior',
     'Posterior alpha: waxing and waning bursts at an individual peak of 9.5 Hz with a second harmonic at 19 Hz; parieto-occipital dipole.',
     { positionMm: [0, -58, 12], direction: [0, -0.45, 0.9] },
-    8,
+    5,
     burstyOscillation(rng(ctx, 'alpha-posterior'), n, fs, {
-      freqHz: 9.5, freqJitterHz: 0.15, envelopeTauS: 0.5, envelopeLogSd: 0.8, harmonicRatio: 0.25, harmonicPhaseRad: 0.6,
+      freqHz: 9.5, freqJitterHz: 0.15, envelopeTauS: 0.5, envelopeLogSd: 0.75, harmonicRatio: 0.25, harmonicPhaseRad: 0.6,
     }),
     'relative amplitude (mean envelope 1)',
   );
@@ -349,21 +353,21 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
   };
   muscle(
     'muscle-temporal-left',
-    'Left temporalis/masseter (jaw clenching): 20–100 Hz broadband bursts of 0.3–1.2 s, shallow source at the lower left edge of the cap.',
+    'Left temporalis/masseter (jaw clenching): 15–100 Hz broadband bursts of 0.3–1.2 s, shallow source at the lower left edge of the cap.',
     { positionMm: [-80, 5, 22], direction: [0, 0.25, 0.97] },
     scenario.jawLeftBursts,
     0.08,
   );
   muscle(
     'muscle-temporal-right',
-    'Right temporalis/masseter (jaw clenching): 20–100 Hz broadband bursts, shallow source at the lower right edge of the cap.',
+    'Right temporalis/masseter (jaw clenching): 15–100 Hz broadband bursts, shallow source at the lower right edge of the cap.',
     { positionMm: [80, 0, 18], direction: [0, -0.3, 0.95] },
     scenario.jawRightBursts,
     0.08,
   );
   muscle(
     'muscle-neck',
-    'Neck muscles: short 20–100 Hz bursts 20–60 ms after about half of the heel strikes and through each turn, shallow source below the occipital electrodes.',
+    'Neck muscles: short 15–100 Hz bursts 20–60 ms after about half of the heel strikes and through each turn, shallow source below the occipital electrodes.',
     { positionMm: [-10, -80, 5], direction: [0, 0.2, 1] },
     scenario.neckBursts,
     0.05,

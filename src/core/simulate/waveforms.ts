@@ -74,15 +74,17 @@ export function powerLawGain(chi: number, fKneeHz: number): (fHz: number) => num
 }
 
 /**
- * Flat amplitude gain between `loHz` and `hiHz` with raised-cosine skirts of width `skirtHz` outside the
- * band; 0 beyond the skirts. Used for the broadband muscle sources (flat 20–100 Hz).
+ * Flat amplitude gain between `loHz` and `hiHz` with raised-cosine skirts of width `lowSkirtHz` below and
+ * `highSkirtHz` above the band; 0 beyond the skirts. Used for the broadband muscle sources.
  */
-export function bandGain(loHz: number, hiHz: number, skirtHz: number): (fHz: number) => number {
+export function bandGain(loHz: number, hiHz: number, lowSkirtHz: number, highSkirtHz = lowSkirtHz): (fHz: number) => number {
   return (f) => {
     if (f >= loHz && f <= hiHz) return 1;
-    const d = f < loHz ? loHz - f : f - hiHz;
-    if (d >= skirtHz) return 0;
-    return 0.5 + 0.5 * Math.cos((Math.PI * d) / skirtHz);
+    const below = f < loHz;
+    const d = below ? loHz - f : f - hiHz;
+    const w = below ? lowSkirtHz : highSkirtHz;
+    if (d >= w) return 0;
+    return 0.5 + 0.5 * Math.cos((Math.PI * d) / w);
   };
 }
 
