@@ -22,7 +22,7 @@ export async function bench(): Promise<BenchRow[]> {
   }));
   const annotations = Array.from({ length: 300 }, (_, k) => ({ onset: k + 0.5, duration: 0, label: `stim ${k}` }));
   const input = { format: 'EDF+C' as const, start: '2026-01-01T00:00:00', recordDurationSeconds: 1, channels, annotations };
-  let bytes = new Uint8Array(0);
+  let bytes: Uint8Array = new Uint8Array(0);
   const writeMs = await medianMs(() => void (bytes = writeEdf(input)), 3);
   const src = bytesByteSource(bytes, 'bench.edf');
   const infoRes = await readEdfInfo(src);
