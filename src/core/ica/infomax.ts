@@ -66,17 +66,12 @@ export function extendedInfomax(Z: Float32Array, k: number, T: number, opts: Inf
 
   const nBlocks = Math.max(1, Math.floor(T / b));
   const order = new Uint32Array(nBlocks);
-  const U = new Float64Array(k * b);
-  const F = new Float64Array(k * b);
-  const M = new Float64Array(kk);
-  const D = new Float64Array(kk);
-  const dW = new Float64Array(kk);
+  const scratch = createBlockScratch(k, b);
   const Wprev = new Float64Array(kk);
   const delta = new Float64Array(kk);
   const deltaPrev = new Float64Array(kk);
-  const sumSech2 = new Float64Array(k);
-  const sumU2 = new Float64Array(k);
-  const sumThU = new Float64Array(k);
+  const stats = { sech2: new Float64Array(k), u2: new Float64Array(k), tanhU: new Float64Array(k) };
+  const { sech2: sumSech2, u2: sumU2, tanhU: sumThU } = stats;
   let statCount = 0;
   const K = new Float64Array(k).fill(1);
   const W = new Float64Array(kk);
@@ -114,43 +109,12 @@ export function extendedInfomax(Z: Float32Array, k: number, T: number, opts: Inf
     let blewUp = false;
     for (let bi = 0; bi < nBlocks; bi++) {
       const t0 = order[bi] * b;
-      multiplyChannelMajor(W, k, k, Z, T, U, t0, t0 + b);
-      for (let i = 0; i < k; i++) {
-        const o = i * b;
-        const ki = K[i];
-        let s2 = 0;
-        let u2 = 0;
-        let tu = 0;
-        for (let t = 0; t < b; t++) {
-          const u = U[o + t];
-          const th = fastTanh(u);
-          F[o + t] = ki * th + u;
-          s2 += th * th;
-          u2 += u * u;
-          tu += th * u;
-        }
-        sumSech2[i] += b - s2;
-        sumU2[i] += u2;
-        sumThU[i] += tu;
-      }
+      naturalGradientBlockStep(W, k, Z, T, t0, b, K, eta, scratch, stats);
       statCount += b;
-      // D = I − E[(K tanh U + U) Uᵀ]
-      M.fill(0);
-      accumulateProductTransposed(F, b, k, U, b, k, b, M);
-      for (let i = 0; i < kk; i++) D[i] = -M[i] / b;
-      for (let i = 0; i < k; i++) D[i * k + i] += 1;
-      matrixMultiply(D, W, k, k, k, dW);
-      let big = 0;
       for (let i = 0; i < kk; i++) {
-        const v = W[i] + eta * dW[i];
-        W[i] = v;
-        const a = Math.abs(v);
-        if (!(a <= big)) big = a; // NaN-safe: NaN makes big NaN
+        if (!(Math.abs(W[i]) <= 1e4)) blewUp = true; // also true for NaN
       }
-      if (!(big <= 1e4)) {
-        blewUp = true;
-        break;
-      }
+      if (blewUp) break;
       if (++blocksSinceSign >= 8) {
         updateSigns();
         blocksSinceSign = 0;
@@ -201,4 +165,86 @@ export function extendedInfomax(Z: Float32Array, k: number, T: number, opts: Inf
   const signs = new Int8Array(k);
   for (let i = 0; i < k; i++) signs[i] = K[i] > 0 ? 1 : -1;
   return { W: Float64Array.from(W), iterations: it, converged, convergence: change / k, signs, warnings };
+}
+
+/** Scratch buffers of one block update (allocated once per run). */
+export interface BlockScratch {
+  readonly U: Float64Array;
+  readonly F: Float64Array;
+  readonly M: Float64Array;
+  readonly D: Float64Array;
+  readonly dW: Float64Array;
+}
+
+export function createBlockScratch(k: number, b: number): BlockScratch {
+  return {
+    U: new Float64Array(k * b),
+    F: new Float64Array(k * b),
+    M: new Float64Array(k * k),
+    D: new Float64Array(k * k),
+    dW: new Float64Array(k * k),
+  };
+}
+
+/**
+ * One natural-gradient block update of extended Infomax, in place on W (k × k), over samples [t0, t0 + b) of
+ * Z (k × T channel-major):  U = W Z_b,  W ← W + η [I − K E{tanh(U)Uᵀ} − E{UUᵀ}] W  (METHODS §7.2).
+ * Adds Σ sech²(u_i), Σ u_i², Σ tanh(u_i) u_i of the block (taken at the W before the update) to `stats`,
+ * from which the switching statistic is formed.
+ */
+export function naturalGradientBlockStep(
+  W: Float64Array,
+  k: number,
+  Z: Float32Array,
+  T: number,
+  t0: number,
+  b: number,
+  K: Float64Array,
+  eta: number,
+  scratch: BlockScratch,
+  stats: { sech2: Float64Array; u2: Float64Array; tanhU: Float64Array },
+): void {
+  const { U, F, M, D, dW } = scratch;
+  const kk = k * k;
+  multiplyChannelMajor(W, k, k, Z, T, U, t0, t0 + b);
+  for (let i = 0; i < k; i++) {
+    const o = i * b;
+    const ki = K[i];
+    let s2 = 0;
+    let u2 = 0;
+    let tu = 0;
+    for (let t = 0; t < b; t++) {
+      const u = U[o + t];
+      const th = fastTanh(u);
+      F[o + t] = ki * th + u;
+      s2 += th * th;
+      u2 += u * u;
+      tu += th * u;
+    }
+    stats.sech2[i] += b - s2;
+    stats.u2[i] += u2;
+    stats.tanhU[i] += tu;
+  }
+  // D = I − E[(K tanh U + U) Uᵀ]
+  M.fill(0);
+  accumulateProductTransposed(F, b, k, U, b, k, b, M);
+  for (let i = 0; i < kk; i++) D[i] = -M[i] / b;
+  for (let i = 0; i < k; i++) D[i * k + i] += 1;
+  matrixMultiply(D, W, k, k, k, dW);
+  for (let i = 0; i < kk; i++) W[i] += eta * dW[i];
+}
+
+/** Switching statistic E{sech² u}E{u²} − E{tanh(u) u} of one sample row (Lee et al. 1999; > 0 super-Gaussian). */
+export function switchingStatistic(u: ArrayLike<number>): number {
+  let s2 = 0;
+  let u2 = 0;
+  let tu = 0;
+  for (let t = 0; t < u.length; t++) {
+    const th = Math.tanh(u[t]);
+    s2 += 1 - th * th;
+    u2 += u[t] * u[t];
+    tu += th * u[t];
+  }
+  const n = u.length;
+  return (s2 / n) * (u2 / n) - tu / n;
 }

@@ -4,7 +4,7 @@
  */
 
 /** out (n × p) = A (n × m) · B (m × p). `out` must not alias A or B. */
-export function matrixMultiply(A: Float64Array, B: Float64Array, n: number, m: number, p: number, out = new Float64Array(n * p)): Float64Array {
+export function matrixMultiply(A: Float64Array, B: Float64Array, n: number, m: number, p: number, out: Float64Array = new Float64Array(n * p)): Float64Array {
   out.fill(0, 0, n * p);
   for (let i = 0; i < n; i++) {
     for (let l = 0; l < m; l++) {
@@ -19,13 +19,13 @@ export function matrixMultiply(A: Float64Array, B: Float64Array, n: number, m: n
 }
 
 /** out (m × n) = Aᵀ for A (n × m). */
-export function matrixTranspose(A: Float64Array, n: number, m: number, out = new Float64Array(n * m)): Float64Array {
+export function matrixTranspose(A: Float64Array, n: number, m: number, out: Float64Array = new Float64Array(n * m)): Float64Array {
   for (let i = 0; i < n; i++) for (let j = 0; j < m; j++) out[j * n + i] = A[i * m + j];
   return out;
 }
 
 /** n × n identity. */
-export function matrixIdentity(n: number, out = new Float64Array(n * n)): Float64Array {
+export function matrixIdentity(n: number, out: Float64Array = new Float64Array(n * n)): Float64Array {
   out.fill(0, 0, n * n);
   for (let i = 0; i < n; i++) out[i * n + i] = 1;
   return out;
@@ -55,9 +55,9 @@ export function matrixExponential(A: Float64Array, n: number): Float64Array {
   const scale = 2 ** -s;
   const As = new Float64Array(n * n);
   for (let i = 0; i < n * n; i++) As[i] = A[i] * scale;
-  let result = matrixIdentity(n);
-  let term = matrixIdentity(n);
-  let next = new Float64Array(n * n);
+  let result: Float64Array = matrixIdentity(n);
+  let term: Float64Array = matrixIdentity(n);
+  let next: Float64Array = new Float64Array(n * n);
   for (let q = 1; q <= 18; q++) {
     matrixMultiply(term, As, n, n, n, next);
     for (let i = 0; i < n * n; i++) next[i] /= q;
