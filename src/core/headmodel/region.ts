@@ -12,7 +12,7 @@
  *   hemisphere: midline when |x| < 0.06 R (about 5 mm at R = 90 mm), else left (x < 0) / right (x > 0);
  *   temporal:   u_z < 0.45 and |u_x| > 0.6 and −0.65 < u_y < 0.55;
  *   frontal:    u_y > 0.25;   central: −0.2 ≤ u_y ≤ 0.25;
- *   occipital:  u_y < −0.2 and u_y < −0.8 + 0.3 u_z (low and far back);  parietal: the rest behind central;
+ *   occipital:  u_y < −0.7 (behind the PO row);  parietal: −0.7 ≤ u_y < −0.2;
  *   depth:      superficial when |p| ≥ 0.55 R (within ≈ 28 mm of the brain shell at 0.87 R), else deep.
  */
 
@@ -53,7 +53,7 @@ export function approximateRegion(positionMm: ArrayLike<number>, radiusMm = 90):
   if (uz < 0.45 && Math.abs(ux) > 0.6 && uy > -0.65 && uy < 0.55) lobe = 'temporal';
   else if (uy > 0.25) lobe = 'frontal';
   else if (uy >= -0.2) lobe = 'central';
-  else if (uy < -0.8 + 0.3 * uz) lobe = 'occipital';
+  else if (uy < -0.7) lobe = 'occipital';
   else lobe = 'parietal';
   const depth: Depth = r >= 0.55 * radiusMm ? 'superficial' : 'deep';
   return { hemisphere, lobe, depth, label: `${hemisphere} ${lobe}, ${depth}`, caution: REGION_CAUTION };
