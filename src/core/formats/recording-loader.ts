@@ -8,6 +8,8 @@
  * (no entities, as the simulator writes them next to `recording.edf`) match any recording.
  *
  * Decisions:
+ * - Several .edf/.bdf files: `opts.recording` names the one to load; otherwise the only BIDS `*_eeg` file or
+ *   the only `recording.edf/.bdf` is taken (the others are named in a warning); otherwise the load fails.
  * - channels.tsv must describe the file's signal channels: same count and the same names (order may
  *   differ); otherwise the load fails with the file's name and the mismatch.
  * - Events: the file's annotations and events.tsv rows are merged. When an events.tsv row has the same
@@ -120,6 +122,15 @@ function fitSphereCentre(pts: Float64Array, n: number): [number, number, number]
   return [x[0], x[1], x[2]];
 }
 
+/**
+ * When several recordings are given, the one a set of files is about: the BIDS data file (suffix `eeg`), or
+ * `recording.edf`/`.bdf` as the simulator names its sensor data (next to e.g. `neural.edf`).
+ */
+function isPrimaryRecording(f: ByteSource): boolean {
+  const p = bidsNameParts(f.name);
+  return p.suffix === 'eeg' || /^recording\.(edf|bdf)$/i.test(byteSourceBaseName(f.name));
+}
+
 /** Loads the recording in `files` with its sidecars. See the module comment for the rules. */
 export async function loadRecording(files: ByteSource[], opts: LoadRecordingOptions = {}): Promise<ParseResult<LoadedRecording>> {
   const recordings = files.filter((f) => /\.(edf|bdf)$/i.test(f.name));
@@ -129,6 +140,7 @@ export async function loadRecording(files: ByteSource[], opts: LoadRecordingOpti
     if (!rec)
       return parseFail({ code: 'unsupported', message: `${opts.recording}: not among the given files (${files.map((f) => byteSourceBaseName(f.name)).join(', ')})`, file: opts.recording });
   } else if (recordings.length === 1) rec = recordings[0];
+  else if (recordings.filter(isPrimaryRecording).length === 1) rec = recordings.find(isPrimaryRecording);
   else if (recordings.length === 0)
     return parseFail({
       code: 'unsupported',
@@ -141,11 +153,15 @@ export async function loadRecording(files: ByteSource[], opts: LoadRecordingOpti
       file: recordings[0].name,
     });
 
+  if (!rec) return parseFail({ code: 'unsupported', message: '(no files): no .edf or .bdf recording among the files' });
   const infoRes = await readEdfInfo(rec);
   if (!infoRes.ok) return infoRes;
   const info = infoRes.value;
   const warnings = [...infoRes.warnings];
   const recName = byteSourceBaseName(rec.name);
+  const chosen = rec;
+  const ignored = recordings.filter((f) => f !== chosen).map((f) => byteSourceBaseName(f.name));
+  if (ignored.length > 0) warnings.push(`${recName}: loaded; ${ignored.join(', ')} ignored (one recording at a time)`);
   const ent = bidsNameParts(rec.name).entities;
   let channels: ChannelInfo[] = info.channels.map((c) => ({ ...c }));
 

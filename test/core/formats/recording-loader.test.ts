@@ -90,12 +90,15 @@ describe('loadRecording', () => {
     expect(!r.ok && r.error).toMatchObject({ code: 'missing-column', file: 'channels.tsv' });
   });
 
-  it('asks which recording to load when there are several, and loads the one named', async () => {
+  it('asks which recording to load when there are several, loads the one named, and prefers recording.edf over neural.edf', async () => {
     const files = [recording('sub-01_run-1_eeg.edf'), recording('sub-01_run-2_eeg.edf', ['Oz'])];
     const r = await loadRecording(files);
     expect(!r.ok && r.error.message).toMatch(/2 recordings given .*choose one/);
     const two = await loadRecording(files, { recording: 'sub-01_run-2_eeg.edf' });
     expect(two.ok && two.value.signals.labels).toEqual(['Oz']);
+    const sim = await loadRecording([recording('neural.edf', ['Oz']), recording('recording.edf', ['Fz'])]);
+    expect(sim.ok && sim.value.signals.labels).toEqual(['Fz']); // the simulator's sensor data, not neural.edf
+    expect(sim.ok && sim.warnings).toContain('recording.edf: loaded; neural.edf ignored (one recording at a time)');
     const none = await loadRecording([text('x', 'notes.txt')]);
     expect(!none.ok && none.error.message).toBe('notes.txt: no .edf or .bdf recording among the files');
   });
