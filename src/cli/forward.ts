@@ -104,8 +104,24 @@ export function formatNumber(v: number): string {
   return Number.isFinite(v) ? String(Number(v.toPrecision(12))) : 'n/a';
 }
 
+/**
+ * node:util parseArgs refuses an option value that starts with "-" ("--dipole -30,25,…"); a dipole with a
+ * negative x is ordinary, so such values are attached as "--dipole=-30,25,…" first.
+ */
+export function attachNegativeValues(args: string[], names: readonly string[]): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    if (names.includes(a.replace(/^--/, '')) && a.startsWith('--') && i + 1 < args.length && /^-[\d.]/.test(args[i + 1])) {
+      out.push(`${a}=${args[i + 1]}`);
+      i++;
+    } else out.push(a);
+  }
+  return out;
+}
+
 export async function run(args: string[], io: CliIo): Promise<number> {
-  const { values, positionals } = parseCommandArgs('forward', args, {
+  const { values, positionals } = parseCommandArgs('forward', attachNegativeValues(args, ['dipole']), {
     positions: { type: 'string' },
     dipole: { type: 'string' },
     model: { type: 'string' },
