@@ -5,6 +5,7 @@
 import { useRef, useState, type ReactNode } from 'react';
 import { panelFileName, type PanelFormat } from './export-names.ts';
 import { exportPanel } from './panel-export.ts';
+import './panel.css';
 
 export interface ExportablePanelProps {
   readonly title: string;

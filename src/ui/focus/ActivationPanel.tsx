@@ -1,0 +1,108 @@
+/**
+ * The component's time course (back-projected to its strongest channel, µV) above chosen sensor traces,
+ * on one time axis with the recording's event markers; a scrollable window.
+ */
+import { useMemo } from 'react';
+import type { Decomposition } from '../../core/decomposition.ts';
+import type { LoadedRecording } from '../../core/recording.ts';
+import { extractWindow } from '../../core/review/preview-projection.ts';
+import { ExportablePanel } from '../export/ExportablePanel.tsx';
+import { TracePlot } from '../plots/TracePlot.tsx';
+import { clampWindowStart, robustRowSpan } from '../plots/trace-layout.ts';
+import type { TraceSpec } from '../plots/trace-draw.ts';
+import { backProjectedActivation, strongestChannels } from './focus-logic.ts';
+
+export interface ActivationSettings {
+  readonly startS: number;
+  readonly lengthS: number;
+  /** Decomposition channel indices chosen by the reviewer; null = the three strongest for the component. */
+  readonly sensors: readonly number[] | null;
+}
+
+export interface ActivationPanelProps {
+  readonly index: number;
+  readonly recording: LoadedRecording;
+  readonly decomposition: Decomposition;
+  readonly rows: Int32Array;
+  readonly settings: ActivationSettings;
+  readonly onSettings: (patch: Partial<ActivationSettings>) => void;
+  readonly context: string;
+}
+
+const LENGTHS_S = [2, 5, 10, 20, 30];
+
+export function ActivationPanel({ index, recording, decomposition, rows, settings, onSettings, context }: ActivationPanelProps) {
+  const { signals } = recording;
+  const fs = signals.sampleRate;
+  const n = decomposition.nChannels;
+  const k = decomposition.nComponents;
+  const i = index - 1;
+  const durationS = signals.nSamples / fs;
+  const startS = clampWindowStart(settings.startS, settings.lengthS, durationS);
+  const start = Math.round(startS * fs);
+  const end = Math.min(signals.nSamples, start + Math.round(settings.lengthS * fs));
+  const L = Math.max(0, end - start);
+  const strongest = useMemo(() => strongestChannels(decomposition.mixing, n, k, i, 3, rows), [decomposition, n, k, i, rows]);
+  const sensors = settings.sensors ?? strongest;
+
+  const spec = useMemo((): TraceSpec => {
+    const win = extractWindow(signals.data, signals.nSamples, rows, start, end);
+    const top = strongest[0] ?? 0;
+    const act = backProjectedActivation(decomposition.unmixing, decomposition.mixing, n, k, i, top, win, L, decomposition.channelMeans);
+    const nRows = 1 + sensors.length;
+    const data = new Float64Array(nRows * L);
+    data.set(act, 0);
+    sensors.forEach((c, r) => {
+      for (let t = 0; t < L; t++) data[(r + 1) * L + t] = win[c * L + t];
+    });
+    const span = robustRowSpan(data, nRows, L);
+    return {
+      width: 640,
+      height: 60 + 46 * nRows,
+      rowLabels: [`IC ${index} @ ${decomposition.channels[top] ?? '?'}`, ...sensors.map((c) => decomposition.channels[c])],
+      length: L,
+      sampleRate: fs,
+      startS: start / fs,
+      layers: [{ data, colour: '#1d232b', lineWidth: 1 }],
+      rowSpan: span,
+      events: recording.events.filter((e) => e.source !== 'boundary'),
+    };
+  }, [signals, rows, start, end, L, decomposition, n, k, i, index, strongest, sensors, fs, recording.events]);
+
+  const controls = (
+    <>
+      <label>
+        From{' '}
+        <input
+          type="range" min={0} max={Math.max(0, durationS - settings.lengthS)} step={0.5} value={startS}
+          onChange={(e) => onSettings({ startS: Number(e.target.value) })} aria-valuetext={`${startS.toFixed(1)} s`}
+        />{' '}
+        {startS.toFixed(1)} s
+      </label>
+      <label>
+        Length{' '}
+        <select value={settings.lengthS} onChange={(e) => onSettings({ lengthS: Number(e.target.value) })}>
+          {LENGTHS_S.map((s) => (
+            <option key={s} value={s}>{s} s</option>
+          ))}
+        </select>
+      </label>
+      <label>
+        Sensors{' '}
+        <select
+          multiple size={3} value={sensors.map(String)}
+          onChange={(e) => onSettings({ sensors: Array.from(e.target.selectedOptions, (o) => Number(o.value)).slice(0, 8) })}
+        >
+          {decomposition.channels.map((label, c) => (rows[c] >= 0 ? <option key={c} value={c}>{label}</option> : null))}
+        </select>
+      </label>
+      {settings.sensors ? <button type="button" onClick={() => onSettings({ sensors: null })}>strongest</button> : null}
+    </>
+  );
+  return (
+    <ExportablePanel title="Time course and sensors" context={context} className="panel-activation" controls={controls}>
+      <TracePlot spec={spec} ariaLabel={`Component ${index} time course with ${sensors.length} sensor traces`} />
+      <p className="note">Top row: the component back-projected to its strongest channel (µV). Dashed lines: events.</p>
+    </ExportablePanel>
+  );
+}

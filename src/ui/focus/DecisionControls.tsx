@@ -1,0 +1,87 @@
+/**
+ * Keep / remove / undecided, a reason code and a free-text note for one component, written to the store
+ * with `decide`. Each verdict button carries a symbol and a word, so the choice reads without colour. The
+ * note is committed 400 ms after typing stops, on leaving the field, and when the view closes.
+ */
+import { useEffect, useRef, useState } from 'react';
+import { useWorkbench } from '../../state/index.ts';
+import { UNDECIDED } from '../../core/review/decisions-file.ts';
+import { REASON_CODES, VERDICTS, type ReasonCode, type Verdict } from '../../core/review/vocabulary.ts';
+
+const NOTE_COMMIT_MS = 400;
+
+/** Symbol shown with each verdict (shape as well as colour). */
+export const VERDICT_SYMBOL: Record<Verdict, string> = { keep: '✓', remove: '✕', undecided: '?' };
+
+export function DecisionControls({ index }: { index: number }) {
+  const decision = useWorkbench((s) => s.decisions[index] ?? UNDECIDED);
+  const decide = useWorkbench((s) => s.decide);
+  const [note, setNote] = useState(decision.note);
+  const timer = useRef<ReturnType<typeof setTimeout> | null>(null);
+  const pending = useRef<string | null>(null);
+
+  // Show the stored note when the component changes or the note changes elsewhere (undo, import).
+  useEffect(() => {
+    if (pending.current === null) setNote(decision.note);
+  }, [decision.note, index]);
+
+  const flush = () => {
+    if (timer.current) clearTimeout(timer.current);
+    timer.current = null;
+    if (pending.current !== null) {
+      decide(index, { note: pending.current });
+      pending.current = null;
+    }
+  };
+  // Commit a pending note before switching component or leaving the view.
+  useEffect(() => flush, [index]);
+
+  return (
+    <div className="decision-controls" role="group" aria-label={`Decision for component ${index}`}>
+      <div className="verdict-buttons">
+        {VERDICTS.map((v) => (
+          <button
+            key={v}
+            type="button"
+            className={`verdict-button verdict-${v}`}
+            aria-pressed={decision.verdict === v}
+            data-testid={`decision-${v}`}
+            onClick={() => decide(index, { verdict: v })}
+          >
+            <span aria-hidden="true">{VERDICT_SYMBOL[v]}</span> {v}
+          </button>
+        ))}
+      </div>
+      <label className="field">
+        Reason
+        <select
+          value={decision.reason ?? ''}
+          data-testid="decision-reason"
+          onChange={(e) => decide(index, { reason: (e.target.value || null) as ReasonCode | null })}
+        >
+          <option value="">(none)</option>
+          {REASON_CODES.map((r) => (
+            <option key={r} value={r}>{r}</option>
+          ))}
+        </select>
+      </label>
+      <label className="field">
+        Note
+        <textarea
+          rows={3}
+          value={note}
+          data-testid="decision-note"
+          data-note-field=""
+          placeholder="What you saw and why"
+          onChange={(e) => {
+            setNote(e.target.value);
+            pending.current = e.target.value;
+            if (timer.current) clearTimeout(timer.current);
+            timer.current = setTimeout(flush, NOTE_COMMIT_MS);
+          }}
+          onBlur={flush}
+        />
+      </label>
+    </div>
+  );
+}

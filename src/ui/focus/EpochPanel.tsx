@@ -1,0 +1,100 @@
+/**
+ * The epoch image (sortable by event order, response time or amplitude in a window; smoothing over
+ * trials; colour bar) with the event-locked average and its 95 % band beneath, on the same time axis.
+ */
+import { useMemo } from 'react';
+import type { ComponentEvidence } from '../../core/evidence/types.ts';
+import { ExportablePanel } from '../export/ExportablePanel.tsx';
+import { EpochImage } from '../plots/EpochImage.tsx';
+import { ErpPlot } from '../plots/ErpPlot.tsx';
+import { epochImageRows, robustLimit, type EpochSort } from '../plots/epoch-image-rows.ts';
+
+export interface EpochSettings {
+  readonly sort: EpochSort;
+  /** Moving-average width over trials (1 = none). */
+  readonly smoothing: number;
+  /** Window for the amplitude sort, s from the event. */
+  readonly amplitudeWindowS: readonly [number, number];
+}
+
+export interface EpochPanelProps {
+  readonly evidence: ComponentEvidence;
+  readonly settings: EpochSettings;
+  readonly onSettings: (patch: Partial<EpochSettings>) => void;
+  readonly context: string;
+}
+
+const WIDTH = 400;
+
+export function EpochPanel({ evidence, settings, onSettings, context }: EpochPanelProps) {
+  const img = evidence.epochImage;
+  const erp = evidence.erp;
+  const rows = useMemo(
+    () => (img ? epochImageRows(img, settings.sort, settings.smoothing, settings.amplitudeWindowS) : null),
+    [img, settings.sort, settings.smoothing, settings.amplitudeWindowS],
+  );
+  const limit = useMemo(() => (rows ? robustLimit(rows.rows) : 1), [rows]);
+  const controls = img ? (
+    <>
+      <label>
+        Sort{' '}
+        <select value={settings.sort} onChange={(e) => onSettings({ sort: e.target.value as EpochSort })}>
+          <option value="order">event order</option>
+          <option value="response-time" disabled={!img.responseTimes}>response time</option>
+          <option value="amplitude">amplitude in window</option>
+        </select>
+      </label>
+      {settings.sort === 'amplitude' ? (
+        <span className="window-inputs">
+          <input
+            type="number" step={0.05} aria-label="amplitude window start (s)" value={settings.amplitudeWindowS[0]}
+            onChange={(e) => onSettings({ amplitudeWindowS: [Number(e.target.value), settings.amplitudeWindowS[1]] })}
+          />
+          –
+          <input
+            type="number" step={0.05} aria-label="amplitude window end (s)" value={settings.amplitudeWindowS[1]}
+            onChange={(e) => onSettings({ amplitudeWindowS: [settings.amplitudeWindowS[0], Number(e.target.value)] })}
+          />{' '}
+          s
+        </span>
+      ) : null}
+      <label>
+        Smoothing{' '}
+        <input
+          type="range" min={1} max={15} step={1} value={settings.smoothing}
+          onChange={(e) => onSettings({ smoothing: Number(e.target.value) })}
+          aria-valuetext={`${settings.smoothing} trials`}
+        />{' '}
+        {settings.smoothing} {settings.smoothing === 1 ? 'trial' : 'trials'}
+      </label>
+    </>
+  ) : null;
+  return (
+    <ExportablePanel title="Epoch image and average" context={context} testId="focus-epoch-image" className="panel-epochs" controls={controls}>
+      {img && rows ? (
+        <>
+          <EpochImage rows={rows} nEpochs={img.nEpochs} length={img.length} times={img.times} maxAbs={limit} width={WIDTH} height={230} />
+          {rows.sortApplied !== settings.sort ? <p className="note">No response times in this recording; shown in event order.</p> : null}
+        </>
+      ) : (
+        <p>No events to epoch in this recording.</p>
+      )}
+      {erp ? (
+        <>
+          <ErpPlot
+            times={erp.times}
+            series={[{ values: erp.mean, label: 'average' }]}
+            band={erp.band}
+            width={WIDTH - 50}
+            height={140}
+            title={`Average of ${erp.nEpochs} epochs around “${erp.event}”`}
+          />
+          <p className="note">
+            Average of {erp.nEpochs} epochs around “{erp.event}” at {evidence.strongestChannel.label} (µV), shaded: 95 % band (mean ± 1.96
+            SEM).
+          </p>
+        </>
+      ) : null}
+    </ExportablePanel>
+  );
+}

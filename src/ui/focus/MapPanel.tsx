@@ -1,0 +1,28 @@
+/** Large scalp map of the component with electrode dots, head outline and colour bar. */
+import { ExportablePanel } from '../export/ExportablePanel.tsx';
+import { TopographyMap } from '../plots/TopographyMap.tsx';
+
+export interface MapPanelProps {
+  readonly index: number;
+  readonly map: Float64Array;
+  readonly positions: Float64Array;
+  readonly drawable: boolean;
+  readonly labels: readonly string[];
+  readonly context: string;
+}
+
+export function MapPanel({ index, map, positions, drawable, labels, context }: MapPanelProps) {
+  return (
+    <ExportablePanel title="Scalp map" context={context} testId="focus-topography" className="panel-map">
+      {drawable ? (
+        <TopographyMap weights={map} positionsUnit={positions} size={240} title={`Component ${index} scalp map`} labels={labels} colourBar unit="a.u." />
+      ) : (
+        <p>No electrode positions for this recording, so no scalp map can be drawn.</p>
+      )}
+      <p className="note">
+        Polarity is arbitrary: the component's sign can flip with its time course, so red and blue may swap between
+        decompositions. Nose at the top, left ear on the left.
+      </p>
+    </ExportablePanel>
+  );
+}
