@@ -1,0 +1,174 @@
+/**
+ * Evidence bench (issue 6): all evidence for 64 components of a 10-minute, 250 Hz, 64-channel simulated
+ * recording. Target ≤ 3 s on this machine's two cores. Prints the stage breakdown (activations, spectra,
+ * epochs, dipoles, …) for one process and for the two-process split the workbench uses (two workers, each
+ * half of the components; here run as two child processes at once). Also times our Welch against
+ * scipy.signal.welch on the same 64 × 150 000 matrix when python3 with scipy is present.
+ */
+import { execFileSync, spawn } from 'node:child_process';
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import type { Decomposition } from '../src/core/decomposition.ts';
+import { computeEvidence, type EvidenceResult } from '../src/core/evidence/compute-evidence.ts';
+import { createWelchPlan, welchPsd } from '../src/core/signal/welch.ts';
+import { simulateSession } from '../src/core/simulate/simulate.ts';
+import { type BenchRow, medianMs } from './bench-types.ts';
+
+const CHANNELS = 64;
+const MINUTES = 10;
+const RATE = 250;
+
+/** A seeded, well-conditioned 64 × 64 unmixing (identity plus small noise) and its inverse as mixing. */
+function benchDecomposition(labels: string[]): Decomposition {
+  const n = labels.length;
+  let s = 12345;
+  const rand = () => ((s = (1664525 * s + 1013904223) >>> 0) / 2 ** 32) - 0.5;
+  const A = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) A[i * n + j] = (i === j ? 1 : 0) + 0.2 * rand();
+  // inverse by Gauss–Jordan (bench set-up only)
+  const M = Float64Array.from(A);
+  const inv = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) inv[i * n + i] = 1;
+  for (let c = 0; c < n; c++) {
+    let p = c;
+    for (let r = c + 1; r < n; r++) if (Math.abs(M[r * n + c]) > Math.abs(M[p * n + c])) p = r;
+    for (let k = 0; k < n; k++) {
+      [M[c * n + k], M[p * n + k]] = [M[p * n + k], M[c * n + k]];
+      [inv[c * n + k], inv[p * n + k]] = [inv[p * n + k], inv[c * n + k]];
+    }
+    const d = M[c * n + c];
+    for (let k = 0; k < n; k++) {
+      M[c * n + k] /= d;
+      inv[c * n + k] /= d;
+    }
+    for (let r = 0; r < n; r++) {
+      if (r === c) continue;
+      const f = M[r * n + c];
+      if (f === 0) continue;
+      for (let k = 0; k < n; k++) {
+        M[r * n + k] -= f * M[c * n + k];
+        inv[r * n + k] -= f * inv[c * n + k];
+      }
+    }
+  }
+  return {
+    channels: labels,
+    nChannels: n,
+    nComponents: n,
+    mixing: A,
+    unmixing: inv,
+    channelMeans: null,
+    method: 'imported',
+    rank: n,
+    iterations: 0,
+    converged: true,
+    preprocessing: { filter: 'none', highpassHz: null, lowpassHz: null, reference: 'average', excludedChannels: [] },
+    recordingSha256: '',
+  };
+}
+
+function session() {
+  const s = simulateSession({ seed: 7, channels: CHANNELS, minutes: MINUTES, rate: RATE });
+  const positionsUnit = Float64Array.from(s.electrodesMm, (v) => v / s.headRadiusMm);
+  return { s, positionsUnit, decomposition: benchDecomposition(s.labels) };
+}
+
+function runEvidence(ctx: ReturnType<typeof session>, range?: [number, number]): EvidenceResult {
+  const { s, positionsUnit, decomposition } = ctx;
+  return computeEvidence({
+    data: s.data,
+    nChannels: s.labels.length,
+    nSamples: s.nSamples,
+    sampleRate: s.sampleRate,
+    labels: s.labels,
+    positionsUnit,
+    decomposition,
+    events: s.events,
+    lineHz: s.lineHz,
+    componentRange: range,
+  });
+}
+
+const fmt = (t: Record<string, number>) =>
+  Object.entries(t)
+    .map(([k, v]) => `${k} ${Math.round(v)}`)
+    .join(', ');
+
+/** Child-process entry: compute one half and print its timings as JSON. */
+async function child(half: number): Promise<void> {
+  const ctx = session();
+  const n = ctx.decomposition.nComponents;
+  const range: [number, number] = half === 0 ? [0, n / 2] : [n / 2, n];
+  const t0 = performance.now();
+  const r = runEvidence(ctx, range);
+  process.stdout.write(JSON.stringify({ ms: performance.now() - t0, timings: r.timings }));
+}
+
+function runChild(half: number): Promise<{ ms: number; timings: Record<string, number> }> {
+  return new Promise((resolve, reject) => {
+    const p = spawn(process.execPath, ['--import', 'tsx', fileURLToPath(import.meta.url), '--child', String(half)], { stdio: ['ignore', 'pipe', 'inherit'] });
+    let out = '';
+    p.stdout.on('data', (d) => (out += d));
+    p.on('exit', (code) => (code === 0 ? resolve(JSON.parse(out)) : reject(new Error(`child ${half} exited ${code}`))));
+  });
+}
+
+export async function bench(): Promise<BenchRow[]> {
+  const rows: BenchRow[] = [];
+  const ctx = session();
+  const { s } = ctx;
+  let last: EvidenceResult | null = null;
+  const oneMs = await medianMs(() => (last = runEvidence(ctx)), 2);
+  const timings = (last as EvidenceResult | null)?.timings ?? {};
+  process.stderr.write(`evidence, 1 process: ${fmt(timings)} ms\n`);
+  rows.push({ area: 'evidence', case: `64 comp, 64 ch × 10 min @ 250 Hz, 1 core`, oursMs: oneMs, referenceMs: null, reference: 'target ≤ 3000 ms on 2 cores', note: fmt(timings) });
+
+  // Two processes at once, each with half of the components (as the two workers do). Child start-up and
+  // simulation are excluded: each child reports its own computeEvidence time.
+  const halves = await Promise.all([runChild(0), runChild(1)]);
+  const twoMs = Math.max(halves[0].ms, halves[1].ms);
+  process.stderr.write(`evidence, 2 processes: ${halves.map((h) => `${Math.round(h.ms)} ms (${fmt(h.timings)})`).join(' | ')}\n`);
+  rows.push({ area: 'evidence', case: '64 comp, 2 cores (2 × 32 comp in parallel)', oursMs: twoMs, referenceMs: 3000, reference: 'issue 6 target', note: `slowest half; ${fmt(halves[0].timings)}` });
+
+  // Welch vs scipy on the raw channels (64 × 150 000), 512-point segments, 50 % overlap.
+  const plan = createWelchPlan(512);
+  const out = new Float64Array(plan.nBins);
+  const n = s.nSamples;
+  const welchMs = await medianMs(() => {
+    for (let c = 0; c < CHANNELS; c++) welchPsd(plan, s.data.subarray(c * n, (c + 1) * n), s.sampleRate, out);
+  }, 5);
+  let refMs: number | null = null;
+  let reference = 'scipy.signal.welch unavailable (python3 with scipy not found)';
+  const dir = mkdtempSync(join(tmpdir(), 'winnow-welch-'));
+  try {
+    writeFileSync(join(dir, 'x.f32'), s.data);
+    const script = [
+      'import sys, time, numpy as np, scipy',
+      'from scipy.signal import welch',
+      `x = np.fromfile(sys.argv[1], dtype=np.float32).reshape(${CHANNELS}, ${n})`,
+      `welch(x, fs=${s.sampleRate}, window='hann', nperseg=512, noverlap=256, axis=-1)`,
+      'ts = []',
+      'for _ in range(5):',
+      '    t = time.perf_counter()',
+      `    welch(x, fs=${s.sampleRate}, window='hann', nperseg=512, noverlap=256, axis=-1)`,
+      '    ts.append((time.perf_counter() - t) * 1000)',
+      'print(sorted(ts)[2], scipy.__version__)',
+    ].join('\n');
+    writeFileSync(join(dir, 'w.py'), script);
+    const [ms, version] = execFileSync('python3', [join(dir, 'w.py'), join(dir, 'x.f32')], { encoding: 'utf8' }).trim().split(' ');
+    refMs = Number(ms);
+    reference = `scipy.signal.welch ${version}, python3`;
+  } catch {
+    // keep the "unavailable" note
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+  rows.push({ area: 'evidence', case: 'Welch 64 × 150 000, 512/256, 1 core', oursMs: welchMs, referenceMs: refMs, reference });
+  return rows;
+}
+
+if (process.argv.includes('--child')) {
+  await child(Number(process.argv[process.argv.indexOf('--child') + 1]));
+}

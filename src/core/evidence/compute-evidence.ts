@@ -1,0 +1,382 @@
+/**
+ * All evidence for the components of one decomposition (issue 6). Activations are computed a block of
+ * components at a time (multiplyChannelMajor), so memory stays at blockSize × nSamples × 8 bytes however
+ * long the recording; every per-component number is then taken from that block and the block is dropped.
+ *
+ * Order of work per block: activations → moments and variance shares → Welch spectrum and its shape →
+ * ocular, focality, cardiac → epochs (ERP, epoch image, time-locking, step-locking) → dipole → suggestions.
+ * `timings` reports the wall time of each stage in ms (activations, spectra, epochs, dipoles, other).
+ */
+import type { Decomposition } from '../decomposition.ts';
+import { createHeadModel } from '../headmodel/forward.ts';
+import { createDipoleFitter } from '../headmodel/dipole-fit.ts';
+import { approximateRegion } from '../headmodel/region.ts';
+import { resolveThresholds, type Thresholds } from '../review/thresholds.ts';
+import { suggestAllAims } from '../review/suggest.ts';
+import type { Aim } from '../review/vocabulary.ts';
+import { createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength, type WelchPlan } from '../signal/welch.ts';
+import { channelMoments, computeActivations, signalMoments } from './activations.ts';
+import { cardiacPeriodicity } from './cardiac.ts';
+import { mapFocality } from './focality.ts';
+import { STEP_EVENT_PATTERN, stepLocking } from './motion.ts';
+import { eogReferences, mapGeometry, mirrorPairs, stepLikeness } from './ocular.ts';
+import { findAlphaPeak, fitAperiodic, spectrumShares } from './spectrum-shape.ts';
+import { eventLocked } from './time-locking.ts';
+import type { ComponentEvidence, DipoleEvidence, EpochImage, ErpEvidence } from './types.ts';
+
+export interface EvidenceEvent {
+  readonly onset: number;
+  readonly duration: number;
+  readonly label: string;
+  readonly responseTime?: number;
+}
+
+/** A dipole fit of one scalp map (the map in decomposition channel order); null when impossible. */
+export type DipoleFitFn = (map: Float64Array) => DipoleEvidence | null;
+
+export interface EvidenceInput {
+  /** Channel-major samples, µV, nChannels × nSamples. May hold more channels than the decomposition (e.g. EOG). */
+  readonly data: Float32Array;
+  readonly nChannels: number;
+  readonly nSamples: number;
+  /** Hz. */
+  readonly sampleRate: number;
+  /** Label of each data channel; decomposition channels are found by label. */
+  readonly labels: readonly string[];
+  /** Unit direction vectors (RAS) per data channel, nChannels × 3, NaN rows unknown; null = none known. */
+  readonly positionsUnit?: Float64Array | null;
+  /** BIDS channel type per data channel (EOG/VEOG/HEOG are used as eye references). */
+  readonly types?: readonly string[];
+  readonly decomposition: Decomposition;
+  readonly events?: readonly EvidenceEvent[];
+  /** Event label (or label prefix before "/") to epoch; default: the most frequent non-step prefix. */
+  readonly epochEvent?: string;
+  /** Epoch window in s relative to the event (default −0.2 … 0.8 s). */
+  readonly window?: readonly [number, number];
+  /** Power-line frequency in Hz (default 50). */
+  readonly lineHz?: 50 | 60;
+  /** Aim whose suggestion is listed first in `suggestion` (all three are always computed). */
+  readonly aim?: Aim;
+  readonly thresholds?: Partial<Thresholds>;
+  /** 0-based [start, end) range of components to compute (default all); indices stay global. */
+  readonly componentRange?: readonly [number, number];
+  /** Shuffles for the time-locking permutation test (default 49). */
+  readonly permutations?: number;
+  /** Override the dipole fit (tests, or a fitter shared across calls); null disables fitting. */
+  readonly dipoleFit?: DipoleFitFn | null;
+  /** Head radius in mm used to place unit positions for the dipole fit (default 90). */
+  readonly headRadiusMm?: number;
+  readonly onProgress?: (fraction: number, stage: string) => void;
+}
+
+export interface EvidenceResult {
+  readonly components: ComponentEvidence[];
+  /** Wall time per stage, ms: activations, spectra, shape, ocular, epochs, dipoles, other, total. */
+  readonly timings: Record<string, number>;
+  /** The event label (or prefix) that was epoched, or null. */
+  readonly epochEvent: string | null;
+  readonly warnings: string[];
+}
+
+/** Default epoch window (issue 6): −0.2 … 0.8 s. */
+export const DEFAULT_EPOCH_WINDOW_S: readonly [number, number] = [-0.2, 0.8];
+
+const prefixOf = (label: string) => label.split('/')[0];
+
+/** The event label prefix epoched by default: the most frequent among non-step events (ties: first seen). */
+export function defaultEpochEvent(events: readonly EvidenceEvent[]): string | null {
+  const counts = new Map<string, number>();
+  for (const e of events) {
+    if (STEP_EVENT_PATTERN.test(e.label) || e.label === 'boundary') continue;
+    const p = prefixOf(e.label);
+    counts.set(p, (counts.get(p) ?? 0) + 1);
+  }
+  let best: string | null = null;
+  let bestN = 0;
+  for (const [p, n] of counts) if (n > bestN) [best, bestN] = [p, n];
+  return best;
+}
+
+function eventsMatching(events: readonly EvidenceEvent[], name: string): EvidenceEvent[] {
+  return events.filter((e) => e.label === name || prefixOf(e.label) === name).sort((a, b) => a.onset - b.onset);
+}
+
+/**
+ * The default dipole fit: three-shell head model (forward.ts defaults), electrodes = unit positions × head
+ * radius; channels without a position are left out. Null when fewer than 8 electrodes have positions.
+ */
+export function createDefaultDipoleFit(positionsUnit: Float64Array, headRadiusMm = 90): DipoleFitFn | null {
+  const n = positionsUnit.length / 3;
+  const usable: number[] = [];
+  for (let c = 0; c < n; c++) if ([0, 1, 2].every((k) => Number.isFinite(positionsUnit[3 * c + k]))) usable.push(c);
+  if (usable.length < 8) return null;
+  const electrodes = new Float64Array(usable.length * 3);
+  usable.forEach((c, i) => {
+    for (let k = 0; k < 3; k++) electrodes[3 * i + k] = positionsUnit[3 * c + k] * headRadiusMm;
+  });
+  // The fast (equivalent-dipole) three-shell approximation without the exact-series polish: ~10× cheaper
+  // per map and well within what an approximate region needs; the CLI's fit-dipole gives the exact fit.
+  const fitter = createDipoleFitter(createHeadModel({ radiusMm: headRadiusMm, fast: true }), electrodes, { refine: false });
+  const sub = new Float64Array(usable.length);
+  return (map) => {
+    usable.forEach((c, i) => (sub[i] = map[c]));
+    const fit = fitter.fit(sub);
+    if (!Number.isFinite(fit.residualVariance)) return null;
+    return {
+      position: fit.position,
+      moment: fit.moment,
+      residualVariance: fit.residualVariance,
+      atBoundary: fit.atBoundary,
+      region: approximateRegion(fit.position, headRadiusMm).label,
+    };
+  };
+}
+
+function unitCentred(x: Float64Array): Float64Array | null {
+  let m = 0;
+  for (let i = 0; i < x.length; i++) m += x[i];
+  m /= x.length;
+  let ss = 0;
+  const out = new Float64Array(x.length);
+  for (let i = 0; i < x.length; i++) {
+    out[i] = x[i] - m;
+    ss += out[i] * out[i];
+  }
+  if (!(ss > 0)) return null;
+  const k = 1 / Math.sqrt(ss);
+  for (let i = 0; i < x.length; i++) out[i] *= k;
+  return out;
+}
+
+function dot(a: Float64Array, b: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
+  return s;
+}
+
+/** Computes the evidence and suggestions for every component (or `componentRange`). */
+export function computeEvidence(input: EvidenceInput): EvidenceResult {
+  const t0 = performance.now();
+  const timings: Record<string, number> = { activations: 0, spectra: 0, shape: 0, ocular: 0, epochs: 0, dipoles: 0, other: 0, total: 0 };
+  const warnings: string[] = [];
+  const tick = (stage: string, since: number) => {
+    const now = performance.now();
+    timings[stage] += now - since;
+    return now;
+  };
+  const { data, nChannels, nSamples, sampleRate: fs, labels, decomposition: dec } = input;
+  const thresholds = resolveThresholds(input.thresholds);
+  const lineHz = input.lineHz ?? 50;
+  const nComp = dec.nComponents;
+  const nDec = dec.nChannels;
+  const [cStart, cEnd] = input.componentRange ?? [0, nComp];
+
+  // Decomposition channel d ↔ data row rowOf[d]; the unmixing is widened to all data rows with zeros so
+  // that extra channels (EOG) need no copy of the data.
+  const rowOf: number[] = [];
+  const byLabel = new Map(labels.map((l, i) => [l, i]));
+  for (const name of dec.channels) {
+    const r = byLabel.get(name);
+    if (r === undefined) break;
+    rowOf.push(r);
+  }
+  if (rowOf.length !== nDec) {
+    if (nChannels !== nDec) throw new RangeError(`computeEvidence: decomposition channels not found in the data labels (${dec.channels.find((c) => !byLabel.has(c))})`);
+    rowOf.length = 0;
+    for (let d = 0; d < nDec; d++) rowOf.push(d);
+    warnings.push('decomposition channel names differ from the data labels; channels matched by position');
+  }
+  const wide: Decomposition = (() => {
+    const identity = nChannels === nDec && rowOf.every((r, d) => r === d);
+    if (identity) return dec;
+    const unmixing = new Float64Array(nComp * nChannels);
+    const means = dec.channelMeans ? new Float64Array(nChannels) : null;
+    for (let i = 0; i < nComp; i++) for (let d = 0; d < nDec; d++) unmixing[i * nChannels + rowOf[d]] = dec.unmixing[i * nDec + d];
+    if (means && dec.channelMeans) for (let d = 0; d < nDec; d++) means[rowOf[d]] = dec.channelMeans[d];
+    return { ...dec, nChannels, unmixing, channelMeans: means };
+  })();
+
+  // Channel statistics and positions in decomposition order.
+  const { variances } = channelMoments(data, nChannels, nSamples);
+  let totalVariance = 0;
+  for (let d = 0; d < nDec; d++) totalVariance += variances[rowOf[d]];
+  const allPositions = input.positionsUnit ?? null;
+  let decPositions: Float64Array | null = null;
+  if (allPositions) {
+    decPositions = new Float64Array(nDec * 3);
+    for (let d = 0; d < nDec; d++) for (let k = 0; k < 3; k++) decPositions[3 * d + k] = allPositions[3 * rowOf[d] + k];
+    if (!decPositions.some(Number.isFinite)) decPositions = null;
+  }
+  if (!decPositions) warnings.push('no electrode positions: map geometry, frontal EOG proxy and dipoles are unavailable');
+  const pairs = mirrorPairs(decPositions, nDec);
+  const eog = eogReferences(data, nChannels, nSamples, labels, input.types, allPositions);
+  // Centred, unit-norm references: then Pearson r = Σ act · ref / ‖act − mean‖ in one pass per component.
+  const eogV = eog.vertical ? unitCentred(eog.vertical) : null;
+  const eogH = eog.horizontal ? unitCentred(eog.horizontal) : null;
+  let tNow = tick('other', t0);
+
+  // Spectra
+  const nfft = welchSegmentLength(fs, nSamples);
+  const plan: WelchPlan = createWelchPlan(nfft);
+  const freqs = welchFrequencies(plan, fs);
+  const fmax = Math.min(fs / 2, 100);
+  let kLo = 0;
+  while (kLo < freqs.length && freqs[kLo] < 1 - 1e-9) kLo++;
+  let kHi = freqs.length - 1;
+  while (kHi > 0 && freqs[kHi] > fmax + 1e-9) kHi--;
+  const psd = new Float64Array(plan.nBins);
+  const lineExclude: [number, number][] = [];
+  for (let h = 1; h * lineHz <= 40 + 2; h++) lineExclude.push([h * lineHz - 2, h * lineHz + 2]);
+
+  // Events
+  const events = input.events ?? [];
+  const epochName = input.epochEvent ?? defaultEpochEvent(events);
+  const epochEvents = epochName ? eventsMatching(events, epochName) : [];
+  if (epochName && epochEvents.length === 0) warnings.push(`no events labelled "${epochName}"`);
+  const epochOnsets = epochEvents.map((e) => e.onset);
+  const responseTimes = epochEvents.some((e) => e.responseTime !== undefined) ? epochEvents.map((e) => e.responseTime ?? NaN) : null;
+  const stepEvents = events.filter((e) => STEP_EVENT_PATTERN.test(e.label)).sort((a, b) => a.onset - b.onset);
+  const win = input.window ?? DEFAULT_EPOCH_WINDOW_S;
+
+  // Dipoles
+  let dipoleFit: DipoleFitFn | null = null;
+  if (input.dipoleFit !== undefined) dipoleFit = input.dipoleFit;
+  else if (decPositions) {
+    try {
+      dipoleFit = createDefaultDipoleFit(decPositions, input.headRadiusMm ?? 90);
+    } catch (e) {
+      warnings.push(`dipole fitting unavailable: ${(e as Error).message}`);
+    }
+  }
+  tNow = tick('dipoles', tNow);
+
+  const components: ComponentEvidence[] = [];
+  const blockSize = Math.max(1, Math.min(16, Math.floor(32e6 / (8 * Math.max(1, nSamples)))));
+  const block = new Float64Array(blockSize * nSamples);
+  const scaled = new Float64Array(nSamples);
+  const total = Math.max(1, cEnd - cStart);
+  for (let b0 = cStart; b0 < cEnd; b0 += blockSize) {
+    const b1 = Math.min(cEnd, b0 + blockSize);
+    tNow = performance.now();
+    computeActivations(wide, data, nSamples, b0, b1, block);
+    tNow = tick('activations', tNow);
+    for (let i = b0; i < b1; i++) {
+      const act = block.subarray((i - b0) * nSamples, (i - b0 + 1) * nSamples);
+      const moments = signalMoments(act);
+      // Map, strongest channel, variance shares
+      const column = new Float64Array(nDec);
+      let norm = 0;
+      let strongest = 0;
+      for (let d = 0; d < nDec; d++) {
+        const a = dec.mixing[d * nComp + i];
+        column[d] = a;
+        norm += a * a;
+        if (Math.abs(a) > Math.abs(column[strongest])) strongest = d;
+      }
+      const weight = column[strongest];
+      const perChannel = new Float64Array(nDec);
+      let explained = 0;
+      for (let d = 0; d < nDec; d++) {
+        const v = column[d] * column[d] * moments.variance;
+        explained += v;
+        perChannel[d] = variances[rowOf[d]] > 0 ? v / variances[rowOf[d]] : NaN;
+      }
+      const map = column.map((a) => (norm > 0 ? a / Math.sqrt(norm) : a));
+      for (let t = 0; t < nSamples; t++) scaled[t] = act[t] * weight;
+      tNow = tick('other', tNow);
+
+      // Spectrum at the strongest channel, µV²/Hz
+      welchPsd(plan, act, fs, psd);
+      const w2 = weight * weight;
+      const power = new Float64Array(kHi - kLo + 1);
+      const powerDb = new Float64Array(kHi - kLo + 1);
+      for (let k = kLo; k <= kHi; k++) {
+        power[k - kLo] = psd[k] * w2;
+        powerDb[k - kLo] = 10 * Math.log10(power[k - kLo]);
+      }
+      const frequencies = freqs.slice(kLo, kHi + 1);
+      tNow = tick('spectra', tNow);
+      const aperiodic = fitAperiodic(frequencies, power, { rangeHz: [2, 40], excludeHz: lineExclude });
+      const alpha = findAlphaPeak(frequencies, power, aperiodic, [7, 14], thresholds.alphaProminence);
+      const shares = spectrumShares(frequencies, power, lineHz, fmax);
+      tNow = tick('shape', tNow);
+
+      // Ocular, focality, cardiac
+      const geometry = mapGeometry(column, decPositions, pairs);
+      const actNorm = Math.sqrt(moments.variance * nSamples);
+      const rV = eogV ? Math.abs(dot(act, eogV) / actNorm) : null;
+      const rH = eogH ? Math.abs(dot(act, eogH) / actNorm) : null;
+      const steps = stepLikeness(act, fs);
+      const focal = mapFocality(column);
+      const cardiac = cardiacPeriodicity(act, fs);
+      tNow = tick('ocular', tNow);
+
+      // Event-locked
+      let erp: ErpEvidence | null = null;
+      let epochImage: EpochImage | null = null;
+      if (epochName && epochOnsets.length >= 2) {
+        const locked = eventLocked(scaled, fs, epochOnsets, win, input.permutations ?? 49, 1 + i);
+        if (locked) {
+          erp = {
+            event: epochName,
+            nEpochs: locked.epochs.nEpochs,
+            times: locked.epochs.times,
+            mean: locked.mean,
+            band: { lower: locked.lower, upper: locked.upper },
+            itc: locked.itc,
+            itcFrequencyHz: locked.itcFrequencyHz,
+            timeLockingStrength: locked.test.observed - locked.test.chance,
+            lockedShare: locked.test.observed,
+            permutationP: locked.test.p,
+          };
+          epochImage = {
+            nEpochs: locked.epochs.nEpochs,
+            length: locked.epochs.length,
+            data: Float32Array.from(locked.epochs.epochs),
+            times: locked.epochs.times,
+            responseTimes: responseTimes ? Float64Array.from(locked.epochs.kept, (k) => responseTimes[k]) : null,
+          };
+        }
+      }
+      const step = stepEvents.length ? stepLocking(act, fs, stepEvents) : null;
+      tNow = tick('epochs', tNow);
+
+      const dipole = dipoleFit ? dipoleFit(column) : null;
+      tNow = tick('dipoles', tNow);
+
+      const partial: Omit<ComponentEvidence, 'suggestions'> = {
+        index: i + 1,
+        varianceShare: totalVariance > 0 ? explained / totalVariance : NaN,
+        variancePerChannel: perChannel,
+        strongestChannel: { index: strongest, label: dec.channels[strongest], weight },
+        map,
+        spectrum: { frequencies, power, powerDb, nfft, df: fs / nfft },
+        aperiodic: { exponent: aperiodic.exponent, offset: aperiodic.offset, rangeHz: [2, 40] },
+        alphaPeakHz: alpha.frequencyHz,
+        alphaProminence: alpha.prominence,
+        highFrequencyShare: shares.highFrequencyShare,
+        highFrequencySlope: shares.highFrequencySlope,
+        lineNoiseShare: shares.lineNoiseShare,
+        linePeakRatio: shares.linePeakRatio,
+        lowFrequencyShare: shares.lowFrequencyShare,
+        kurtosis: moments.kurtosis,
+        focality: { share: focal.share, channel: dec.channels[focal.channelIndex] ?? '' },
+        frontalGradient: geometry.frontalGradient,
+        frontalShare: geometry.frontalShare,
+        lateralAntisymmetry: geometry.lateralAntisymmetry,
+        stepLikeness: steps,
+        eogCorrelation: { vertical: rV, horizontal: rH, source: eog.source, channels: eog.channels },
+        cardiac: { bpm: cardiac.bpm, peak: cardiac.peak },
+        stepLocking: step,
+        erp,
+        epochImage,
+        dipole,
+      };
+      components.push({ ...partial, suggestions: suggestAllAims(partial, thresholds) });
+      tNow = tick('other', tNow);
+      input.onProgress?.((i + 1 - cStart) / total, 'components');
+    }
+  }
+  timings.total = performance.now() - t0;
+  return { components, timings, epochEvent: epochName, warnings };
+}
