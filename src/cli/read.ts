@@ -5,7 +5,8 @@
  * voltages). Rows are written chunk by chunk (about 8 MB of records at a time), never as one string.
  * Channels of different rates in one call → exit 2 with a message listing the rates.
  */
-import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
+import { once } from 'node:events';
+import { CliError, numberOption, parseCommandArgs, processIo, type CliIo } from './cli-support.ts';
 import { openFileByteSource } from './node-byte-source.ts';
 import { iterateEdfSignals, readEdfInfo } from '../core/formats/edf.ts';
 import type { ByteSource } from '../core/formats/byte-source.ts';
@@ -19,6 +20,41 @@ export async function openRecordingSource(path: string): Promise<ByteSource & { 
     const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory, not a recording file' : code === 'EACCES' ? 'permission denied' : (e as Error).message;
     throw new CliError(`${path}: ${why}`, 2);
   }
+}
+
+/**
+ * Output of `read`: with the real stdout, waits for 'drain' when the pipe is full (so a long recording piped
+ * into a slow reader never piles up in memory) and stops quietly when the reader closes the pipe
+ * (EPIPE, e.g. `| head`). With any other CliIo (tests) it writes straight through.
+ */
+function rowSink(io: CliIo): { write(text: string): Promise<void>; closed(): boolean; dispose(): void } {
+  if (io !== processIo) return { write: async (t) => io.stdout(t), closed: () => false, dispose: () => undefined };
+  const out = process.stdout;
+  let broken = false;
+  let wake: (() => void) | null = null;
+  const onError = (e: NodeJS.ErrnoException) => {
+    if (e.code !== 'EPIPE') throw e;
+    broken = true;
+    wake?.();
+  };
+  const onReady = () => wake?.();
+  out.on('error', onError);
+  out.on('drain', onReady);
+  out.on('close', onReady);
+  return {
+    async write(t) {
+      if (broken) return;
+      if (!out.write(t)) await new Promise<void>((resolve) => (wake = resolve));
+      wake = null;
+    },
+    closed: () => broken,
+    dispose: () => {
+      out.off('drain', onReady);
+      out.off('close', onReady);
+      // keep swallowing a late EPIPE from data still buffered when the reader went away
+      if (!broken) out.off('error', onError);
+    },
+  };
 }
 
 /** Seconds as text without floating-point noise (at most 9 decimals). */
@@ -47,12 +83,13 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     if (!infoRes.ok) throw new CliError(infoRes.error.message, infoRes.error.code === 'io' ? 1 : 2);
     for (const w of infoRes.warnings) io.stderr(`warning: ${w}\n`);
     let headerDone = false;
+    const sink = rowSink(io);
     for await (const chunk of iterateEdfSignals(source, infoRes.value, { channels, startS, durationS })) {
       if (!chunk.ok) throw new CliError(chunk.error.message, chunk.error.code === 'io' ? 1 : 2);
       const { labels, nSamples: n, data, sampleTimes } = chunk.value;
       if (!headerDone) {
         if (labels.length === 0) throw new CliError(`${source.name}: the file has no signal channels to read`);
-        io.stdout(['time', ...labels].join('\t') + '\n');
+        await sink.write(['time', ...labels].join('\t') + '\n');
         headerDone = true;
       }
       const nc = labels.length;
@@ -65,9 +102,12 @@ export async function run(args: string[], io: CliIo): Promise<number> {
           for (let c = 0; c < nc; c++) line += '\t' + String(data[c * n + j]);
           lines[j - j0] = line;
         }
-        io.stdout(lines.join('\n') + '\n');
+        await sink.write(lines.join('\n') + '\n');
+        if (sink.closed()) break;
       }
+      if (sink.closed()) break;
     }
+    sink.dispose();
     return 0;
   } finally {
     await source.close();
