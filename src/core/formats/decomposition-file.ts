@@ -29,8 +29,17 @@ function rows(M: Float64Array, r: number, c: number): number[][] {
   return Array.from({ length: r }, (_, i) => Array.from(M.subarray(i * c, (i + 1) * c)));
 }
 
+/** Optional run details written beside the contract fields (readers ignore them). */
+export interface DecompositionExtras {
+  readonly rankReason?: string;
+  /** Per component: variance accounted for / total channel variance. */
+  readonly varianceShare?: ArrayLike<number>;
+  readonly warnings?: readonly string[];
+  readonly seed?: number;
+}
+
 /** Our JSON for a decomposition (pretty-printed with one matrix row per line). */
-export function serializeDecomposition(d: Decomposition): string {
+export function serializeDecomposition(d: Decomposition, extras: DecompositionExtras = {}): string {
   const body = {
     format: DECOMPOSITION_FORMAT,
     channels: d.channels,
@@ -41,6 +50,10 @@ export function serializeDecomposition(d: Decomposition): string {
     converged: d.converged,
     preprocessing: d.preprocessing,
     recordingSha256: d.recordingSha256,
+    ...(extras.seed !== undefined ? { seed: extras.seed } : {}),
+    ...(extras.rankReason !== undefined ? { rankReason: extras.rankReason } : {}),
+    ...(extras.varianceShare !== undefined ? { varianceShare: Array.from(extras.varianceShare) } : {}),
+    ...(extras.warnings !== undefined ? { warnings: extras.warnings } : {}),
     channelMeans: d.channelMeans ? Array.from(d.channelMeans) : null,
     mixing: rows(d.mixing, d.nChannels, d.nComponents),
     unmixing: rows(d.unmixing, d.nComponents, d.nChannels),
