@@ -1,4 +1,222 @@
-/** Before/after preview of the cleaned signal (placeholder until the preview lands). */
+/**
+ * Before/after preview of the cleaned signal: stacked sensor traces of a scrollable window on canvas,
+ * original and cleaned overlaid or side by side, following every verdict change live. A change of the
+ * removed set updates the cleaned window incrementally (± a_i s_i, src/core/review/preview-projection.ts)
+ * and repaints the canvas straight from the store subscription, without waiting for React; the time from
+ * the store change to the repainted canvas is recorded as the performance measure
+ * "winnow:toggle-to-repaint" and shown under the traces.
+ *
+ * data-testid hooks for the end-to-end tests:
+ *   preview-view               the whole view (section)
+ *   preview-traces             the traces canvas
+ *   preview-cleaned-checksum   8 hex digits: checksum of the cleaned window (changes when the removed set changes)
+ *   preview-removed-count      number of components currently removed
+ *   preview-erp-before         ERP peak in the ROI window before cleaning (µV, two decimals, or "n/a")
+ *   preview-erp-after          the same after cleaning
+ *   preview-band-before, preview-band-after   band power in the ROI band (µV², three decimals)
+ *   preview-update-ms          last measured toggle-to-repaint time (ms)
+ *   preview-mode               overlay / side-by-side toggle button
+ */
+import { useEffect, useMemo, useRef, useState } from 'react';
+import type { Decomposition } from '../../core/decomposition.ts';
+import type { LoadedRecording } from '../../core/recording.ts';
+import {
+  applyRemovedSet,
+  regionErpAfter,
+  regionErpPlan,
+  regionMean,
+  removedVarianceShare,
+  windowChecksum,
+} from '../../core/review/preview-projection.ts';
+import { useWorkbench, workbenchStore } from '../../state/index.ts';
+import { ExportablePanel } from '../export/ExportablePanel.tsx';
+import { decompositionMontage } from '../plots/montage-positions.ts';
+import { TopographyMap } from '../plots/TopographyMap.tsx';
+import { TracePlot } from '../plots/TracePlot.tsx';
+import { drawTraces, type TraceSpec } from '../plots/trace-draw.ts';
+import { clampWindowStart, robustRowSpan } from '../plots/trace-layout.ts';
+import { PreviewToolbar, type PreviewSettings } from './PreviewToolbar.tsx';
+import { RegionErpPanel, RegionSpectraPanel } from './RegionPanels.tsx';
+import {
+  defaultTraceChannels,
+  eventOnsets,
+  mostFrequentEventLabel,
+  regionChannels,
+  regionSpectra,
+  removedSetFromDecisions,
+} from './preview-logic.ts';
+import { usePreviewWindow } from './usePreviewWindow.ts';
+import './preview.css';
+
 export function PreviewView() {
-  return <section className="preview-view" aria-label="Cleaned signal preview" />;
+  const recording = useWorkbench((s) => s.recording);
+  const decomposition = useWorkbench((s) => s.decomposition);
+  if (!recording || !decomposition) {
+    return (
+      <section className="preview-view" data-testid="preview-view" aria-label="Cleaned signal preview">
+        <p>Open a participant to preview the cleaned signal.</p>
+      </section>
+    );
+  }
+  return <PreviewWorkspace recording={recording} decomposition={decomposition} />;
+}
+
+function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecording; decomposition: Decomposition }) {
+  const aim = useWorkbench((s) => s.aim);
+  const roi = useWorkbench((s) => s.roi);
+  const decisions = useWorkbench((s) => s.decisions);
+  const montage = decompositionMontage(recording, decomposition);
+  const { rows } = montage;
+  const fs = recording.signals.sampleRate;
+  const durationS = recording.signals.nSamples / fs;
+  const n = decomposition.nChannels;
+  const k = decomposition.nComponents;
+
+  const [settings, setSettings] = useState<PreviewSettings>(() => ({
+    startS: 0,
+    lengthS: 10,
+    channels: defaultTraceChannels(rows, 16),
+    mode: 'overlay',
+    gain: 1,
+  }));
+  const startS = clampWindowStart(settings.startS, settings.lengthS, durationS);
+  const start = Math.round(startS * fs);
+  const end = Math.min(recording.signals.nSamples, start + Math.round(settings.lengthS * fs));
+  const { win, original, length } = usePreviewWindow(recording, decomposition, rows, start, end);
+
+  // --- live incremental update, repainted straight from the store subscription -------------------------
+  const canvas = useRef<HTMLCanvasElement | null>(null);
+  const specRef = useRef<TraceSpec | null>(null);
+  const [version, setVersion] = useState(0);
+  const [updateMs, setUpdateMs] = useState<number | null>(null);
+  useEffect(() => {
+    if (!win) return;
+    const sync = (d: typeof decisions, initial: boolean) => {
+      performance.mark('winnow:toggle');
+      const toggled = applyRemovedSet(win, decomposition.mixing, removedSetFromDecisions(d, k));
+      if (toggled === 0 && !initial) return;
+      if (canvas.current && specRef.current) drawTraces(canvas.current, specRef.current);
+      const m = performance.measure('winnow:toggle-to-repaint', 'winnow:toggle');
+      if (!initial) setUpdateMs(m.duration);
+      setVersion((v) => v + 1);
+    };
+    sync(workbenchStore.getState().decisions, true);
+    return workbenchStore.subscribe((s, prev) => {
+      if (s.decisions !== prev.decisions) sync(s.decisions, false);
+    });
+  }, [win, decomposition, k]);
+
+  // --- traces ------------------------------------------------------------------------------------------
+  const rowSpan = useMemo(() => robustRowSpan(original, n, length), [original, n, length]);
+  const spec = useMemo((): TraceSpec | null => {
+    if (!win) return null;
+    const labels = settings.channels.map((c) => decomposition.channels[c]);
+    const side = settings.mode === 'side-by-side';
+    return {
+      width: 900,
+      height: Math.max(160, 40 + 26 * settings.channels.length),
+      rowLabels: labels,
+      rowIndex: settings.channels,
+      length,
+      sampleRate: fs,
+      startS: start / fs,
+      layers: [
+        { data: win.original, colour: side ? '#1d232b' : '#b9b3a4', lineWidth: side ? 1 : 1.6, panel: 0 },
+        { data: win.cleaned, colour: side ? '#1d232b' : '#1f4e8c', lineWidth: 1, panel: 1 },
+      ],
+      rowSpan: rowSpan / settings.gain,
+      events: recording.events.filter((e) => e.source !== 'boundary'),
+      sideBySide: side,
+      panelTitles: ['original', 'cleaned'],
+    };
+  }, [win, settings.channels, settings.mode, settings.gain, decomposition.channels, length, fs, start, rowSpan, recording.events]);
+  specRef.current = spec;
+
+  // --- figures that follow the verdicts (recomputed per version) ---------------------------------------
+  const removed = useMemo(() => removedSetFromDecisions(decisions, k), [decisions, k]);
+  const checksum = useMemo(() => (win ? windowChecksum(win.cleaned) : ''), [win, version]);
+  const varianceRemoved = useMemo(() => (win ? removedVarianceShare(win) : null), [win, version]);
+
+  const roiRows = useMemo(() => regionChannels(aim, roi.channels, decomposition.channels, rows), [aim, roi.channels, decomposition.channels, rows]);
+  const regionLabel = roiRows.map((c) => decomposition.channels[c]).join(', ') || '—';
+  const eventLabel = roi.epochEvent ?? mostFrequentEventLabel(recording.events);
+  const erpPlan = useMemo(
+    () =>
+      regionErpPlan(
+        recording.signals.data, recording.signals.nSamples, fs, rows, roiRows,
+        decomposition.unmixing, decomposition.mixing, k, eventOnsets(recording.events, eventLabel),
+      ),
+    [recording, fs, rows, roiRows, decomposition, k, eventLabel],
+  );
+  const erpAfter = useMemo(
+    () => (erpPlan ? regionErpAfter(erpPlan.before, erpPlan.componentErps, erpPlan.regionWeights, removed) : null),
+    [erpPlan, removed],
+  );
+  const spectra = useMemo(() => {
+    if (!win || length < 16) return null;
+    return regionSpectra(regionMean(win.original, length, roiRows), regionMean(win.cleaned, length, roiRows), fs);
+  }, [win, version, length, roiRows, fs]);
+
+  return (
+    <section className="preview-view" data-testid="preview-view" aria-label="Cleaned signal preview">
+      <PreviewToolbar
+        settings={{ ...settings, startS }}
+        durationS={durationS}
+        channels={decomposition.channels}
+        rows={rows}
+        regionRows={roiRows}
+        onChange={(p) => setSettings((s) => ({ ...s, ...p }))}
+      />
+      <div className="preview-grid">
+        <ExportablePanel title="Traces" context="preview" className="panel-traces">
+          {spec ? (
+            <TracePlot
+              spec={spec}
+              testId="preview-traces"
+              ariaLabel={`${settings.channels.length} channels, ${settings.lengthS} s from ${startS.toFixed(1)} s, original and cleaned`}
+              canvasRef={(el) => {
+                canvas.current = el;
+              }}
+            />
+          ) : (
+            <canvas data-testid="preview-traces" width={900} height={160} aria-label="computing the window" />
+          )}
+          <p className="note">
+            {settings.mode === 'overlay' ? 'Grey: original; blue: cleaned.' : 'Left: original; right: cleaned.'} Removed:{' '}
+            <span data-testid="preview-removed-count">{removed.size}</span> of {k} components. Checksum of the cleaned window:{' '}
+            <code data-testid="preview-cleaned-checksum">{checksum}</code>. Last update:{' '}
+            <span data-testid="preview-update-ms">{updateMs === null ? '—' : updateMs.toFixed(1)}</span> ms.
+          </p>
+        </ExportablePanel>
+        <div className="preview-side">
+          <ExportablePanel title="Variance removed per channel" context="preview" className="panel-variance">
+            {varianceRemoved && montage.drawable ? (
+              <TopographyMap
+                weights={varianceRemoved}
+                positionsUnit={montage.positions}
+                size={150}
+                title="Share of each channel's variance removed in the shown window"
+                labels={decomposition.channels}
+                colourBar
+                unit="share"
+              />
+            ) : (
+              <p>{montage.drawable ? 'Computing…' : 'No electrode positions, so no map.'}</p>
+            )}
+            <p className="note">var(original − cleaned) / var(original) per channel, shown window.</p>
+          </ExportablePanel>
+          <RegionErpPanel
+            times={erpPlan?.times ?? null}
+            before={erpPlan?.before ?? null}
+            after={erpAfter}
+            nEpochs={erpPlan?.nEpochs ?? 0}
+            eventLabel={eventLabel}
+            regionLabel={regionLabel}
+            windowS={roi.windowS}
+          />
+          <RegionSpectraPanel spectra={spectra} aim={aim} bandHz={roi.bandHz} regionLabel={regionLabel} />
+        </div>
+      </div>
+    </section>
+  );
 }

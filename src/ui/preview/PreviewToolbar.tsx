@@ -1,0 +1,78 @@
+/** Window position and length (zoom), vertical gain, overlay / side by side, and the channels shown. */
+import { clampWindowStart } from '../plots/trace-layout.ts';
+
+export interface PreviewSettings {
+  readonly startS: number;
+  readonly lengthS: number;
+  /** Decomposition channel indices drawn, top to bottom. */
+  readonly channels: readonly number[];
+  readonly mode: 'overlay' | 'side-by-side';
+  /** Vertical magnification (1 = about ±3 robust SD per row). */
+  readonly gain: number;
+}
+
+export interface PreviewToolbarProps {
+  readonly settings: PreviewSettings;
+  readonly durationS: number;
+  readonly channels: readonly string[];
+  readonly rows: Int32Array;
+  readonly regionRows: readonly number[];
+  readonly onChange: (patch: Partial<PreviewSettings>) => void;
+}
+
+const LENGTHS_S = [2, 5, 10, 20, 30, 60];
+
+export function PreviewToolbar({ settings, durationS, channels, rows, regionRows, onChange }: PreviewToolbarProps) {
+  const { startS, lengthS } = settings;
+  const step = (dir: number) => onChange({ startS: clampWindowStart(startS + dir * lengthS * 0.8, lengthS, durationS) });
+  const present = channels.map((_, c) => c).filter((c) => rows[c] >= 0);
+  return (
+    <div className="preview-toolbar" role="toolbar" aria-label="Preview window">
+      <button type="button" onClick={() => step(-1)} disabled={startS <= 0} aria-label="Earlier">‹</button>
+      <input
+        type="range" min={0} max={Math.max(0, durationS - lengthS)} step={0.5} value={startS}
+        onChange={(e) => onChange({ startS: Number(e.target.value) })}
+        aria-label="Window start (s)" aria-valuetext={`${startS.toFixed(1)} s`}
+      />
+      <button type="button" onClick={() => step(1)} disabled={startS >= durationS - lengthS} aria-label="Later">›</button>
+      <span className="time">{startS.toFixed(1)}–{Math.min(durationS, startS + lengthS).toFixed(1)} s of {durationS.toFixed(0)} s</span>
+      <label>
+        Window{' '}
+        <select value={lengthS} onChange={(e) => onChange({ lengthS: Number(e.target.value) })}>
+          {LENGTHS_S.map((s) => (
+            <option key={s} value={s}>{s} s</option>
+          ))}
+        </select>
+      </label>
+      <span className="gain" role="group" aria-label="Vertical scale">
+        <button type="button" onClick={() => onChange({ gain: settings.gain / 1.5 })} aria-label="Smaller traces">−</button>
+        ×{settings.gain.toFixed(2)}
+        <button type="button" onClick={() => onChange({ gain: settings.gain * 1.5 })} aria-label="Larger traces">+</button>
+      </span>
+      <button
+        type="button"
+        data-testid="preview-mode"
+        aria-pressed={settings.mode === 'side-by-side'}
+        onClick={() => onChange({ mode: settings.mode === 'overlay' ? 'side-by-side' : 'overlay' })}
+      >
+        {settings.mode === 'overlay' ? 'side by side' : 'overlay'}
+      </button>
+      <label className="channel-select">
+        Channels{' '}
+        <select
+          multiple size={4} value={settings.channels.map(String)}
+          onChange={(e) => onChange({ channels: Array.from(e.target.selectedOptions, (o) => Number(o.value)) })}
+        >
+          {present.map((c) => (
+            <option key={c} value={c}>{channels[c]}</option>
+          ))}
+        </select>
+      </label>
+      <span className="channel-presets">
+        <button type="button" onClick={() => onChange({ channels: present.slice(0, 16) })}>first 16</button>
+        <button type="button" onClick={() => onChange({ channels: present })}>all</button>
+        <button type="button" onClick={() => onChange({ channels: [...regionRows] })}>region</button>
+      </span>
+    </div>
+  );
+}

@@ -1,0 +1,90 @@
+/**
+ * Beside the traces: the region's ERP before/after (or band power for the oscillations aim), and the
+ * region's spectra before/after in the shown window.
+ */
+import type { Aim } from '../../core/review/vocabulary.ts';
+import { ExportablePanel } from '../export/ExportablePanel.tsx';
+import { ErpPlot } from '../plots/ErpPlot.tsx';
+import { SpectrumPlot } from '../plots/SpectrumPlot.tsx';
+import { peakInWindow } from '../plots/erp-geometry.ts';
+import { formatValue, regionBandPower, type RegionSpectra } from './preview-logic.ts';
+
+export interface RegionErpPanelProps {
+  readonly times: Float64Array | null;
+  readonly before: Float64Array | null;
+  readonly after: Float64Array | null;
+  readonly nEpochs: number;
+  readonly eventLabel: string | null;
+  readonly regionLabel: string;
+  readonly windowS: readonly [number, number];
+}
+
+/** ERP at the region before and after, with the peak in the measurement window printed as numbers. */
+export function RegionErpPanel({ times, before, after, nEpochs, eventLabel, regionLabel, windowS }: RegionErpPanelProps) {
+  const pb = times && before ? peakInWindow(times, before, windowS[0], windowS[1]) : null;
+  const pa = times && after ? peakInWindow(times, after, windowS[0], windowS[1]) : null;
+  return (
+    <ExportablePanel title="ERP before / after" context="preview" className="panel-region-erp">
+      {times && before && after ? (
+        <ErpPlot
+          times={times}
+          series={[{ values: before, label: 'before' }, { values: after, label: 'after' }]}
+          windowS={windowS}
+          width={340}
+          height={160}
+          title={`ERP at ${regionLabel}`}
+        />
+      ) : (
+        <p>{eventLabel ? `No complete epoch around “${eventLabel}”.` : 'No events in this recording, so no ERP.'}</p>
+      )}
+      <dl className="region-figures">
+        <dt>Peak {windowS[0]}–{windowS[1]} s before</dt>
+        <dd><span data-testid="preview-erp-before">{formatValue(pb?.value ?? NaN)}</span> µV</dd>
+        <dt>after</dt>
+        <dd><span data-testid="preview-erp-after">{formatValue(pa?.value ?? NaN)}</span> µV</dd>
+      </dl>
+      <p className="note">
+        Mean of {regionLabel}; {nEpochs} epochs around “{eventLabel ?? '—'}”, −0.2 to 0.8 s, baseline −0.2–0 s. The whole recording is
+        averaged, not just the shown window.
+      </p>
+    </ExportablePanel>
+  );
+}
+
+export interface RegionSpectraPanelProps {
+  readonly spectra: RegionSpectra | null;
+  readonly aim: Aim;
+  readonly bandHz: readonly [number, number];
+  readonly regionLabel: string;
+}
+
+/** Spectra of the region before/after in the shown window; band power before/after for the oscillations aim. */
+export function RegionSpectraPanel({ spectra, aim, bandHz, regionLabel }: RegionSpectraPanelProps) {
+  const bp = spectra ? regionBandPower(spectra, bandHz) : null;
+  return (
+    <ExportablePanel title="Spectra before / after" context="preview" className="panel-region-spectra">
+      {spectra ? (
+        <SpectrumPlot
+          series={[
+            { frequencies: spectra.frequencies, power: spectra.before, label: 'before' },
+            { frequencies: spectra.frequencies, power: spectra.after, label: 'after' },
+          ]}
+          width={340}
+          height={170}
+          title={`Spectra at ${regionLabel}`}
+        />
+      ) : (
+        <p>The window is too short for a spectrum.</p>
+      )}
+      {bp ? (
+        <dl className={`region-figures ${aim === 'oscillations' ? 'emphasis' : ''}`}>
+          <dt>Band power {bandHz[0]}–{bandHz[1]} Hz before</dt>
+          <dd><span data-testid="preview-band-before">{formatValue(bp.before, 3)}</span> µV²</dd>
+          <dt>after</dt>
+          <dd><span data-testid="preview-band-after">{formatValue(bp.after, 3)}</span> µV²</dd>
+        </dl>
+      ) : null}
+      <p className="note">Welch PSD of the mean of {regionLabel} over the shown window.</p>
+    </ExportablePanel>
+  );
+}
