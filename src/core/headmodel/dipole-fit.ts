@@ -67,6 +67,8 @@ export interface DipoleFitter {
   readonly gridPoints: number;
   fit(map: Float64Array): DipoleFit;
   fitSymmetric(map: Float64Array): SymmetricDipoleFit;
+  /** The coarse-grid point (mm) the single-dipole fit of `map` starts from (NaN for a flat or NaN map). */
+  coarseStart(map: Float64Array): [number, number, number];
 }
 
 type LeadFieldFn = (model: HeadModel, electrodes: Float64Array, positionMm: ArrayLike<number>, out: Float64Array) => Float64Array;
@@ -300,6 +302,14 @@ export function createDipoleFitter(model: HeadModel, electrodesMm: Float64Array,
         atBoundary: blocked || r >= limit - edgeTol,
         iterations,
       };
+    },
+
+    coarseStart(map: Float64Array): [number, number, number] {
+      if (!validMap(map)) return [NaN, NaN, NaN];
+      const ss = loadMap(map);
+      if (!(ss > 0) || !Number.isFinite(ss)) return [NaN, NaN, NaN];
+      const g = bestGridPoint(gridBases, nGrid, 3);
+      return g < 0 ? [NaN, NaN, NaN] : [grid[3 * g], grid[3 * g + 1], grid[3 * g + 2]];
     },
 
     fitSymmetric(map: Float64Array): SymmetricDipoleFit {
