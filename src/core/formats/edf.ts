@@ -14,9 +14,23 @@
  * - Records = −1 (still recording) is replaced by the count of whole records in the file, with a warning.
  */
 import type { ByteSource } from './byte-source.ts';
-import { parseFail, parseOk, type ParseError, type ParseResult } from './parse-result.ts';
+import { parseFail, parseOk, type ParseError, type ParseErrorCode, type ParseResult } from './parse-result.ts';
 import { parseTals } from './tal.ts';
 import type { ChannelInfo, RecordingEvent, RecordingFormat, RecordingInfo, SignalBlock } from '../recording.ts';
+
+/**
+ * The typed errors readEdfInfo/readEdfSignals return (ParseError.code), one per kind of bad input:
+ * too-short (file shorter than the 256-byte header or than its own signal header), bad-version,
+ * bad-number (a non-numeric header field; the message names the field and the signal),
+ * header-size-mismatch (header bytes ≠ 256·(ns+1)), no-signals (ns ≤ 0), bad-scaling (physical min = max,
+ * digital min ≥ max), truncated-record (fewer whole records than the header says), bad-tal (malformed TAL,
+ * missing time-keeping TAL, overlapping EDF+D records; names the record and byte offset),
+ * unknown-channel and bad-value (a read across channels of different rates; lists the rates), io.
+ */
+export type EdfErrorCode = Extract<
+  ParseErrorCode,
+  'too-short' | 'bad-version' | 'bad-number' | 'header-size-mismatch' | 'no-signals' | 'bad-scaling' | 'truncated-record' | 'bad-tal' | 'unknown-channel' | 'bad-value' | 'io'
+>;
 
 /** Bytes of the fixed main header. */
 export const EDF_MAIN_HEADER_BYTES = 256;

@@ -227,6 +227,18 @@ describe('readEdfInfo on files written byte by byte from the specification', () 
   });
 });
 
+describe('readEdfInfo on an annotation-only EDF+ file', () => {
+  it('accepts record duration 0 when the only signal is "EDF Annotations" (EDF+ §2.2.4) and lists no channels', async () => {
+    const bytes = specFile({
+      reserved: 'EDF+C', records: '1', duration: '0', signals: [annotationSignal(16)],
+      data: new Uint8Array(talBytes('+0\x14\x14\x00+12.5\x15\x33\x14Sleep stage W\x14\x00', 32)),
+    });
+    const i = await info(bytes);
+    expect(i.channels).toEqual([]);
+    expect(i.events).toEqual([{ onset: 12.5, duration: 3, label: 'Sleep stage W', source: 'annotation' }]);
+  });
+});
+
 describe('readEdfInfo on bad input (one typed error each; every message starts with the file name)', () => {
   const good = () => specFile({ records: '1', duration: '1', signals: [eeg('Fz', 2)], data: new Uint8Array(le16([1, 2])) });
 

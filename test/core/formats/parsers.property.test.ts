@@ -57,6 +57,26 @@ describe('EDF/BDF parsers never throw', () => {
     await fc.assert(fc.asyncProperty(fc.uint8Array({ maxLength: 2000 }), readAll), { seed: 20261202, numRuns: 200 });
   });
 
+  it('on random bytes behind a valid EDF version field and printable numeric-looking header text', async () => {
+    const digitText = fc.stringMatching(/^[-+0-9. eE]{0,8}$/);
+    await fc.assert(
+      fc.asyncProperty(fc.array(digitText, { minLength: 4, maxLength: 4 }), fc.uint8Array({ maxLength: 1500 }), async ([hb, rec, dur, ns], tail) => {
+        const head = new Uint8Array(256).fill(0x20);
+        head[0] = 0x30;
+        const put = (off: number, w: number, t: string) => [...t.slice(0, w)].forEach((ch, i) => (head[off + i] = ch.charCodeAt(0)));
+        put(184, 8, hb);
+        put(236, 8, rec);
+        put(244, 8, dur);
+        put(252, 4, ns);
+        const b = new Uint8Array(256 + tail.length);
+        b.set(head);
+        b.set(tail, 256);
+        await readAll(b);
+      }),
+      { seed: 424242, numRuns: 300 },
+    );
+  });
+
   it('on valid files with random bytes overwritten (header and records) and random truncation', async () => {
     const files = [base('EDF+C'), base('BDF+D')];
     const printable = fc.integer({ min: 0x20, max: 0x7e });
