@@ -164,24 +164,20 @@ export function recomputeCleaned(
 }
 
 /**
- * A short checksum of a cleaned window: FNV-1a (32-bit) over the values rounded to 0.001 (µV), so
- * rounding noise of the incremental updates below a nanovolt does not change it while any real change
- * does. Returned as 8 hex digits.
+ * A short checksum of a cleaned window: each value rounded to 0.001 (µV) as a 64-bit integer split into
+ * two 32-bit words, folded with the FNV-1a step (xor, then multiply by the FNV prime 16777619) applied to
+ * whole words instead of bytes. Rounding noise of the incremental updates far below a nanovolt does not
+ * change it; any visible change does (with the usual 2⁻³² chance of a collision). Returned as 8 hex digits.
  */
 export function windowChecksum(values: ArrayLike<number>): string {
   let h = 0x811c9dc5;
   for (let i = 0; i < values.length; i++) {
     const v = values[i];
-    // Rounded value as a 32-bit integer pair (high and low part) so large amplitudes stay distinct.
     const q = Number.isFinite(v) ? Math.round(v * 1000) : 0x7fffffff;
     const lo = q | 0;
     const hi = Math.floor(q / 4294967296) | 0;
-    for (const word of [lo, hi]) {
-      for (let b = 0; b < 4; b++) {
-        h ^= (word >>> (8 * b)) & 0xff;
-        h = Math.imul(h, 0x01000193);
-      }
-    }
+    h = Math.imul(h ^ lo, 0x01000193);
+    h = Math.imul(h ^ hi, 0x01000193);
   }
   return (h >>> 0).toString(16).padStart(8, '0');
 }
@@ -286,7 +282,7 @@ export function regionErpPlan(
   let times: Float64Array | null = null;
   let L = 0;
   let nEpochs = 0;
-  let channelErps: Float64Array | null = null;
+  let channelErps: Float64Array<ArrayBuffer> | null = null;
   for (let c = 0; c < n; c++) {
     if (rows[c] < 0) continue;
     const x = data.subarray(rows[c] * nSamples, (rows[c] + 1) * nSamples);
