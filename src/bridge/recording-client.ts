@@ -26,7 +26,7 @@ async function withWorker<T>(signal: AbortSignal, run: (api: Remote<RecordingWor
 
 /** Parses a recording and its sidecars in a worker; samples come back in shared memory when isolated. */
 export function readRecordingInWorker(files: readonly File[], signal: AbortSignal, onProgress: (f: number) => void): Promise<LoadResult> {
-  return withWorker(signal, (api) => api.load([...files], proxy(onProgress)));
+  return withWorker<LoadResult>(signal, async (api) => (await api.load([...files], proxy(onProgress))) as LoadResult);
 }
 
 /** Writes the cleaned recording (EDF+/BDF+ bytes) in a worker. */

@@ -53,3 +53,26 @@ export const selectDecidedCount = (s: WorkbenchState): number => {
 
 export const selectCanUndo = (s: WorkbenchState) => s.past.length > 0;
 export const selectCanRedo = (s: WorkbenchState) => s.future.length > 0;
+
+const positionsCache = new WeakMap<object, { recording: object; positions: Float64Array }>();
+
+/**
+ * Electrode unit vectors (n×3, RAS, row-major) for the decomposition's channels, taken from the recording's
+ * positions by label; NaN rows for channels without a position. Cached per decomposition, so the array is
+ * stable (the topography plans are cached by its identity). Null before both are loaded or without positions.
+ */
+export const selectDecompositionPositions = (s: WorkbenchState): Float64Array | null => {
+  const { recording, decomposition } = s;
+  if (!recording || !decomposition || !recording.positions) return null;
+  const hit = positionsCache.get(decomposition);
+  if (hit && hit.recording === recording) return hit.positions;
+  const rowOf = new Map(recording.signals.labels.map((l, i) => [l.toLowerCase(), i] as const));
+  const out = new Float64Array(decomposition.nChannels * 3).fill(NaN);
+  decomposition.channels.forEach((label, c) => {
+    const r = rowOf.get(label.toLowerCase());
+    if (r === undefined) return;
+    for (let k = 0; k < 3; k++) out[c * 3 + k] = recording.positions![r * 3 + k];
+  });
+  positionsCache.set(decomposition, { recording, positions: out });
+  return out;
+};

@@ -8,7 +8,8 @@ import { decisionsFromFile, parseDecisionsJson, parseDecisionsTsv } from '../cor
 import { getWorkbenchServices, resumeOfferFrom, reviewKey, type OnFraction } from './services.ts';
 import { progressAt } from './task-progress.ts';
 import { DEFAULT_ROI } from './view-slice.ts';
-import type { SessionSlice, WorkbenchState } from './types.ts';
+import type { DecomposeOptions, SessionSlice, WorkbenchState } from './types.ts';
+import type { Decomposition } from '../core/decomposition.ts';
 
 /** Default decomposition when none is given: extended Infomax, seed 1, 1 Hz high-pass (METHODS §14, common practice). */
 export const DEFAULT_DECOMPOSE = { method: 'infomax', seed: 1, highpassHz: 1 } as const;
@@ -39,56 +40,117 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     return run(onProgress);
   }
 
+  /** Starts a new cancellable task, cancelling any load still running. */
+  function begin(): AbortController {
+    current?.abort();
+    const controller = new AbortController();
+    current = controller;
+    set({ notice: null, resumeOffer: null });
+    return controller;
+  }
+
+  function end(controller: AbortController) {
+    if (current === controller) current = null;
+  }
+
+  function fail(controller: AbortController, e: unknown) {
+    if (current !== controller) return; // superseded by a newer load
+    set({
+      progress: null,
+      notice: controller.signal.aborted ? { kind: 'info', text: 'Cancelled.' } : { kind: 'error', text: (e as Error)?.message ?? String(e) },
+    });
+  }
+
+  async function decomposeStep(controller: AbortController, options: DecomposeOptions) {
+    const { recording, recordingSha256 } = get();
+    if (!recording || recordingSha256 === null) throw new Error('No recording is loaded.');
+    const services = await getWorkbenchServices();
+    return step(`Decomposing (${options.method}, seed ${options.seed}, high-pass ${options.highpassHz} Hz)`, controller, (p) =>
+      services.computeDecomposition(recording, recordingSha256, options, controller.signal, p),
+    );
+  }
+
+  /** Decomposition → evidence → resume offer (or the given decisions file) → board. */
+  async function finish(
+    controller: AbortController,
+    getDecomposition: () => Promise<{ decomposition: Decomposition; sha256: string }>,
+    decisionsFile: File | null,
+  ) {
+    const { signal } = controller;
+    const services = await getWorkbenchServices();
+    const recording = get().recording;
+    const recordingSha256 = get().recordingSha256;
+    if (!recording || recordingSha256 === null) throw new Error('No recording is loaded.');
+    const made = await getDecomposition();
+    signal.throwIfAborted();
+    set({ decomposition: made.decomposition, decompositionSha256: made.sha256, evidence: null, decisions: {}, past: [], future: [] });
+    const evidence = await step('Computing evidence', controller, (p) =>
+      services.computeEvidence(recording, made.decomposition, get().aim, signal, p),
+    );
+    signal.throwIfAborted();
+    set({ evidence, selected: made.decomposition.nComponents > 0 ? 1 : null });
+    const saved = await services.loadReview(reviewKey(recordingSha256, made.sha256)).catch(() => null);
+    signal.throwIfAborted();
+    set({ progress: null, screen: 'board', resumeOffer: decisionsFile ? null : resumeOfferFrom(saved) });
+    if (decisionsFile) await get().importDecisions(decisionsFile);
+  }
+
   return {
     loadParticipant: async (input) => {
-      current?.abort();
-      const controller = new AbortController();
-      current = controller;
+      const controller = begin();
       const { signal } = controller;
-      set({ notice: null, resumeOffer: null });
       try {
         const services = await getWorkbenchServices();
         const { recording, sha256: recordingSha256 } = await step('Reading the recording', controller, (p) =>
           services.readRecording(input.recordingFiles, signal, p),
         );
         signal.throwIfAborted();
-        set({ recording, recordingSha256, decomposition: null, decompositionSha256: null, evidence: null, decisions: {}, past: [], future: [], selected: null, roi: DEFAULT_ROI });
-        let decomposition;
+        set({
+          recording, recordingSha256, decomposition: null, decompositionSha256: null, evidence: null,
+          decisions: {}, past: [], future: [], selected: null, roi: DEFAULT_ROI, screen: 'start',
+        });
         if (input.decompositionFiles && input.decompositionFiles.length > 0) {
-          decomposition = await step('Reading the decomposition', controller, () =>
-            services.readDecomposition(input.decompositionFiles!, recording, recordingSha256, signal),
-          );
+          const files = input.decompositionFiles;
+          await finish(controller, () => step('Reading the decomposition', controller, () =>
+            services.readDecomposition(files, recording, recordingSha256, signal)), input.decisionsFile ?? null);
         } else if (input.decompose === null) {
-          // Recording only: the start screen shows the recording and offers to compute a decomposition.
-          set({ progress: null, screen: 'start' });
-          return;
+          // Recording only: the start screen lists it and offers to compute or open a decomposition.
+          set({ progress: null });
         } else {
           const options = input.decompose ?? DEFAULT_DECOMPOSE;
-          decomposition = await step(`Decomposing (${options.method}, seed ${options.seed})`, controller, (p) =>
-            services.computeDecomposition(recording, recordingSha256, options, signal, p),
-          );
+          await finish(controller, () => decomposeStep(controller, options), input.decisionsFile ?? null);
         }
-        signal.throwIfAborted();
-        set({ decomposition: decomposition.decomposition, decompositionSha256: decomposition.sha256 });
-        const evidence = await step('Computing evidence', controller, (p) =>
-          services.computeEvidence(recording, decomposition.decomposition, get().aim, signal, p),
-        );
-        signal.throwIfAborted();
-        set({ evidence, selected: decomposition.decomposition.nComponents > 0 ? 1 : null });
-        const key = reviewKey(recordingSha256, decomposition.sha256);
-        const saved = await services.loadReview(key).catch(() => null);
-        signal.throwIfAborted();
-        set({ progress: null, screen: 'board', resumeOffer: input.decisionsFile ? null : resumeOfferFrom(saved) });
-        if (input.decisionsFile) await get().importDecisions(input.decisionsFile);
       } catch (e) {
-        if (current !== controller) return; // superseded by a newer load
-        const cancelled = signal.aborted;
-        set({
-          progress: null,
-          notice: cancelled ? { kind: 'info', text: 'Loading cancelled.' } : { kind: 'error', text: (e as Error)?.message ?? String(e) },
-        });
+        fail(controller, e);
       } finally {
-        if (current === controller) current = null;
+        end(controller);
+      }
+    },
+
+    decomposeCurrent: async (options) => {
+      if (!get().recording) return;
+      const controller = begin();
+      try {
+        await finish(controller, () => decomposeStep(controller, options), null);
+      } catch (e) {
+        fail(controller, e);
+      } finally {
+        end(controller);
+      }
+    },
+
+    openDecomposition: async (files) => {
+      const { recording, recordingSha256 } = get();
+      if (!recording || recordingSha256 === null) return;
+      const controller = begin();
+      try {
+        const services = await getWorkbenchServices();
+        await finish(controller, () => step('Reading the decomposition', controller, () =>
+          services.readDecomposition(files, recording, recordingSha256, controller.signal)), null);
+      } catch (e) {
+        fail(controller, e);
+      } finally {
+        end(controller);
       }
     },
 

@@ -5,7 +5,7 @@
 import type { LoadedRecording } from '../core/recording.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import type { ComponentEvidence } from '../core/evidence/types.ts';
-import type { Aim } from '../core/review/vocabulary.ts';
+import type { Aim, ReasonCode, Verdict } from '../core/review/vocabulary.ts';
 import type { ReviewDecision } from '../core/review/decisions-file.ts';
 
 export type { ReviewDecision } from '../core/review/decisions-file.ts';
@@ -97,8 +97,22 @@ export interface ReviewSlice {
   redo: () => void;
 }
 
+/** Board order: component number, variance share, impact on the aim, or suggestion (remove first). */
+export type BoardSort = 'index' | 'variance' | 'impact' | 'suggestion';
+export const BOARD_SORTS: readonly BoardSort[] = ['index', 'variance', 'impact', 'suggestion'];
+
+/** Board filter: by current verdict and/or by reason (the decision's reason, else the suggested one). */
+export interface BoardFilter {
+  readonly verdict: Verdict | 'all';
+  readonly reason: ReasonCode | 'all';
+}
+
 export interface ViewSlice {
   selected: number | null;
+  boardSort: BoardSort;
+  boardFilter: BoardFilter;
+  setBoardSort: (sort: BoardSort) => void;
+  setBoardFilter: (patch: Partial<BoardFilter>) => void;
   screen: Screen;
   roi: Roi;
   progress: Progress | null;
@@ -115,6 +129,10 @@ export interface ViewSlice {
 export interface SessionSlice {
   /** Reads the recording (worker), hashes it, reads or computes the decomposition, computes evidence. */
   loadParticipant: (input: ParticipantInput) => Promise<void>;
+  /** Computes a decomposition of the loaded recording, then evidence, then shows the board. */
+  decomposeCurrent: (options: DecomposeOptions) => Promise<void>;
+  /** Reads a decomposition file for the loaded recording, then evidence, then shows the board. */
+  openDecomposition: (files: readonly File[]) => Promise<void>;
   /** Opens the simulated demo participant shipped with the app. */
   loadDemo: () => Promise<void>;
   /** Restores aim and decisions from a decisions file (JSON or TSV); returns false (with a notice) on a mismatch. */

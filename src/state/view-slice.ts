@@ -7,6 +7,10 @@ export const DEFAULT_ROI: Roi = { channels: [], windowS: [0.25, 0.5], bandHz: [8
 
 export const createViewSlice: StateCreator<WorkbenchState, [], [], ViewSlice> = (set, get) => ({
   selected: null,
+  boardSort: 'index',
+  boardFilter: { verdict: 'all', reason: 'all' },
+  setBoardSort: (boardSort) => set({ boardSort }),
+  setBoardFilter: (patch) => set((s) => ({ boardFilter: { ...s.boardFilter, ...patch } })),
   screen: 'start',
   roi: DEFAULT_ROI,
   progress: null,

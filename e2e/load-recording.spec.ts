@@ -1,0 +1,33 @@
+/** Issue 2: the page opens, a dropped EDF file is read in the browser and its channels are listed. */
+import { expect, test } from '@playwright/test';
+import { tinyEdf } from './edf-bytes.ts';
+
+test('dropping an EDF file on the page lists its channels, rate, duration and format', async ({ page }) => {
+  const offOrigin: string[] = [];
+  page.on('request', (r) => {
+    const url = new URL(r.url());
+    if ((url.protocol === 'http:' || url.protocol === 'https:') && url.origin !== 'http://127.0.0.1:4173') offOrigin.push(r.url());
+  });
+  await page.goto('/?demo=0');
+  await expect(page.getByRole('heading', { name: 'Winnow' })).toBeVisible();
+  await expect(page.getByText('not for clinical diagnosis').first()).toBeVisible();
+  await expect(page.getByText(/nothing is uploaded/).first()).toBeVisible();
+
+  const labels = ['Fp1', 'Fp2', 'Cz', 'O1'];
+  const bytes = Array.from(tinyEdf({ labels, sampleRate: 128, records: 3 }));
+  const dataTransfer = await page.evaluateHandle((b) => {
+    const dt = new DataTransfer();
+    dt.items.add(new File([new Uint8Array(b)], 'sub-07_task-rest_eeg.edf', { type: 'application/octet-stream' }));
+    return dt;
+  }, bytes);
+  await page.dispatchEvent('[data-testid="drop-zone"]', 'drop', { dataTransfer });
+
+  const list = page.getByTestId('channel-list');
+  await expect(list).toBeVisible();
+  for (const label of labels) await expect(list.getByRole('cell', { name: label, exact: true })).toBeVisible();
+  await expect(page.getByTestId('recording-rates')).toHaveText('128 Hz');
+  await expect(page.getByTestId('recording-duration')).toContainText('3.00 s');
+  await expect(page.getByTestId('recording-format')).toHaveText('EDF');
+  await expect(page.getByTestId('decompose-form')).toBeVisible();
+  expect(offOrigin).toEqual([]);
+});
