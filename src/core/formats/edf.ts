@@ -357,6 +357,7 @@ async function forEachRecordBatch(
   firstRecord: number,
   endRecord: number,
   onBatch: (bytes: Uint8Array, first: number, count: number) => ParseError | void,
+  onProgress?: (fraction: number) => void,
 ): Promise<ParseError | void> {
   const perBatch = Math.max(1, Math.floor(BATCH_BYTES / layout.recordBytes));
   for (let r = firstRecord; r < endRecord; r += perBatch) {
@@ -371,6 +372,7 @@ async function forEachRecordBatch(
         byteOffset: layout.headerBytes + r * layout.recordBytes + bytes.length,
       };
     const err = onBatch(bytes, r, count);
+    onProgress?.(Math.min(1, (r + count - firstRecord) / Math.max(1, endRecord - firstRecord)));
     if (err) return err;
   }
 }
@@ -378,7 +380,10 @@ async function forEachRecordBatch(
 /**
  * Reads the header and every annotation (TAL) of an EDF/EDF+/BDF/BDF+ file. Data samples are not decoded.
  */
-export async function readEdfInfo(source: ByteSource): Promise<ParseResult<RecordingInfo>> {
+export async function readEdfInfo(
+  source: ByteSource,
+  opts: { onProgress?: (fraction: number) => void } = {},
+): Promise<ParseResult<RecordingInfo>> {
   const head = await readEdfLayout(source);
   if (!head.ok) return head;
   const { layout, channels, patientId, recordingId, start } = head.value;
@@ -417,7 +422,7 @@ export async function readEdfInfo(source: ByteSource): Promise<ParseResult<Recor
             for (const t of list) for (const text of t.annotations) tals.push({ onset: t.onset, duration: t.duration, text });
           }
         }
-      });
+      }, opts.onProgress);
       if (err) return parseFail(err);
     } catch (e) {
       return ioFail(source.name, e);
@@ -485,6 +490,8 @@ export interface EdfReadOptions {
   startS?: number;
   /** Seconds; samples at t < startS + durationS are kept. Default: to the end. */
   durationS?: number;
+  /** Called after each batch of records with the fraction done (0–1), for progress bars. */
+  onProgress?: (fraction: number) => void;
 }
 
 /** A run of consecutive samples of one record that falls inside the requested time span. */
@@ -695,7 +702,9 @@ export async function readEdfSignals(
   const sampleTimes = sel.discontinuous ? new Float64Array(N) : undefined;
   let pos = 0;
   try {
-    for (const segs of batchSegments(layout, sel.segments)) {
+    const batches = batchSegments(layout, sel.segments);
+    for (const [b, segs] of batches.entries()) {
+      opts.onProgress?.(b / batches.length);
       const bytes = await readBatch(source, layout, segs);
       if (bytes instanceof Uint8Array) {
         if (sampleTimes) fillTimes(sel, info.header.recordOnsets, segs, sampleTimes, pos);
@@ -705,6 +714,7 @@ export async function readEdfSignals(
   } catch (e) {
     return ioFail(source.name, e);
   }
+  opts.onProgress?.(1);
   const block: SignalBlock = { labels: sel.labels, sampleRate: sel.sampleRate, nSamples: N, data, ...(sampleTimes ? { sampleTimes } : {}) };
   return parseOk(block, head.value.warnings);
 }

@@ -31,6 +31,8 @@ import { matchMontage, electrodeNameFromLabel } from '../headmodel/montage-1020.
 export interface LoadRecordingOptions {
   /** Base name of the recording to load when the set holds several .edf/.bdf files. */
   recording?: string;
+  /** Called with the fraction done (0–1): the annotation scan is the first 30 %, the samples the rest. */
+  onProgress?: (fraction: number) => void;
 }
 
 const ENTITY_KEYS = ['sub', 'ses', 'task', 'acq', 'run'] as const;
@@ -154,7 +156,8 @@ export async function loadRecording(files: ByteSource[], opts: LoadRecordingOpti
     });
 
   if (!rec) return parseFail({ code: 'unsupported', message: '(no files): no .edf or .bdf recording among the files' });
-  const infoRes = await readEdfInfo(rec);
+  const progress = opts.onProgress;
+  const infoRes = await readEdfInfo(rec, { onProgress: progress && ((f) => progress(0.3 * f)) });
   if (!infoRes.ok) return infoRes;
   const info = infoRes.value;
   const warnings = [...infoRes.warnings];
@@ -224,7 +227,10 @@ export async function loadRecording(files: ByteSource[], opts: LoadRecordingOpti
   const others = channels.filter((c) => c.sampleRate !== mainRate);
   if (others.length > 0)
     warnings.push(`${recName}: ${others.map((c) => `${c.label} (${c.sampleRate} Hz)`).join(', ')} not loaded; the main rate is ${mainRate} Hz`);
-  const sig = await readEdfSignals(rec, info, { channels: loadedIdx.map((i) => channels[i].label) });
+  const sig = await readEdfSignals(rec, info, {
+    channels: loadedIdx.map((i) => channels[i].label),
+    onProgress: progress && ((f) => progress(0.3 + 0.7 * f)),
+  });
   if (!sig.ok) return sig;
   // Labels may repeat in a file; readEdfSignals matches the first, so keep the block's own labels.
   const signals = sig.value;

@@ -67,7 +67,11 @@ describe('loadRecording', () => {
   });
 
   it('reads only the main-rate channels and names the others in a warning', async () => {
-    const r = await loadRecording([recording('recording.edf', ['Fz', 'Cz'], { label: 'ECG', rate: 64 })]);
+    const seen: number[] = [];
+    const r = await loadRecording([recording('recording.edf', ['Fz', 'Cz'], { label: 'ECG', rate: 64 })], { onProgress: (f) => seen.push(f) });
+    expect(seen.length).toBeGreaterThan(1);
+    expect(seen.every((f, i) => f >= 0 && f <= 1 && (i === 0 || f >= seen[i - 1]))).toBe(true);
+    expect(seen[seen.length - 1]).toBe(1);
     if (!r.ok) throw new Error(r.error.message);
     expect(r.value.channels.map((c) => c.label)).toEqual(['Fz', 'Cz', 'ECG']);
     expect(r.value.signals.labels).toEqual(['Fz', 'Cz']);
