@@ -198,11 +198,15 @@ export function createDipoleFitter(model: HeadModel, electrodesMm: Float64Array,
   const nGrid = gridPositions.length / 3;
   const grid = Float64Array.from(gridPositions);
   const gridBases = new Float64Array(nGrid * 3 * m);
+  /** Copies the column-major basis into `dest` electrode-major (row e holds the nCols basis values). */
+  const storeInterleaved = (dest: Float64Array, offset: number, nCols: number) => {
+    for (let e = 0; e < m; e++) for (let k = 0; k < nCols; k++) dest[offset + e * nCols + k] = basis[k * m + e];
+  };
   if (m >= 4) {
     for (let g = 0; g < nGrid; g++) {
       referencedColumns(leadFieldFast, grid.subarray(3 * g, 3 * g + 3), 0);
       gramSchmidtBasis(cols, m, 3, basis, rFactor);
-      gridBases.set(basis.subarray(0, 3 * m), g * 3 * m);
+      storeInterleaved(gridBases, g * 3 * m, 3);
     }
   }
   let pairGrid: Float64Array | null = null;
@@ -216,7 +220,7 @@ export function createDipoleFitter(model: HeadModel, electrodesMm: Float64Array,
     pairBases = new Float64Array(n * 6 * m);
     for (let g = 0; g < n; g++) {
       evalPair(leadFieldFast, pairGrid.subarray(3 * g, 3 * g + 3), null);
-      pairBases.set(basis.subarray(0, 6 * m), g * 6 * m);
+      storeInterleaved(pairBases, g * 6 * m, 6);
     }
   };
 
@@ -234,20 +238,44 @@ export function createDipoleFitter(model: HeadModel, electrodesMm: Float64Array,
     return ss;
   };
 
-  /** Index of the grid point whose basis (nCols columns) explains most of vt. */
+  /**
+   * Index of the grid point whose basis (nCols columns, stored electrode-major) explains most of vt: one pass
+   * over the electrodes per point with independent accumulators (this scan is the fit's main fixed cost).
+   */
   const bestGridPoint = (bases: Float64Array, nPoints: number, nCols: number): number => {
     let best = -1;
     let bestVal = -Infinity;
     const stride = nCols * m;
+    if (nCols === 3) {
+      for (let g = 0, o = 0; g < nPoints; g++) {
+        let s0 = 0;
+        let s1 = 0;
+        let s2 = 0;
+        for (let e = 0; e < m; e++, o += 3) {
+          const v = vt[e];
+          s0 += bases[o] * v;
+          s1 += bases[o + 1] * v;
+          s2 += bases[o + 2] * v;
+        }
+        const explained = s0 * s0 + s1 * s1 + s2 * s2;
+        if (explained > bestVal) {
+          bestVal = explained;
+          best = g;
+        }
+      }
+      return best;
+    }
+    const acc = qtv;
     for (let g = 0; g < nPoints; g++) {
       const base = g * stride;
-      let explained = 0;
-      for (let k = 0; k < nCols; k++) {
-        const off = base + k * m;
-        let s = 0;
-        for (let e = 0; e < m; e++) s += bases[off + e] * vt[e];
-        explained += s * s;
+      acc.fill(0, 0, nCols);
+      for (let e = 0; e < m; e++) {
+        const v = vt[e];
+        const o = base + e * nCols;
+        for (let k = 0; k < nCols; k++) acc[k] += bases[o + k] * v;
       }
+      let explained = 0;
+      for (let k = 0; k < nCols; k++) explained += acc[k] * acc[k];
       if (explained > bestVal) {
         bestVal = explained;
         best = g;
@@ -270,7 +298,7 @@ export function createDipoleFitter(model: HeadModel, electrodesMm: Float64Array,
     let iterations = coarse.iterations;
     let blocked = coarse.blockedByBoundary;
     if (refine) {
-      const fine = levenbergMarquardt(exact, p, { step: fdStep, maxIterations: 30, relativeCostTol: 1e-12, stepTol: 1e-10 * radius }, lmScratch);
+      const fine = levenbergMarquardt(exact, p, { step: fdStep, maxIterations: 30, relativeCostTol: 1e-12, stepTol: 1e-8 * radius }, lmScratch);
       p = fine.p;
       iterations += fine.iterations;
       blocked = fine.blockedByBoundary;

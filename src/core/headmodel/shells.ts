@@ -64,6 +64,8 @@ export function seriesTermsNeeded(g: Float64Array, b: number, tol = 1e-16): numb
 }
 
 let weightScratch = new Float64Array(512);
+/** n g_n b^(n−1), index n − 1. */
+let weightScratch1 = new Float64Array(512);
 let directionScratch = new Float64Array(384);
 /** Legendre recurrence factors (2n+1)/(n+1) and n/(n+1), index n, shared by every series evaluation. */
 let recurrenceA = new Float64Array(0);
@@ -111,9 +113,12 @@ export function shellSeriesLeadField(
   const nTerms = seriesTermsNeeded(g, b, tol);
   if (weightScratch.length < nTerms) weightScratch = new Float64Array(nTerms * 2);
   const w = weightScratch;
+  if (weightScratch1.length < nTerms) weightScratch1 = new Float64Array(nTerms * 2);
+  const w1 = weightScratch1;
   let bp = 1;
   for (let n = 1; n <= nTerms; n++) {
     w[n - 1] = g[n - 1] * bp;
+    w1[n - 1] = n * w[n - 1];
     bp *= b;
   }
   ensureRecurrence(nTerms);
@@ -139,9 +144,8 @@ export function shellSeriesLeadField(
     for (let n = 1; n < nTerms; n++) {
       const pNext = ra[n] * c * p - rb[n] * pPrev;
       const dNext = dPrev + (2 * n + 1) * p;
-      const wn = w[n];
-      s1 += wn * (n + 1) * pNext;
-      s2 += wn * dNext;
+      s1 += w1[n] * pNext;
+      s2 += w[n] * dNext;
       pPrev = p;
       p = pNext;
       dPrev = dp;
