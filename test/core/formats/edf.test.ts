@@ -227,6 +227,25 @@ describe('readEdfInfo on files written byte by byte from the specification', () 
   });
 });
 
+describe('reading in slices', () => {
+  it('never asks the ByteSource for more than one 8 MB batch of records at a time (9 MB file)', async () => {
+    // 150 records × 2 signals (30 000 samples + 16-sample annotation signal) × 2 bytes ≈ 9 MB
+    const recBytes = 2 * 30000 + 32;
+    const data = new Uint8Array(150 * recBytes);
+    for (let r = 0; r < 150; r++) data.set(talBytes(`+${r}\x14\x14\x00`, 32), r * recBytes + 60000);
+    const bytes = specFile({ reserved: 'EDF+C', records: '150', duration: '1', signals: [eeg('Fz', 30000), annotationSignal(16)], data });
+    const reads: number[] = [];
+    const inner = bytesByteSource(bytes, 'big.edf');
+    const spy = { name: inner.name, size: inner.size, read: (o: number, n: number) => (reads.push(n), inner.read(o, n)) };
+    const i = await readEdfInfo(spy);
+    expect(i.ok).toBe(true);
+    const block = i.ok ? await readEdfSignals(spy, i.value) : null;
+    expect(block?.ok && block.value.nSamples).toBe(150 * 30000);
+    expect(Math.max(...reads)).toBeLessThanOrEqual(8 * 1024 * 1024);
+    expect(reads.filter((n) => n > 100_000).length).toBeGreaterThanOrEqual(4); // two passes (info, samples), 2 batches each
+  });
+});
+
 describe('readEdfInfo on an annotation-only EDF+ file', () => {
   it('accepts record duration 0 when the only signal is "EDF Annotations" (EDF+ §2.2.4) and lists no channels', async () => {
     const bytes = specFile({
