@@ -64,6 +64,38 @@ describe('dipolePotentials (mm, nA·m → µV)', () => {
   });
 });
 
+describe('leadField invariants', () => {
+  it('matches the homogeneous sphere when the skull conducts like brain and scalp (STYLE.md invariant; METHODS §8.3)', () => {
+    const shells = createHeadModel({ skullRatio: 1 });
+    const sphere = createHeadModel({ kind: 'sphere' });
+    for (const p of [[0, 0, 0], [10, -20, 30], [-40, 35, 45], [0, 0, 75]]) {
+      const a = leadField(shells, electrodes90, p);
+      const b = leadField(sphere, electrodes90, p);
+      const scale = b.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
+      for (let i = 0; i < a.length; i++) expect(Math.abs(a[i] - b[i])).toBeLessThan(1e-10 * scale);
+    }
+  });
+
+  it('is unchanged when electrodes, dipole position and moment are rotated together (spherical symmetry)', () => {
+    const m = createHeadModel();
+    // rotation by 40° about z then 25° about x
+    const cz = Math.cos(0.698), sz = Math.sin(0.698), cx = Math.cos(0.436), sx = Math.sin(0.436);
+    const rot = (v: ArrayLike<number>, o = 0): number[] => {
+      const x1 = cz * v[o] - sz * v[o + 1];
+      const y1 = sz * v[o] + cz * v[o + 1];
+      const z1 = v[o + 2];
+      return [x1, cx * y1 - sx * z1, sx * y1 + cx * z1];
+    };
+    const rotated = new Float64Array(electrodes90.length);
+    for (let e = 0; e < names.length; e++) rotated.set(rot(electrodes90, 3 * e), 3 * e);
+    const p = [12, -25, 40];
+    const q = [3, 1, -2];
+    const a = dipolePotentials(m, electrodes90, p, q);
+    const b = dipolePotentials(m, rotated, rot(p), rot(q));
+    for (let e = 0; e < names.length; e++) expect(b[e]).toBeCloseTo(a[e], 10);
+  });
+});
+
 describe('leadFieldFast', () => {
   it('is used by leadField when the model is created with fast: true', () => {
     const fast = createHeadModel({ fast: true });
