@@ -11,24 +11,38 @@ import { demoFiles } from './demo-files.ts';
 import { openReviewDb, type ReviewDb } from './review-db.ts';
 import { sortDecompositionFiles, sortParticipantFiles } from './participant-files.ts';
 import type { WorkbenchServices } from './services.ts';
-import type { DecomposeOptions } from './types.ts';
+import { runDecomposition } from '../bridge/decomposition-client.ts';
+import type { DecomposeInput } from '../core/ica/decompose.ts';
 import type { LoadedRecording } from '../core/recording.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import type { ComponentEvidence } from '../core/evidence/types.ts';
 import type { Aim } from '../core/review/vocabulary.ts';
 
 // Bridges written alongside this file; globbed so the page still builds while one is missing.
-const bridges = import.meta.glob('../bridge/{decomposition,evidence}-client.ts');
-async function loadBridge(name: 'decomposition' | 'evidence'): Promise<unknown> {
+const bridges = import.meta.glob('../bridge/evidence-client.ts');
+async function loadBridge(name: 'evidence'): Promise<unknown> {
   const load = bridges[`../bridge/${name}-client.ts`];
   if (!load) throw new Error(`The ${name} engine is not available in this build.`);
   return load();
 }
-interface DecompositionBridge {
-  runDecomposition: (recording: LoadedRecording, recordingSha256: string, options: DecomposeOptions, signal: AbortSignal, onProgress: (f: number) => void) => Promise<Decomposition>;
-}
 interface EvidenceBridge {
   computeEvidenceForRecording: (recording: LoadedRecording, decomposition: Decomposition, aim: Aim, signal: AbortSignal, onProgress: (f: number) => void) => Promise<ComponentEvidence[]>;
+}
+
+/** The decomposition engine's view of a recording: its main-rate block, channel types and status, gaps. */
+function decomposeInputOf(recording: LoadedRecording): DecomposeInput {
+  const { labels, data, nSamples, sampleRate } = recording.signals;
+  const info = new Map(recording.channels.map((c) => [c.label, c] as const));
+  const boundaries = recording.events
+    .filter((e) => e.source === 'boundary')
+    .map((e) => Math.round(e.onset * sampleRate))
+    .filter((i) => i > 0 && i < nSamples);
+  return {
+    data, nChannels: labels.length, nSamples, sampleRate, labels,
+    types: labels.map((l) => info.get(l)?.type ?? 'EEG'),
+    status: labels.map((l) => info.get(l)?.status ?? 'good'),
+    boundaries,
+  };
 }
 
 let db: Promise<ReviewDb> | null = null;
@@ -57,8 +71,19 @@ export const browserServices: WorkbenchServices = {
   },
 
   async computeDecomposition(recording, recordingSha256, options, signal, onProgress) {
-    const { runDecomposition } = (await loadBridge('decomposition')) as DecompositionBridge;
-    const decomposition = await runDecomposition(recording, recordingSha256, options, signal, onProgress);
+    const started = performance.now();
+    const made = await runDecomposition(
+      decomposeInputOf(recording),
+      { method: options.method, seed: options.seed, highpassHz: options.highpassHz > 0 ? options.highpassHz : null },
+      signal,
+      (p) => {
+        // Fraction from the solver's own time estimate: elapsed / (elapsed + left).
+        const elapsed = (performance.now() - started) / 1000;
+        const f = p.stage === 'done' ? 1 : p.etaSeconds !== null ? elapsed / (elapsed + p.etaSeconds) : p.stage === 'ica' ? 0.1 : 0.03;
+        onProgress(Math.min(0.99, f), p.etaSeconds);
+      },
+    );
+    const decomposition = { ...made, recordingSha256 };
     // The hash is of the JSON an export of this decomposition would hold, so a saved file matches the review.
     return { decomposition, sha256: await sha256Hex(encoder.encode(serializeDecomposition(decomposition))) };
   },

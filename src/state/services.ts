@@ -10,8 +10,8 @@ import type { Aim } from '../core/review/vocabulary.ts';
 import type { DecomposeOptions, ParticipantInput, ResumeOffer } from './types.ts';
 import type { ReviewDecision } from '../core/review/decisions-file.ts';
 
-/** Reports progress of one step as a fraction 0…1. */
-export type OnFraction = (fraction: number) => void;
+/** Reports progress of one step as a fraction 0…1, optionally with the engine's own estimate of seconds left. */
+export type OnFraction = (fraction: number, etaSeconds?: number | null) => void;
 
 export interface SavedReview {
   readonly savedAt: string;

@@ -31,11 +31,11 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     const cancel = () => controller.abort();
     set({ progress: progressAt(task, 0, started, started, cancel) });
     let lastMs = 0;
-    const onProgress: OnFraction = (f) => {
+    const onProgress: OnFraction = (f, eta) => {
       const t = now();
       if (t - lastMs < 50 && f < 1) return; // at most ~20 store updates per second
       lastMs = t;
-      if (!controller.signal.aborted) set({ progress: progressAt(task, f, started, t, cancel) });
+      if (!controller.signal.aborted) set({ progress: progressAt(task, f, started, t, cancel, eta) });
     };
     return run(onProgress);
   }

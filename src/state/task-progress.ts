@@ -10,8 +10,12 @@ export function estimateSecondsLeft(fraction: number, elapsedS: number): number 
   return (elapsedS * (1 - fraction)) / fraction;
 }
 
-/** Builds a progress record for `task` from a start time (ms, performance.now()) and the fraction done. */
-export function progressAt(task: string, fraction: number, startedMs: number, nowMs: number, cancel?: () => void): Progress {
+/**
+ * Builds a progress record for `task` from a start time (ms, performance.now()) and the fraction done; an
+ * engine's own estimate of seconds left, when given, replaces the linear extrapolation.
+ */
+export function progressAt(task: string, fraction: number, startedMs: number, nowMs: number, cancel?: () => void, etaSeconds?: number | null): Progress {
   const f = Math.min(1, Math.max(0, Number.isFinite(fraction) ? fraction : 0));
-  return { task, fraction: f, etaSeconds: estimateSecondsLeft(f, (nowMs - startedMs) / 1000), ...(cancel ? { cancel } : {}) };
+  const eta = etaSeconds !== undefined && etaSeconds !== null && Number.isFinite(etaSeconds) ? Math.max(0, etaSeconds) : estimateSecondsLeft(f, (nowMs - startedMs) / 1000);
+  return { task, fraction: f, etaSeconds: eta, ...(cancel ? { cancel } : {}) };
 }
