@@ -10,6 +10,7 @@ import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { TracePlot } from '../plots/TracePlot.tsx';
 import { clampWindowStart, robustRowSpan } from '../plots/trace-layout.ts';
 import type { TraceSpec } from '../plots/trace-draw.ts';
+import { useElementWidth } from '../plots/useElementWidth.ts';
 import { backProjectedActivation, strongestChannels } from './focus-logic.ts';
 
 export interface ActivationSettings {
@@ -44,6 +45,7 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
   const L = Math.max(0, end - start);
   const strongest = useMemo(() => strongestChannels(decomposition.mixing, n, k, i, 3, rows), [decomposition, n, k, i, rows]);
   const sensors = settings.sensors ?? strongest;
+  const [box, boxWidth] = useElementWidth<HTMLDivElement>(640);
 
   const spec = useMemo((): TraceSpec => {
     const win = extractWindow(signals.data, signals.nSamples, rows, start, end);
@@ -57,7 +59,7 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
     });
     const span = robustRowSpan(data, nRows, L);
     return {
-      width: 640,
+      width: Math.max(420, boxWidth),
       height: 60 + 46 * nRows,
       rowLabels: [`IC ${index} @ ${decomposition.channels[top] ?? '?'}`, ...sensors.map((c) => decomposition.channels[c])],
       length: L,
@@ -67,7 +69,7 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
       rowSpan: span,
       events: recording.events.filter((e) => e.source !== 'boundary'),
     };
-  }, [signals, rows, start, end, L, decomposition, n, k, i, index, strongest, sensors, fs, recording.events]);
+  }, [signals, rows, start, end, L, decomposition, n, k, i, index, strongest, sensors, fs, recording.events, boxWidth]);
 
   const controls = (
     <>
@@ -101,6 +103,7 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
   );
   return (
     <ExportablePanel title="Time course and sensors" context={context} className="panel-activation" controls={controls}>
+      <div ref={box} className="trace-box" />
       <TracePlot spec={spec} ariaLabel={`Component ${index} time course with ${sensors.length} sensor traces`} />
       <p className="note">Top row: the component back-projected to its strongest channel (µV). Dashed lines: events.</p>
     </ExportablePanel>

@@ -40,11 +40,11 @@ function HeadSketch({ view, r }: { view: DipoleViewName; r: number }) {
   );
 }
 
-export function DipoleViews({ dipole, size = 88 }: DipoleViewsProps) {
+export function DipoleViews({ dipole, size = 96 }: DipoleViewsProps) {
   const R = drawingRadiusMm(dipole.position);
   const r = size * 0.4;
   const width = size * 3;
-  const height = size + 28;
+  const height = size + 40;
   return (
     <figure className="dipole-views">
       <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label="equivalent dipole, three views">
@@ -64,9 +64,10 @@ export function DipoleViews({ dipole, size = 88 }: DipoleViewsProps) {
             </g>
           );
         })}
-        <text x={4} y={height - 3} fontSize={9} fill="#6a4b00">
-          RV {(dipole.residualVariance * 100).toFixed(1)} % · {dipole.region} · approximate model estimate
+        <text x={4} y={height - 15} fontSize={9} fill="#333">
+          RV {(dipole.residualVariance * 100).toFixed(1)} % · {dipole.region}
         </text>
+        <text x={4} y={height - 3} fontSize={9} fill="#6a4b00">approximate model estimate, not an anatomical location</text>
       </svg>
       <figcaption>
         <div>

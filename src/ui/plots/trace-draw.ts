@@ -81,18 +81,27 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
       ctx.moveTo(x, TOP);
       ctx.lineTo(x, spec.height - BOTTOM);
       ctx.stroke();
-      ctx.fillText(`${+t.toFixed(2)} s`, x + 2, spec.height - 5);
+      const tick = `${+t.toFixed(2)} s`;
+      // keep the last tick label inside the panel
+      ctx.fillText(tick, Math.min(x + 2, x0 + plotW - ctx.measureText(tick).width), spec.height - 5);
     }
     ctx.strokeStyle = '#7a5cc2';
     ctx.setLineDash([3, 3]);
+    let labelEnd = -Infinity;
     for (const e of eventsInWindow(spec.events, spec.startS, spec.startS + durS)) {
       const x = x0 + ((e.onset - spec.startS) / durS) * plotW;
       ctx.beginPath();
       ctx.moveTo(x, TOP);
       ctx.lineTo(x, spec.height - BOTTOM);
       ctx.stroke();
-      ctx.fillStyle = '#5b3fa0';
-      ctx.fillText(e.label.slice(0, 16), x + 2, 10);
+      // Label only where it does not run into the previous one; every event keeps its line.
+      const text = e.label.slice(0, 16);
+      const w = ctx.measureText(text).width;
+      if (x + 2 > labelEnd + 4 && x + 2 + w <= x0 + plotW) {
+        ctx.fillStyle = '#5b3fa0';
+        ctx.fillText(text, x + 2, 10);
+        labelEnd = x + 2 + w;
+      }
     }
     ctx.setLineDash([]);
     if (spec.sideBySide && spec.panelTitles) {

@@ -35,12 +35,13 @@ import { TopographyMap } from '../plots/TopographyMap.tsx';
 import { TracePlot } from '../plots/TracePlot.tsx';
 import { drawTraces, type TraceSpec } from '../plots/trace-draw.ts';
 import { clampWindowStart, robustRowSpan } from '../plots/trace-layout.ts';
+import { useElementWidth } from '../plots/useElementWidth.ts';
 import { PreviewToolbar, type PreviewSettings } from './PreviewToolbar.tsx';
 import { RegionErpPanel, RegionSpectraPanel } from './RegionPanels.tsx';
 import {
   defaultTraceChannels,
   eventOnsets,
-  mostFrequentEventLabel,
+  defaultEventLabel,
   regionChannels,
   regionSpectra,
   removedSetFromDecisions,
@@ -107,13 +108,14 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
   }, [win, decomposition, k]);
 
   // --- traces ------------------------------------------------------------------------------------------
+  const [tracesBox, tracesWidth] = useElementWidth<HTMLDivElement>(900);
   const rowSpan = useMemo(() => robustRowSpan(original, n, length), [original, n, length]);
   const spec = useMemo((): TraceSpec | null => {
     if (!win) return null;
     const labels = settings.channels.map((c) => decomposition.channels[c]);
     const side = settings.mode === 'side-by-side';
     return {
-      width: 900,
+      width: Math.max(480, tracesWidth),
       height: Math.max(160, 40 + 26 * settings.channels.length),
       rowLabels: labels,
       rowIndex: settings.channels,
@@ -129,7 +131,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
       sideBySide: side,
       panelTitles: ['original', 'cleaned'],
     };
-  }, [win, settings.channels, settings.mode, settings.gain, decomposition.channels, length, fs, start, rowSpan, recording.events]);
+  }, [win, settings.channels, settings.mode, settings.gain, decomposition.channels, length, fs, start, rowSpan, recording.events, tracesWidth]);
   specRef.current = spec;
 
   // --- figures that follow the verdicts (recomputed per version) ---------------------------------------
@@ -139,7 +141,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
 
   const roiRows = useMemo(() => regionChannels(aim, roi.channels, decomposition.channels, rows), [aim, roi.channels, decomposition.channels, rows]);
   const regionLabel = roiRows.map((c) => decomposition.channels[c]).join(', ') || '—';
-  const eventLabel = roi.epochEvent ?? mostFrequentEventLabel(recording.events);
+  const eventLabel = roi.epochEvent ?? defaultEventLabel(recording.events);
   const erpPlan = useMemo(
     () =>
       regionErpPlan(
@@ -169,6 +171,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
       />
       <div className="preview-grid">
         <ExportablePanel title="Traces" context="preview" className="panel-traces">
+          <div ref={tracesBox} className="trace-box" />
           {spec ? (
             <TracePlot
               spec={spec}

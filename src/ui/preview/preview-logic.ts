@@ -5,6 +5,7 @@
 import type { RecordingEvent } from '../../core/recording.ts';
 import type { ReviewDecision } from '../../core/review/decisions-file.ts';
 import type { Aim } from '../../core/review/vocabulary.ts';
+import { defaultEpochEvent } from '../../core/evidence/compute-evidence.ts';
 import { bandPower, createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength } from '../../core/signal/welch.ts';
 
 /** 0-based indices of the components whose verdict is remove (decisions are keyed 1-based). */
@@ -44,19 +45,22 @@ export function regionChannels(aim: Aim, chosen: readonly string[], labels: read
   return [];
 }
 
-/** The label of the most frequent event (ties: the earliest first seen), ignoring EDF+D boundaries; null when none. */
-export function mostFrequentEventLabel(events: readonly RecordingEvent[]): string | null {
-  const counts = new Map<string, number>();
-  for (const e of events) if (e.source !== 'boundary' && e.label) counts.set(e.label, (counts.get(e.label) ?? 0) + 1);
-  let best: string | null = null;
-  let bestCount = 0;
-  for (const [label, count] of counts) if (count > bestCount) [best, bestCount] = [label, count];
-  return best;
+/**
+ * The event epoched by default: the evidence's own choice (the most frequent label prefix before "/",
+ * step events excluded; src/core/evidence/compute-evidence.ts), so the preview's ERP uses the same epochs
+ * as the focus view. EDF+D boundaries are ignored. Null when there is none.
+ */
+export function defaultEventLabel(events: readonly RecordingEvent[]): string | null {
+  return defaultEpochEvent(events.filter((e) => e.source !== 'boundary'));
 }
 
-/** Onsets (s) of the events labelled `label`. */
+/** Onsets (s) of the events labelled `label`, or whose label prefix before "/" is `label`. */
 export function eventOnsets(events: readonly RecordingEvent[], label: string | null): number[] {
-  return label === null ? [] : events.filter((e) => e.label === label && e.source !== 'boundary').map((e) => e.onset);
+  if (label === null) return [];
+  return events
+    .filter((e) => e.source !== 'boundary' && (e.label === label || e.label.split('/')[0] === label))
+    .map((e) => e.onset)
+    .sort((a, b) => a - b);
 }
 
 export interface RegionSpectra {

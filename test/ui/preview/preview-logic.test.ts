@@ -4,7 +4,7 @@ import {
   defaultTraceChannels,
   eventOnsets,
   formatValue,
-  mostFrequentEventLabel,
+  defaultEventLabel,
   regionBandPower,
   regionChannels,
   regionSpectra,
@@ -40,13 +40,17 @@ describe('regionChannels', () => {
 });
 
 describe('events', () => {
-  const events = [ev(1, 'tone'), ev(2, 'target'), ev(3, 'tone'), ev(4, '', 'annotation'), ev(5, 'gap', 'boundary'), ev(6, 'gap', 'boundary'), ev(7, 'gap', 'boundary')];
-  it('picks the most frequent labelled event and ignores boundaries', () => {
-    expect(mostFrequentEventLabel(events)).toBe('tone');
-    expect(mostFrequentEventLabel([])).toBeNull();
+  const events = [
+    ev(1, 'tone/rare'), ev(2, 'target'), ev(3, 'tone/standard'), ev(3.5, 'step/left'), ev(3.9, 'step/right'), ev(4.2, 'step/left'),
+    ev(5, 'gap', 'boundary'), ev(6, 'gap', 'boundary'), ev(7, 'gap', 'boundary'),
+  ];
+  it('epochs the most frequent label prefix, leaving out steps and boundaries, as the evidence does', () => {
+    expect(defaultEventLabel(events)).toBe('tone');
+    expect(defaultEventLabel([])).toBeNull();
   });
-  it('lists the onsets of one label', () => {
+  it('lists the onsets of a label or a label prefix', () => {
     expect(eventOnsets(events, 'tone')).toEqual([1, 3]);
+    expect(eventOnsets(events, 'target')).toEqual([2]);
     expect(eventOnsets(events, null)).toEqual([]);
   });
 });
