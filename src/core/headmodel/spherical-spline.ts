@@ -53,6 +53,70 @@ function splineFromCoefficients(k: Float64Array, x: number): number {
   return sum;
 }
 
+/** Values and derivatives of g_m at the nodes of a uniform grid on [−1, 1], for cubic Hermite evaluation. */
+interface KernelTable {
+  readonly intervals: number;
+  readonly value: Float64Array;
+  readonly slope: Float64Array;
+}
+
+const kernelTables = new Map<string, KernelTable>();
+
+/**
+ * Tabulates g_m and g_m′ (P′_n by the recurrence P′_{n+1} = P′_{n−1} + (2n+1) P_n) at `intervals` + 1 nodes.
+ * Cubic Hermite interpolation between nodes has error ≤ h⁴/384 · max|g⁗| (h = 2/intervals): below 1e-14 for
+ * m = 4 and 2048 intervals (checked against the series in spherical-spline.test.ts). METHODS §9 [b]: a
+ * lookup table of g is fine for rendering.
+ */
+function kernelTable(m: number, nTerms: number, intervals = 2048): KernelTable {
+  const key = `${m}|${nTerms}|${intervals}`;
+  const cached = kernelTables.get(key);
+  if (cached) return cached;
+  const k = splineCoefficients(m, nTerms);
+  const value = new Float64Array(intervals + 1);
+  const slope = new Float64Array(intervals + 1);
+  for (let i = 0; i <= intervals; i++) {
+    const x = -1 + (2 * i) / intervals;
+    let pPrev = 1;
+    let p = x;
+    let dPrev = 0;
+    let dp = 1;
+    let v = 0;
+    let d = 0;
+    for (let n = 1; n <= nTerms; n++) {
+      v += k[n - 1] * p;
+      d += k[n - 1] * dp;
+      const pNext = ((2 * n + 1) * x * p - n * pPrev) / (n + 1);
+      const dNext = dPrev + (2 * n + 1) * p;
+      pPrev = p;
+      p = pNext;
+      dPrev = dp;
+      dp = dNext;
+    }
+    value[i] = v;
+    slope[i] = d;
+  }
+  const table = { intervals, value, slope };
+  kernelTables.set(key, table);
+  return table;
+}
+
+function kernelFromTable(t: KernelTable, x: number): number {
+  const c = x > 1 ? 1 : x < -1 ? -1 : x;
+  const h = 2 / t.intervals;
+  const u = (c + 1) / h;
+  const i = Math.min(t.intervals - 1, Math.floor(u));
+  const s = u - i;
+  const s2 = s * s;
+  const s3 = s2 * s;
+  return (
+    (2 * s3 - 3 * s2 + 1) * t.value[i] +
+    (s3 - 2 * s2 + s) * h * t.slope[i] +
+    (-2 * s3 + 3 * s2) * t.value[i + 1] +
+    (s3 - s2) * h * t.slope[i + 1]
+  );
+}
+
 export interface SplineInterpolator {
   readonly nTargets: number;
   readonly nElectrodes: number;
@@ -65,6 +129,12 @@ export interface SplineOptions {
   m?: number;
   /** Legendre terms. Default 50. */
   nTerms?: number;
+  /**
+   * How g_m is evaluated for the targets: 'series' (default; the Legendre sum for every pair) or 'table'
+   * (cubic Hermite on a 2048-interval table, ~20× faster for image grids; error < 1e-14 in g). The
+   * electrode–electrode matrix always uses the series.
+   */
+  targetKernel?: 'series' | 'table';
 }
 
 function normalise(v: Float64Array): Float64Array {
@@ -165,12 +235,15 @@ export function createSplineInterpolator(
   const ok = nE > 0 && luFactor(a, n, perm);
   // Target kernel K[t] = [g(t·e_1) … g(t·e_M), 1], so V(t) = K[t] · [c; c0].
   const kernel = new Float64Array(nT * n);
+  const table = opts.targetKernel === 'table' ? kernelTable(opts.m ?? 4, opts.nTerms ?? 50) : null;
   for (let ti = 0; ti < nT; ti++) {
     const tx = t[3 * ti];
     const ty = t[3 * ti + 1];
     const tz = t[3 * ti + 2];
     const row = ti * n;
-    for (let i = 0; i < nE; i++) kernel[row + i] = splineFromCoefficients(k, tx * e[3 * i] + ty * e[3 * i + 1] + tz * e[3 * i + 2]);
+    if (table)
+      for (let i = 0; i < nE; i++) kernel[row + i] = kernelFromTable(table, tx * e[3 * i] + ty * e[3 * i + 1] + tz * e[3 * i + 2]);
+    else for (let i = 0; i < nE; i++) kernel[row + i] = splineFromCoefficients(k, tx * e[3 * i] + ty * e[3 * i + 1] + tz * e[3 * i + 2]);
     kernel[row + nE] = 1;
   }
   const rhs = new Float64Array(n);

@@ -79,7 +79,9 @@ export function createTopographyPlan(electrodesUnit: Float64Array, opts: Topogra
       dirs.push(rho > 0 ? (s * px) / rho : 0, rho > 0 ? (s * py) / rho : 0, Math.cos(theta));
     }
   }
-  const interpolator: SplineInterpolator = createSplineInterpolator(electrodesUnit, Float64Array.from(dirs), opts.lambda ?? 0);
+  const interpolator: SplineInterpolator = createSplineInterpolator(electrodesUnit, Float64Array.from(dirs), opts.lambda ?? 0, {
+    targetKernel: 'table',
+  });
   const plane = projectAzimuthalEquidistant(electrodesUnit);
   const electrodeXY = new Float64Array(plane.length);
   for (let i = 0; i < plane.length / 2; i++) {

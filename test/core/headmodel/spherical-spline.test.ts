@@ -46,6 +46,18 @@ describe('createSplineInterpolator', () => {
     for (let i = 0; i < 2; i++) expect(b[i]).toBeCloseTo(2 * a[i] + 1, 10);
   });
 
+  it('gives the same values with the tabulated target kernel (cubic Hermite) to 1e-11', () => {
+    const targets = new Float64Array(3 * 200);
+    for (let i = 0; i < 200; i++) {
+      const th = (i * 0.7) % Math.PI;
+      const ph = i * 2.39996;
+      targets.set([Math.sin(th) * Math.cos(ph), Math.sin(th) * Math.sin(ph), Math.cos(th)], 3 * i);
+    }
+    const a = createSplineInterpolator(electrodes, targets).interpolate(values);
+    const b = createSplineInterpolator(electrodes, targets, 0, { targetKernel: 'table' }).interpolate(values);
+    for (let i = 0; i < 200; i++) expect(Math.abs(a[i] - b[i])).toBeLessThan(1e-11);
+  });
+
   it('gives NaN for a singular montage (a repeated electrode with λ = 0)', () => {
     const twice = Float64Array.from([...electrodes, ...electrodes.subarray(0, 3)]);
     const out = createSplineInterpolator(twice, Float64Array.of(0, 0, 1)).interpolate(new Float64Array(names.length + 1));
