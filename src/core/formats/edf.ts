@@ -395,34 +395,75 @@ export async function readEdfInfo(
   const annIdx = layout.signals.map((s, i) => (s.isAnnotation ? i : -1)).filter((i) => i >= 0);
   const discontinuous = layout.format.endsWith('+D');
 
+  /** Parses the TALs of record r; `buf[0]` sits at byte `base` of that record. */
+  const handleRecord = (r: number, buf: Uint8Array, base: number): ParseError | void => {
+    for (let a = 0; a < annIdx.length; a++) {
+      const s = layout.signals[annIdx[a]];
+      const off = s.byteOffsetInRecord - base;
+      const len = s.samplesPerRecord * layout.bytesPerSample;
+      const fileOffset = layout.headerBytes + r * layout.recordBytes + s.byteOffsetInRecord;
+      const res = parseTals(buf.subarray(off, off + len), r, layout.fileName, fileOffset);
+      if (!res.ok) return res.error;
+      let list = res.value;
+      if (a === 0) {
+        const keeper = list[0];
+        if (!keeper || keeper.annotations.length === 0 || keeper.annotations[0] !== '')
+          return {
+            code: 'bad-tal',
+            message: `${layout.fileName}: data record ${r} does not start with a time-keeping TAL ("+<seconds>" 0x14 0x14 0x00) at byte ${fileOffset}`,
+            file: layout.fileName,
+            byteOffset: fileOffset,
+          };
+        rawOnsets[r] = keeper.onset;
+        list = [{ ...keeper, annotations: keeper.annotations.slice(1) }, ...list.slice(1)];
+      }
+      for (const t of list) for (const text of t.annotations) tals.push({ onset: t.onset, duration: t.duration, text });
+    }
+  };
+
   if (annIdx.length > 0 && records > 0) {
+    // The annotation signals' byte span inside a record. When it is a small part of the record (the usual
+    // case: EEG samples dominate), only that span of each record is read, in parallel groups; otherwise
+    // whole batches of records are read.
+    const annStart = Math.min(...annIdx.map((i) => layout.signals[i].byteOffsetInRecord));
+    const annEnd = Math.max(...annIdx.map((i) => layout.signals[i].byteOffsetInRecord + layout.signals[i].samplesPerRecord * layout.bytesPerSample));
+    const sparse = (annEnd - annStart) * 16 <= layout.recordBytes && layout.recordBytes >= 4096;
     try {
-      const err = await forEachRecordBatch(source, layout, 0, records, (bytes, first, count) => {
-        for (let k = 0; k < count; k++) {
-          const r = first + k;
-          for (let a = 0; a < annIdx.length; a++) {
-            const s = layout.signals[annIdx[a]];
-            const off = k * layout.recordBytes + s.byteOffsetInRecord;
-            const len = s.samplesPerRecord * layout.bytesPerSample;
-            const res = parseTals(bytes.subarray(off, off + len), r, layout.fileName, layout.headerBytes + r * layout.recordBytes + s.byteOffsetInRecord);
-            if (!res.ok) return res.error;
-            let list = res.value;
-            if (a === 0) {
-              const keeper = list[0];
-              if (!keeper || keeper.annotations.length === 0 || keeper.annotations[0] !== '')
-                return {
-                  code: 'bad-tal',
-                  message: `${layout.fileName}: data record ${r} does not start with a time-keeping TAL ("+<seconds>" 0x14 0x14 0x00) at byte ${layout.headerBytes + r * layout.recordBytes + s.byteOffsetInRecord}`,
-                  file: layout.fileName,
-                  byteOffset: layout.headerBytes + r * layout.recordBytes + s.byteOffsetInRecord,
-                };
-              rawOnsets[r] = keeper.onset;
-              list = [{ ...keeper, annotations: keeper.annotations.slice(1) }, ...list.slice(1)];
-            }
-            for (const t of list) for (const text of t.annotations) tals.push({ onset: t.onset, duration: t.duration, text });
+      let err: ParseError | void = undefined;
+      if (sparse) {
+        const GROUP = 64;
+        const span = annEnd - annStart;
+        for (let r0 = 0; r0 < records && !err; r0 += GROUP) {
+          const r1 = Math.min(records, r0 + GROUP);
+          const slices = await Promise.all(
+            Array.from({ length: r1 - r0 }, (_, k) => source.read(layout.headerBytes + (r0 + k) * layout.recordBytes + annStart, span)),
+          );
+          for (let k = 0; k < slices.length && !err; k++) {
+            if (slices[k].length < span)
+              err = {
+                code: 'truncated-record',
+                message: `${layout.fileName}: data record ${r0 + k} ends early (the file changed or is shorter than its header says)`,
+                file: layout.fileName,
+              };
+            else err = handleRecord(r0 + k, slices[k], annStart);
           }
+          opts.onProgress?.(r1 / records);
         }
-      }, opts.onProgress);
+      } else {
+        err = await forEachRecordBatch(
+          source,
+          layout,
+          0,
+          records,
+          (bytes, first, count) => {
+            for (let k = 0; k < count; k++) {
+              const e = handleRecord(first + k, bytes.subarray(k * layout.recordBytes, (k + 1) * layout.recordBytes), 0);
+              if (e) return e;
+            }
+          },
+          opts.onProgress,
+        );
+      }
       if (err) return parseFail(err);
     } catch (e) {
       return ioFail(source.name, e);
