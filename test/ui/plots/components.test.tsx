@@ -1,0 +1,81 @@
+/**
+ * Static rendering of the plot components in node (react-dom/server; no DOM, so raster pictures render as
+ * empty image links). Checks what the reviewer must always see: outline, dots, markers, cautions, units.
+ */
+import { describe, expect, it } from 'vitest';
+import { renderToStaticMarkup } from 'react-dom/server';
+import { SpectrumSparkline } from '../../../src/ui/plots/SpectrumSparkline.tsx';
+import { TopographyMap } from '../../../src/ui/plots/TopographyMap.tsx';
+import { EvidenceTable } from '../../../src/ui/plots/EvidenceTable.tsx';
+import { evidenceRows } from '../../../src/ui/plots/evidence-rows.ts';
+import { DipoleViews } from '../../../src/ui/plots/DipoleViews.tsx';
+import { ErpPlot } from '../../../src/ui/plots/ErpPlot.tsx';
+import { syntheticEvidence } from './synthetic-evidence.ts';
+
+// Idealised 10-20 directions (METHODS §10): Fpz, Oz, T7, T8, Cz, plus one channel without a position.
+const positions = Float64Array.from([0, 0.951057, 0.309017, 0, -0.951057, 0.309017, -0.951057, 0, 0.309017, 0.951057, 0, 0.309017, 0, 0, 1, NaN, NaN, NaN]);
+
+describe('TopographyMap', () => {
+  const html = renderToStaticMarkup(
+    <TopographyMap weights={Float64Array.from([1, -1, 0.5, -0.5, 0, 0])} positionsUnit={positions} size={120} title="map of IC 3" colourBar unit="a.u." />,
+  );
+  it('draws one dot per electrode with a known position', () => {
+    expect(html.match(/<circle/g)?.length).toBe(5);
+  });
+  it('draws the head outline with nose and ears, and the colour bar with its unit', () => {
+    expect(html.match(/<path/g)?.length).toBe(3);
+    expect(html).toContain('class="colour-scale"');
+    expect(html).toContain('a.u.');
+    expect(html).toContain('aria-label="map of IC 3"');
+  });
+});
+
+describe('SpectrumSparkline', () => {
+  it('marks the alpha peak and the aperiodic fit and says so in words', () => {
+    const html = renderToStaticMarkup(<SpectrumSparkline evidence={syntheticEvidence()} />);
+    expect(html).toContain('stroke-dasharray="3 2"');
+    expect(html).toContain('<circle');
+    expect(html).toContain('alpha peak 10.0 Hz');
+    expect(html).toContain('aperiodic exponent 2.00');
+  });
+  it('draws no alpha marker without a peak', () => {
+    const html = renderToStaticMarkup(<SpectrumSparkline evidence={syntheticEvidence(1, { alphaPeakHz: null })} />);
+    expect(html).not.toContain('<circle');
+    expect(html).toContain('no alpha peak');
+  });
+});
+
+describe('EvidenceTable', () => {
+  it('renders every evidence row and marks flagged values with a symbol as well as a class', () => {
+    const rows = evidenceRows(syntheticEvidence());
+    const html = renderToStaticMarkup(<EvidenceTable rows={rows} />);
+    expect(html.match(/<tr/g)?.length).toBe(rows.length + 1);
+    expect(html).toContain('▲ 70.0');
+  });
+  it('escapes text that came from a file', () => {
+    const rows = evidenceRows(syntheticEvidence(1, { strongestChannel: { index: 0, label: '<img src=x>', weight: 1 } }));
+    const html = renderToStaticMarkup(<EvidenceTable rows={rows} />);
+    expect(html).not.toContain('<img');
+    expect(html).toContain('&lt;img src=x&gt;');
+  });
+});
+
+describe('DipoleViews', () => {
+  it('shows residual variance, region and the model-estimate caution', () => {
+    const html = renderToStaticMarkup(<DipoleViews dipole={syntheticEvidence().dipole!} />);
+    expect(html).toContain('4.0 %');
+    expect(html).toContain('frontal, midline, superficial');
+    expect(html).toContain('Approximate model estimate');
+    expect(html).toContain('from above');
+  });
+});
+
+describe('ErpPlot', () => {
+  it('draws both series with different dash patterns and a legend', () => {
+    const t = [0, 0.1, 0.2];
+    const html = renderToStaticMarkup(<ErpPlot times={t} series={[{ values: [0, 1, 2], label: 'before' }, { values: [0, 0.5, 1], label: 'after' }]} />);
+    expect(html).toContain('>before<');
+    expect(html).toContain('>after<');
+    expect(html).toContain('stroke-dasharray="5 3"');
+  });
+});
