@@ -209,7 +209,8 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
   const c = cols.value;
   const warnings: string[] = [];
   const out: RecordingEvent[] = [];
-  const num = (t: string, col: string, line: number): number | null | 'na' => {
+  /** A number, 'na' for n/a, or null when the cell is not a number. */
+  const num = (t: string): number | null | 'na' => {
     const s = t.trim();
     if (s === 'n/a') return 'na';
     const v = Number(s);
@@ -218,14 +219,14 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
   let skipped = 0;
   for (const [r, row] of tsv.value.rows.entries()) {
     const line = r + 2;
-    const onset = num(row[c.onset], 'onset', line);
+    const onset = num(row[c.onset]);
     if (onset === null)
       return parseFail({ code: 'bad-number', message: `${fileName}: line ${line} onset is "${row[c.onset]}", not a number`, file: fileName, line });
     if (onset === 'na') {
       skipped++;
       continue;
     }
-    const duration = num(row[c.duration], 'duration', line);
+    const duration = num(row[c.duration]);
     if (duration === null || (typeof duration === 'number' && duration < 0))
       return parseFail({ code: 'bad-number', message: `${fileName}: line ${line} duration is "${row[c.duration]}", not a number ≥ 0`, file: fileName, line });
     const labelCol = c.trial_type ?? c.value;
@@ -237,7 +238,7 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
       source: 'events-tsv',
     };
     if (c.response_time !== undefined) {
-      const rt = num(row[c.response_time], 'response_time', line);
+      const rt = num(row[c.response_time]);
       if (rt === null)
         return parseFail({ code: 'bad-number', message: `${fileName}: line ${line} response_time is "${row[c.response_time]}", not a number`, file: fileName, line });
       if (rt !== 'na') ev.responseTime = rt;
