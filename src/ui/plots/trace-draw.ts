@@ -39,7 +39,6 @@ export interface TraceSpec {
 }
 
 const LABEL_W = 52;
-const TOP = 14;
 const BOTTOM = 18;
 
 /** Paints `spec` into `canvas` at the device pixel ratio. */
@@ -55,6 +54,9 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
   ctx.fillStyle = '#fffdf8';
   ctx.fillRect(0, 0, spec.width, spec.height);
 
+  // Side by side, the panel titles take the first line and the event labels the second.
+  const TOP = spec.sideBySide ? 28 : 14;
+  const eventLabelY = spec.sideBySide ? 23 : 10;
   const nRows = spec.rowLabels.length;
   const centres = rowCentres(nRows, TOP, spec.height - BOTTOM);
   const rowH = nRows ? (spec.height - TOP - BOTTOM) / nRows : 0;
@@ -99,14 +101,16 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
       const w = ctx.measureText(text).width;
       if (x + 2 > labelEnd + 4 && x + 2 + w <= x0 + plotW) {
         ctx.fillStyle = '#5b3fa0';
-        ctx.fillText(text, x + 2, 10);
+        ctx.fillText(text, x + 2, eventLabelY);
         labelEnd = x + 2 + w;
       }
     }
     ctx.setLineDash([]);
     if (spec.sideBySide && spec.panelTitles) {
       ctx.fillStyle = '#1d232b';
-      ctx.fillText(spec.panelTitles[p], x0 + plotW / 2 - 20, 10);
+      ctx.font = 'bold 11px system-ui, sans-serif';
+      ctx.fillText(spec.panelTitles[p], x0 + 2, 10);
+      ctx.font = '10px system-ui, sans-serif';
     }
 
     ctx.save();

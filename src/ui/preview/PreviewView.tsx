@@ -202,6 +202,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
                 labels={decomposition.channels}
                 colourBar
                 unit="share"
+                maxAbs={1}
               />
             ) : (
               <p>{montage.drawable ? 'Computing…' : 'No electrode positions, so no map.'}</p>
