@@ -192,6 +192,10 @@ export interface EquivalentDipoles {
  */
 export function fitEquivalentDipoles(g: Float64Array, count = 3, weightEccentricity = 0.85, nFit = 300): EquivalentDipoles {
   const nRows = Math.min(nFit, g.length);
+  // Equal conductivities: g_n = g_n^hom, and one dipole with μ = λ = 1 is exact.
+  let homogeneous = true;
+  for (let n = 1; n <= nRows && homogeneous; n++) homogeneous = Math.abs((g[n - 1] * n) / (2 * n + 1) - 1) < 1e-12;
+  if (homogeneous) return { eccentricity: Float64Array.of(1), magnitude: Float64Array.of(1), maxRelativeErrorLowOrders: 0, weightEccentricity };
   const target = new Float64Array(nRows);
   const weights = new Float64Array(nRows);
   for (let n = 1; n <= nRows; n++) {
