@@ -725,7 +725,8 @@ async function readBatch(source: ByteSource, layout: EdfLayout, segs: Segment[])
 
 /**
  * Reads the physical samples (normalised units, µV for voltages) of channels that share one sampling rate.
- * For EDF+D/BDF+D `sampleTimes` holds each sample's time (seconds from the first sample).
+ * `sampleTimes` (seconds from the file's first sample) is set for EDF+D/BDF+D and whenever the block does not
+ * start at the first sample (a `startS` window); otherwise sample j is at j / sampleRate.
  */
 export async function readEdfSignals(
   source: ByteSource,
@@ -740,7 +741,9 @@ export async function readEdfSignals(
   const sel = selRes.value;
   const N = sel.nSamples;
   const data = new Float32Array(sel.indices.length * N);
-  const sampleTimes = sel.discontinuous ? new Float64Array(N) : undefined;
+  // Times are implicit (j / fs) only for a continuous read from the first sample; otherwise they are given.
+  const firstIsZero = sel.segments.length === 0 || (sel.segments[0].record === 0 && sel.segments[0].k0 === 0);
+  const sampleTimes = sel.discontinuous || !firstIsZero ? new Float64Array(N) : undefined;
   let pos = 0;
   try {
     const batches = batchSegments(layout, sel.segments);

@@ -152,6 +152,10 @@ describe('readEdfInfo on files written byte by byte from the specification', () 
     const s = await samples64(bytes, ['fz'], 0.5, 1); // case-insensitive channel name
     expect(s.times).toEqual([0.5, 0.75, 1, 1.25]);
     expect(s.vals[0]).toEqual([2, 3, 4, 5]);
+    const block = await readEdfSignals(bytesByteSource(bytes, 'recording.edf'), await info(bytes), { startS: 0.5, durationS: 1 });
+    expect(block.ok && Array.from(block.value.sampleTimes ?? [])).toEqual([0.5, 0.75, 1, 1.25]); // window: times given
+    const whole = await readEdfSignals(bytesByteSource(bytes, 'recording.edf'), await info(bytes));
+    expect(whole.ok && whole.value.sampleTimes).toBeUndefined(); // from the first sample: t = j / fs
     const past = await samples64(bytes, undefined, 5);
     expect(past.times).toEqual([]);
     const unknown = await readEdfSignals(bytesByteSource(bytes, 'recording.edf'), await info(bytes), { channels: ['Oz'] });
