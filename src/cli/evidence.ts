@@ -1,6 +1,281 @@
-/** `winnow evidence` — not built yet (placeholder until its issue lands). */
-import { CliError, type CliIo } from './cli-support.ts';
+/**
+ * `winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv]
+ * [--aim erp|oscillations|conservative] [--out FILE] [--line 50|60] [--epoch-event LABEL]
+ * [--window TMIN,TMAX]` (issue 6 contract): computes every component's evidence and suggested verdict and
+ * writes JSON (to --out atomically, else to stdout).
+ *
+ * Inputs: the recording's channels at the decomposition channels' sampling rate are read (EOG channels at
+ * that rate serve as eye references). Electrode positions come from --positions (BIDS electrodes.tsv,
+ * projected onto a fitted sphere) or else from the idealised 10-20/10-10 layout by label. Events come from
+ * --events (BIDS events.tsv) or else from the recording's EDF+ annotations.
+ *
+ * Output (format "winnow-evidence/1"):
+ *   format, recording, decomposition   file names as given
+ *   aim                                the aim whose suggestion is in `suggestion`
+ *   lineHz, epochEvent, epochWindowS   settings used (epochEvent null when no events were epoched)
+ *   thresholds                         the threshold table used (src/core/review/thresholds.ts)
+ *   warnings                           strings
+ *   components: one object per component, in decomposition order —
+ *     index                 1-based component number
+ *     varianceShare         share (0–1) of the data's variance carried by the back-projected component
+ *     spectrum              { frequencies (Hz), power (µV²/Hz at the strongest channel), powerDb, channel }
+ *     aperiodicExponent     χ of P ∝ f^−χ, 2–40 Hz robust log–log fit; aperiodicOffset: log10 P at 1 Hz
+ *     alphaPeakHz           7–14 Hz peak above the aperiodic fit, or null; alphaProminence (log10 units)
+ *     highFrequencyShare    BP(20, line−2) / BP(2, line−2); highFrequencySlope: log–log slope above 20 Hz
+ *     lineNoiseShare        Σ BP(h·line ± 1 Hz) / BP(1, fmax); linePeakRatio: P(line) / median neighbours
+ *     lowFrequencyShare     BP(1, 4) / BP(1, 45)
+ *     kurtosis              excess kurtosis of the activation
+ *     focality              { share of map energy on one electrode, channel }
+ *     frontalGradient, frontalShare, lateralAntisymmetry, stepLikeness   map and time-course ocular evidence
+ *     eogCorrelation        { vertical, horizontal (|r|, or null), source, channels }
+ *     cardiac               { bpm or null, peak (autocorrelation) }
+ *     stepLocking           { share, event, nEpochs } or null
+ *     erp                   { event, nEpochs, times (s), mean, lower, upper (µV, 95 % band), itc,
+ *                             itcFrequencyHz, lockedShare, timeLockingStrength, permutationP } or null
+ *     dipole                { position (mm, RAS), moment, residualVariance (0–1), atBoundary, region } or null
+ *     strongestChannel      { index (0-based, decomposition order), label, weight }
+ *     map                   scalp map (unit L2 norm), decomposition channel order
+ *     suggestion            { verdict, reason, because } for --aim (default erp)
+ *     suggestions           { erp, oscillations, conservative }, each { verdict, reason, because }
+ *   Epoch images (trials × time) are not written; the workbench computes them.
+ *   NaN and infinite numbers are written as null.
+ */
+import { readFile } from 'node:fs/promises';
+import { writeFileAtomic } from './atomic-write.ts';
+import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
+import { openFileByteSource } from './node-byte-source.ts';
+import type { Decomposition } from '../core/decomposition.ts';
+import { computeEvidence, DEFAULT_EPOCH_WINDOW_S, type EvidenceEvent } from '../core/evidence/compute-evidence.ts';
+import type { ComponentEvidence } from '../core/evidence/types.ts';
+import { parseElectrodesTsv, parseEventsTsv } from '../core/formats/bids.ts';
+import { matchDecompositionToRecording, parseDecompositionJson } from '../core/formats/decomposition-file.ts';
+import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
+import { electrodeNameFromLabel, matchMontage } from '../core/headmodel/montage-1020.ts';
+import { fitSphere } from '../core/headmodel/sphere-fit.ts';
+import { resolveThresholds } from '../core/review/thresholds.ts';
+import { AIMS, type Aim } from '../core/review/vocabulary.ts';
 
-export async function run(_args: string[], _io: CliIo): Promise<number> {
-  throw new CliError('winnow evidence is not available yet', 1);
+const USAGE =
+  'usage: winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv] [--aim erp|oscillations|conservative] [--out FILE] [--line 50|60] [--epoch-event LABEL] [--window TMIN,TMAX]';
+
+async function readTextFile(path: string): Promise<string> {
+  try {
+    return await readFile(path, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new CliError(`${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : (e as Error).message}`);
+  }
+}
+
+/** Unit directions for `labels` from electrodes.tsv positions (mm) projected onto their fitted sphere. */
+function positionsFromElectrodes(labels: readonly string[], names: string[], positionsMm: Float64Array): { positions: Float64Array; missing: string[] } {
+  const finite: number[] = [];
+  for (let i = 0; i < names.length; i++) if ([0, 1, 2].every((k) => Number.isFinite(positionsMm[3 * i + k]))) finite.push(i);
+  const pts = new Float64Array(finite.length * 3);
+  finite.forEach((i, j) => pts.set(positionsMm.subarray(3 * i, 3 * i + 3), 3 * j));
+  const { centre } = finite.length >= 4 ? fitSphere(pts) : { centre: [0, 0, 0] as [number, number, number] };
+  const lower = new Map(names.map((n, i) => [n.toLowerCase(), i]));
+  const positions = new Float64Array(labels.length * 3).fill(NaN);
+  const missing: string[] = [];
+  labels.forEach((label, j) => {
+    const e = lower.get(label.toLowerCase()) ?? lower.get(electrodeNameFromLabel(label).toLowerCase());
+    if (e === undefined || !finite.includes(e)) {
+      missing.push(label);
+      return;
+    }
+    const v = [0, 1, 2].map((k) => positionsMm[3 * e + k] - centre[k]);
+    const r = Math.hypot(v[0], v[1], v[2]);
+    if (r > 0) for (let k = 0; k < 3; k++) positions[3 * j + k] = v[k] / r;
+  });
+  return { positions, missing };
+}
+
+const finite = (v: number) => (Number.isFinite(v) ? v : null);
+const list = (a: ArrayLike<number>) => Array.from(a, finite);
+
+/** The JSON object of one component (names documented at the top of this file). */
+export function componentJson(e: ComponentEvidence, aim: Aim): Record<string, unknown> {
+  return {
+    index: e.index,
+    varianceShare: finite(e.varianceShare),
+    spectrum: { frequencies: list(e.spectrum.frequencies), power: list(e.spectrum.power), powerDb: list(e.spectrum.powerDb), channel: e.strongestChannel.label },
+    aperiodicExponent: finite(e.aperiodic.exponent),
+    aperiodicOffset: finite(e.aperiodic.offset),
+    alphaPeakHz: e.alphaPeakHz,
+    alphaProminence: finite(e.alphaProminence),
+    highFrequencyShare: finite(e.highFrequencyShare),
+    highFrequencySlope: finite(e.highFrequencySlope),
+    lineNoiseShare: finite(e.lineNoiseShare),
+    linePeakRatio: finite(e.linePeakRatio),
+    lowFrequencyShare: finite(e.lowFrequencyShare),
+    kurtosis: finite(e.kurtosis),
+    focality: { share: finite(e.focality.share), channel: e.focality.channel },
+    frontalGradient: finite(e.frontalGradient),
+    frontalShare: finite(e.frontalShare),
+    lateralAntisymmetry: finite(e.lateralAntisymmetry),
+    stepLikeness: finite(e.stepLikeness),
+    eogCorrelation: {
+      vertical: e.eogCorrelation.vertical === null ? null : finite(e.eogCorrelation.vertical),
+      horizontal: e.eogCorrelation.horizontal === null ? null : finite(e.eogCorrelation.horizontal),
+      source: e.eogCorrelation.source,
+      channels: e.eogCorrelation.channels,
+    },
+    cardiac: { bpm: e.cardiac.bpm, peak: finite(e.cardiac.peak) },
+    stepLocking: e.stepLocking ? { share: finite(e.stepLocking.share), event: e.stepLocking.event, nEpochs: e.stepLocking.nEpochs } : null,
+    erp: e.erp
+      ? {
+          event: e.erp.event,
+          nEpochs: e.erp.nEpochs,
+          times: list(e.erp.times),
+          mean: list(e.erp.mean),
+          lower: list(e.erp.band.lower),
+          upper: list(e.erp.band.upper),
+          itc: finite(e.erp.itc),
+          itcFrequencyHz: finite(e.erp.itcFrequencyHz),
+          lockedShare: finite(e.erp.lockedShare),
+          timeLockingStrength: finite(e.erp.timeLockingStrength),
+          permutationP: e.erp.permutationP === undefined ? null : finite(e.erp.permutationP),
+        }
+      : null,
+    dipole: e.dipole
+      ? {
+          position: e.dipole.position.map(finite),
+          moment: e.dipole.moment.map(finite),
+          residualVariance: finite(e.dipole.residualVariance),
+          atBoundary: e.dipole.atBoundary,
+          region: e.dipole.region,
+        }
+      : null,
+    strongestChannel: { index: e.strongestChannel.index, label: e.strongestChannel.label, weight: finite(e.strongestChannel.weight) },
+    map: list(e.map),
+    suggestion: e.suggestions[aim],
+    suggestions: e.suggestions,
+  };
+}
+
+export async function run(args: string[], io: CliIo): Promise<number> {
+  const { values, positionals } = parseCommandArgs('evidence', args, {
+    positions: { type: 'string' },
+    events: { type: 'string' },
+    aim: { type: 'string' },
+    out: { type: 'string' },
+    line: { type: 'string' },
+    'epoch-event': { type: 'string' },
+    window: { type: 'string' },
+  });
+  if (positionals.length !== 2) throw new CliError(`winnow evidence: give a recording and a decomposition file (${USAGE})`);
+  const [recordingPath, decompositionPath] = positionals;
+  const aim = (values.aim ?? 'erp') as Aim;
+  if (!AIMS.includes(aim)) throw new CliError(`winnow evidence: --aim must be erp, oscillations or conservative, got "${values.aim}"`);
+  const lineHz = values.line === undefined ? 50 : Number(values.line);
+  if (lineHz !== 50 && lineHz !== 60) throw new CliError(`winnow evidence: --line must be 50 or 60, got "${values.line}"`);
+  let epochWindow: [number, number] = [DEFAULT_EPOCH_WINDOW_S[0], DEFAULT_EPOCH_WINDOW_S[1]];
+  if (values.window !== undefined) {
+    const parts = values.window.split(',').map((s) => Number(s.trim()));
+    if (parts.length !== 2 || !parts.every(Number.isFinite) || !(parts[0] < 0 && parts[1] > 0))
+      throw new CliError(`winnow evidence: --window must be TMIN,TMAX in seconds with TMIN < 0 < TMAX, got "${values.window}"`);
+    epochWindow = [parts[0], parts[1]];
+  }
+
+  // decomposition
+  const parsedDec = parseDecompositionJson(await readTextFile(decompositionPath), decompositionPath);
+  if (!parsedDec.ok) throw new CliError(parsedDec.error.message);
+  for (const w of parsedDec.warnings) io.stderr(`warning: ${w}\n`);
+
+  let source;
+  try {
+    source = await openFileByteSource(recordingPath);
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new CliError(`${recordingPath}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory, not a recording file' : (e as Error).message}`);
+  }
+  try {
+    const infoRes = await readEdfInfo(source);
+    if (!infoRes.ok) throw new CliError(infoRes.error.message);
+    const info = infoRes.value;
+    for (const w of infoRes.warnings) io.stderr(`warning: ${w}\n`);
+    const matched = matchDecompositionToRecording(parsedDec.value, info.channels.map((c) => c.label), decompositionPath);
+    if (!matched.ok) throw new CliError(matched.error.message);
+    for (const w of matched.warnings) io.stderr(`warning: ${w}\n`);
+    const decomposition: Decomposition = matched.value;
+    const decRates = new Set(info.channels.filter((c) => decomposition.channels.includes(c.label)).map((c) => c.sampleRate));
+    if (decRates.size !== 1) throw new CliError(`${decompositionPath}: its channels do not share one sampling rate in ${recordingPath}`);
+    const rate = [...decRates][0];
+    const channelInfos = info.channels.filter((c) => c.sampleRate === rate);
+    const sig = await readEdfSignals(source, info, { channels: channelInfos.map((c) => c.label) });
+    if (!sig.ok) throw new CliError(sig.error.message);
+    const block = sig.value;
+    const types = block.labels.map((l) => channelInfos.find((c) => c.label === l)?.type ?? 'EEG');
+
+    // positions
+    let positionsUnit: Float64Array | null = null;
+    if (values.positions !== undefined) {
+      const el = parseElectrodesTsv(await readTextFile(values.positions), values.positions);
+      if (!el.ok) throw new CliError(el.error.message);
+      // Units do not matter here: positions are projected to directions on a fitted sphere.
+      const { positions, missing } = positionsFromElectrodes(block.labels, el.value.names, el.value.positionsMm);
+      const missingEeg = missing.filter((l) => decomposition.channels.includes(l));
+      if (missingEeg.length) io.stderr(`warning: ${values.positions}: no position for ${missingEeg.join(', ')}\n`);
+      positionsUnit = positions;
+    } else {
+      const m = matchMontage(block.labels);
+      positionsUnit = m.positions;
+      const missingEeg = m.unmatched.filter((l) => decomposition.channels.includes(l));
+      if (missingEeg.length) io.stderr(`warning: no 10-20/10-10 position for ${missingEeg.join(', ')}; give --positions\n`);
+    }
+
+    // events
+    let events: EvidenceEvent[] = info.events.filter((e) => e.source !== 'boundary');
+    if (values.events !== undefined) {
+      const ev = parseEventsTsv(await readTextFile(values.events), values.events);
+      if (!ev.ok) throw new CliError(ev.error.message);
+      for (const w of ev.warnings) io.stderr(`warning: ${w}\n`);
+      events = ev.value;
+    }
+    if (values['epoch-event'] !== undefined && !events.some((e) => e.label === values['epoch-event'] || e.label.split('/')[0] === values['epoch-event']))
+      throw new CliError(`winnow evidence: --epoch-event "${values['epoch-event']}" matches no event`);
+
+    const thresholds = resolveThresholds();
+    const result = computeEvidence({
+      data: block.data,
+      nChannels: block.labels.length,
+      nSamples: block.nSamples,
+      sampleRate: block.sampleRate,
+      labels: block.labels,
+      positionsUnit,
+      types,
+      decomposition,
+      events,
+      epochEvent: values['epoch-event'],
+      window: epochWindow,
+      lineHz: lineHz as 50 | 60,
+      aim,
+      thresholds,
+    });
+    for (const w of result.warnings) io.stderr(`warning: ${w}\n`);
+    const json = {
+      format: 'winnow-evidence/1',
+      recording: recordingPath,
+      decomposition: decompositionPath,
+      aim,
+      lineHz,
+      epochEvent: result.epochEvent,
+      epochWindowS: epochWindow,
+      thresholds,
+      warnings: result.warnings,
+      components: result.components.map((c) => componentJson(c, aim)),
+    };
+    const text = `${JSON.stringify(json)}\n`;
+    if (values.out !== undefined) {
+      await writeFileAtomic(values.out, text);
+      const counts = new Map<string, number>();
+      for (const c of result.components) counts.set(c.suggestions[aim].verdict, (counts.get(c.suggestions[aim].verdict) ?? 0) + 1);
+      io.stdout(
+        `${values.out}: evidence for ${result.components.length} components (aim ${aim}: ${[...counts].map(([v, n]) => `${n} ${v}`).join(', ')})\n`,
+      );
+    } else io.stdout(text);
+    return 0;
+  } finally {
+    await source.close();
+  }
 }
