@@ -4,7 +4,7 @@
 import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 
-const forbidden = [/from ['"]react/, /from ['"]zustand/, /from ['"]comlink/, /from ['"][./]*\.\.\/(ui|state|bridge)\//, /\bdocument\./, /\bwindow\./];
+const forbidden = [/from ['"]react/, /from ['"]zustand/, /from ['"]comlink/, /from ['"][./]*\.\.\/(ui|state|bridge)\//, /\bdocument\.(createElement|querySelector|getElementById|body|addEventListener)/, /\bwindow\.(addEventListener|location|localStorage|sessionStorage|navigator|document)/, /\blocalStorage\b/];
 const bad = [];
 function walk(dir) {
   for (const name of readdirSync(dir)) {
