@@ -71,6 +71,16 @@ export const browserServices: WorkbenchServices = {
   },
 
   async computeDecomposition(recording, recordingSha256, options, signal, onProgress) {
+    // Same recording + same options + same seed give the same decomposition: reuse one computed earlier.
+    const cacheKey = `${recordingSha256}:${options.method}:seed ${options.seed}:hp ${options.highpassHz}`;
+    const cached = await reviewDb().then((d) => d.loadDecomposition(cacheKey)).catch(() => null);
+    if (cached) {
+      const parsed = parseDecompositionJson(cached, 'cached decomposition');
+      if (parsed.ok) {
+        onProgress(1);
+        return { decomposition: { ...parsed.value, recordingSha256 }, sha256: await sha256Hex(encoder.encode(cached)), json: cached };
+      }
+    }
     const started = performance.now();
     const made = await runDecomposition(
       decomposeInputOf(recording),
@@ -85,7 +95,9 @@ export const browserServices: WorkbenchServices = {
     );
     const decomposition = { ...made, recordingSha256 };
     // The hash is of the JSON an export of this decomposition would hold, so a saved file matches the review.
-    return { decomposition, sha256: await sha256Hex(encoder.encode(serializeDecomposition(decomposition))) };
+    const json = serializeDecomposition(decomposition);
+    await reviewDb().then((d) => d.saveDecomposition(cacheKey, json)).catch(() => undefined);
+    return { decomposition, sha256: await sha256Hex(encoder.encode(json)), json };
   },
 
   async computeEvidence(recording, decomposition, aim, signal, onProgress) {

@@ -7,6 +7,7 @@ export const createRecordingSlice: StateCreator<WorkbenchState, [], [], Recordin
   recordingSha256: null,
   decompositionSha256: null,
   decomposition: null,
+  decompositionJson: null,
   evidence: null,
   setLoaded: (patch) => set(patch),
 });

@@ -73,7 +73,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
   /** Decomposition → evidence → resume offer (or the given decisions file) → board. */
   async function finish(
     controller: AbortController,
-    getDecomposition: () => Promise<{ decomposition: Decomposition; sha256: string }>,
+    getDecomposition: () => Promise<{ decomposition: Decomposition; sha256: string; json?: string }>,
     decisionsFile: File | null,
   ) {
     const { signal } = controller;
@@ -83,7 +83,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     if (!recording || recordingSha256 === null) throw new Error('No recording is loaded.');
     const made = await getDecomposition();
     signal.throwIfAborted();
-    set({ decomposition: made.decomposition, decompositionSha256: made.sha256, evidence: null, decisions: {}, past: [], future: [] });
+    set({ decomposition: made.decomposition, decompositionSha256: made.sha256, decompositionJson: made.json ?? null, evidence: null, decisions: {}, past: [], future: [] });
     const evidence = await step('Computing evidence', controller, (p) =>
       services.computeEvidence(recording, made.decomposition, get().aim, signal, p),
     );
@@ -106,7 +106,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
         );
         signal.throwIfAborted();
         set({
-          recording, recordingSha256, decomposition: null, decompositionSha256: null, evidence: null,
+          recording, recordingSha256, decomposition: null, decompositionSha256: null, decompositionJson: null, evidence: null,
           decisions: {}, past: [], future: [], selected: null, roi: DEFAULT_ROI, screen: 'start',
         });
         if (input.decompositionFiles && input.decompositionFiles.length > 0) {
@@ -222,7 +222,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
       current?.abort();
       current = null;
       set({
-        recording: null, recordingSha256: null, decomposition: null, decompositionSha256: null, evidence: null,
+        recording: null, recordingSha256: null, decomposition: null, decompositionSha256: null, decompositionJson: null, evidence: null,
         decisions: {}, past: [], future: [], selected: null, screen: 'start', progress: null, resumeOffer: null, roi: DEFAULT_ROI,
       });
     },

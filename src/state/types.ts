@@ -72,10 +72,12 @@ export interface RecordingSlice {
   recordingSha256: string | null;
   decompositionSha256: string | null;
   decomposition: Decomposition | null;
+  /** The exact JSON text whose SHA-256 is decompositionSha256, when the decomposition was computed here (for saving it). */
+  decompositionJson: string | null;
   /** One entry per component, 1-based `index` (evidence engineer's type). */
   evidence: ComponentEvidence[] | null;
   /** Sets (or clears) the loaded participant; used by the loading flow and tests. */
-  setLoaded: (patch: Partial<Pick<RecordingSlice, 'recording' | 'recordingSha256' | 'decompositionSha256' | 'decomposition' | 'evidence'>>) => void;
+  setLoaded: (patch: Partial<Pick<RecordingSlice, 'recording' | 'recordingSha256' | 'decompositionSha256' | 'decomposition' | 'decompositionJson' | 'evidence'>>) => void;
 }
 
 export interface ReviewSlice {

@@ -37,7 +37,7 @@ export function fakeServices(saved = new Map<string, SavedReview>()): WorkbenchS
     readDecomposition: async () => ({ decomposition, sha256: 'd'.repeat(64) }),
     computeDecomposition: async () => {
       s.decomposeCalls++;
-      return { decomposition, sha256: 'c'.repeat(64) };
+      return { decomposition, sha256: 'c'.repeat(64), json: '{}' };
     },
     computeEvidence: async () => evidence,
     writeCleaned: async () => new Uint8Array(0),

@@ -14,6 +14,7 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
   const setReviewer = useWorkbench((s) => s.setReviewer);
   const importDecisions = useWorkbench((s) => s.importDecisions);
   const busy = useWorkbench((s) => s.progress !== null);
+  const decompositionJson = useWorkbench((s) => s.decompositionJson);
   const [format, setFormat] = useState<'EDF+C' | 'BDF+C'>('EDF+C');
   const [keepIdentity, setKeepIdentity] = useState(false);
   const [methods, setMethods] = useState<string | null>(null);
@@ -54,6 +55,15 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
           />
         </label>
       </div>
+      {decompositionJson !== null && (
+        <div className="export-group" role="group" aria-label="Decomposition">
+          <h3>Decomposition computed here</h3>
+          <button type="button" data-testid="export-decomposition" onClick={() => saveText(decompositionJson, '_decomposition.json', 'application/json')}>
+            Save decomposition (JSON)
+          </button>
+          <span className="hint">needed with the decisions file by <code>winnow apply</code></span>
+        </div>
+      )}
       <div className="export-group" role="group" aria-label="Methods paragraph">
         <h3>Methods paragraph</h3>
         <button type="button" data-testid="show-methods" onClick={() => setMethods(methodsTextFromState(workbenchStore.getState()))}>Show</button>

@@ -1,0 +1,164 @@
+/**
+ * Issue 7: the whole review on the simulated demo participant — board, decide with reason and note,
+ * live preview, focus, export, autosave across a reload, keyboard-only review, import into a fresh session,
+ * and no request leaving the page's origin. Screenshots go to test-results/.
+ */
+import { expect, test, type Page } from '@playwright/test';
+import { readFile } from 'node:fs/promises';
+
+const ORIGIN = 'http://127.0.0.1:4173';
+/** Demo load = read + decomposition + evidence in the browser. */
+const LOAD_TIMEOUT = 75_000;
+
+function watchOrigin(page: Page, offOrigin: string[]) {
+  page.on('request', (r) => {
+    const url = new URL(r.url());
+    if ((url.protocol === 'http:' || url.protocol === 'https:' || url.protocol === 'ws:' || url.protocol === 'wss:') && url.origin !== ORIGIN) offOrigin.push(r.url());
+  });
+}
+
+async function openDemo(page: Page): Promise<number> {
+  await page.goto('/?demo=1');
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: LOAD_TIMEOUT });
+  const counter = await page.getByTestId('board-counter').innerText();
+  const m = /(\d+) \/ (\d+)/.exec(counter);
+  expect(m).not.toBeNull();
+  return Number(m![2]);
+}
+
+const verdictOf = (page: Page, i: number) => page.getByTestId(`tile-${i}`).getAttribute('data-verdict');
+
+test.describe.configure({ mode: 'serial' });
+
+test('reviewing the demo participant: decide, preview, focus, export, reload, keyboard, import', async ({ page, browser }) => {
+  test.setTimeout(170_000);
+  const offOrigin: string[] = [];
+  watchOrigin(page, offOrigin);
+
+  // The board shows every component.
+  const n = await openDemo(page);
+  expect(n).toBeGreaterThan(3);
+  await expect(page.locator('[data-testid^="tile-"]')).toHaveCount(n);
+  await page.screenshot({ path: 'test-results/board.png', fullPage: true });
+
+  // Preview before any removal.
+  await page.getByTestId('screen-preview').click();
+  const checksum = page.getByTestId('preview-cleaned-checksum');
+  await expect(checksum).toHaveText(/^[0-9a-f]{8}$/, { timeout: 30_000 });
+  const checksumBefore = await checksum.innerText();
+  const erpBefore = await page.getByTestId('preview-erp-before').innerText();
+  await expect(page.getByTestId('preview-erp-after')).toHaveText(erpBefore);
+
+  // Mark component 1 remove with a reason and a note, on the board.
+  await page.getByTestId('screen-board').click();
+  await page.getByTestId('tile-1').click();
+  await page.getByTestId('verdict-remove').click();
+  await page.getByTestId('reason-select').selectOption('blink');
+  await page.getByTestId('note-field').fill('frontal, blink-shaped <b>not html</b>');
+  await page.getByTestId('note-field').blur();
+  await expect(page.getByTestId('tile-1')).toHaveAttribute('data-verdict', 'remove');
+  await expect(page.getByTestId('tile-1')).toContainText('<b>not html</b>');
+
+  // The preview follows: cleaned traces change and the ERP before/after differs.
+  await page.getByTestId('screen-preview').click();
+  await expect(page.getByTestId('preview-removed-count')).toHaveText('1');
+  await expect(checksum).not.toHaveText(checksumBefore);
+  await expect(page.getByTestId('preview-erp-after')).not.toHaveText(erpBefore);
+  await page.screenshot({ path: 'test-results/preview.png', fullPage: true });
+
+  // Focus view of the selected component.
+  await page.getByTestId('screen-board').click();
+  await page.getByTestId('tile-1').focus();
+  await page.keyboard.press('Enter');
+  await expect(page.getByTestId('focus-view')).toBeVisible();
+  await page.screenshot({ path: 'test-results/focus.png', fullPage: true });
+  await page.keyboard.press('Escape');
+  await expect(page.getByTestId('board')).toBeVisible();
+
+  // Export the decisions and check the file.
+  await page.getByTestId('export-open').click();
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-decisions-json').click()]);
+  const exportedPath = await download.path();
+  const exported = JSON.parse(await readFile(exportedPath, 'utf8'));
+  expect(exported.format).toBe('winnow-decisions/1');
+  expect(exported.aim).toBe('erp');
+  expect(exported.recordingSha256).toMatch(/^[0-9a-f]{64}$/);
+  expect(exported.decompositionSha256).toMatch(/^[0-9a-f]{64}$/);
+  expect(exported.components).toHaveLength(n);
+  expect(exported.components[0]).toMatchObject({ index: 1, verdict: 'remove', reason: 'blink', note: 'frontal, blink-shaped <b>not html</b>' });
+  expect(exported.components[0].suggested).toHaveProperty('because');
+  expect(exported.components[1]).toMatchObject({ index: 2, verdict: 'undecided', reason: null, note: '' });
+  const [tsvDownload] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-decisions-tsv').click()]);
+  const tsv = await readFile(await tsvDownload.path(), 'utf8');
+  expect(tsv.split('\n')[0]).toBe('index\tverdict\treason\tnote');
+  expect(tsv.split('\n')[1]).toBe('1\tremove\tblink\tfrontal, blink-shaped <b>not html</b>');
+  await page.keyboard.press('Escape');
+
+  // Reload: the saved review is offered and restored.
+  const m = await openDemo(page);
+  expect(m).toBe(n);
+  await page.getByTestId('resume-accept').click();
+  expect(await verdictOf(page, 1)).toBe('remove');
+  await page.getByTestId('tile-1').click();
+  await expect(page.getByTestId('note-field')).toHaveValue('frontal, blink-shaped <b>not html</b>');
+
+  // Keyboard only: move, decide, cycle reason, note, undo/redo.
+  await page.locator('body').focus();
+  await page.keyboard.press('Home');
+  await page.keyboard.press('ArrowRight');
+  await page.keyboard.press('x');
+  await expect(page.getByTestId('tile-2')).toHaveAttribute('data-verdict', 'remove');
+  await page.keyboard.press('r');
+  await expect(page.getByTestId('reason-select')).toHaveValue('neural');
+  await page.keyboard.press('r');
+  await expect(page.getByTestId('reason-select')).toHaveValue('blink');
+  await page.keyboard.press('ArrowRight');
+  await page.keyboard.press('k');
+  await expect(page.getByTestId('tile-3')).toHaveAttribute('data-verdict', 'keep');
+  await page.keyboard.press('Control+z');
+  await expect(page.getByTestId('tile-3')).toHaveAttribute('data-verdict', 'undecided');
+  await page.keyboard.press('Control+Shift+Z');
+  await expect(page.getByTestId('tile-3')).toHaveAttribute('data-verdict', 'keep');
+  await page.keyboard.press('n');
+  await expect(page.getByTestId('note-field')).toBeFocused();
+  await page.keyboard.type('typed with keys');
+  await page.keyboard.press('Escape');
+  await expect(page.getByTestId('tile-3')).toContainText('typed with keys');
+  await page.keyboard.press('?');
+  await expect(page.getByTestId('help-panel')).toBeVisible();
+  await page.keyboard.press('Escape');
+  await expect(page.getByTestId('help-panel')).toBeHidden();
+  await page.keyboard.press('f');
+  await expect(page.getByTestId('focus-view')).toBeVisible();
+  await page.keyboard.press('b');
+  await expect(page.getByTestId('board')).toBeVisible();
+  // Tab reaches the controls: from the selected tile, Tab walks on to other tiles and the decision panel.
+  await page.getByTestId('tile-3').focus();
+  await page.keyboard.press('Shift+Tab');
+  await expect(page.getByTestId('tile-2')).toBeFocused();
+
+  const state = {
+    1: await verdictOf(page, 1), 2: await verdictOf(page, 2), 3: await verdictOf(page, 3),
+    counter: await page.getByTestId('board-counter').innerText(),
+  };
+  await page.keyboard.press('e');
+  const [download2] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-decisions-json').click()]);
+  const decisionsPath = await download2.path();
+
+  // A fresh session (new browser context: empty IndexedDB) imports the file and shows the same state.
+  const fresh = await browser.newContext();
+  const page2 = await fresh.newPage();
+  watchOrigin(page2, offOrigin);
+  await openDemo(page2);
+  await expect(page2.getByTestId('resume-banner')).toHaveCount(0);
+  await page2.getByTestId('export-open').click();
+  await page2.getByTestId('import-decisions').setInputFiles({ name: 'sub-01_decisions.json', mimeType: 'application/json', buffer: await readFile(decisionsPath) });
+  await expect(page2.getByTestId('board-counter')).toHaveText(state.counter);
+  expect({ 1: await verdictOf(page2, 1), 2: await verdictOf(page2, 2), 3: await verdictOf(page2, 3) }).toEqual({ 1: state[1], 2: state[2], 3: state[3] });
+  await page2.keyboard.press('Escape');
+  await page2.getByTestId('tile-3').click();
+  await expect(page2.getByTestId('note-field')).toHaveValue('typed with keys');
+  await fresh.close();
+
+  expect(offOrigin).toEqual([]);
+});
