@@ -34,6 +34,8 @@ export type EdfErrorCode = Extract<
 
 /** Bytes of the fixed main header. */
 export const EDF_MAIN_HEADER_BYTES = 256;
+/** EDF/BDF samples are little-endian; typed-array views read them directly only on a little-endian host. */
+const LITTLE_ENDIAN_HOST = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
 /** Records decoded per read are limited to about this many bytes. */
 const BATCH_BYTES = 8 * 1024 * 1024;
 
@@ -667,7 +669,11 @@ function decodeBatch(
       const { gain, physicalMin: pmin, digitalMin: dmin, unitFactor: uf } = s;
       let p = base + s.byteOffsetInRecord + seg.k0 * bps;
       const out = c * stride + pos;
-      if (bps === 2) {
+      if (bps === 2 && LITTLE_ENDIAN_HOST && ((bytes.byteOffset + p) & 1) === 0) {
+        // aligned: read the samples through an Int16 view (same values, no byte assembly)
+        const v16 = new Int16Array(bytes.buffer, bytes.byteOffset + p, n);
+        for (let k = 0; k < n; k++) data[out + k] = (pmin + (v16[k] - dmin) * gain) * uf;
+      } else if (bps === 2) {
         for (let k = 0; k < n; k++, p += 2) {
           const v = ((bytes[p] | (bytes[p + 1] << 8)) << 16) >> 16;
           data[out + k] = (pmin + (v - dmin) * gain) * uf;

@@ -76,6 +76,15 @@ describe('readEdfInfo on the reference files (checks/edf_layout.py, METHODS §11
     expect(block.ok && Array.from(block.value.data)).toEqual(expected.map(Math.fround));
   });
 
+  it('decodes the same values from bytes at an odd memory offset (unaligned path) as from aligned bytes', async () => {
+    const bytes = fixture('edf_example.edf');
+    const odd = new Uint8Array(bytes.length + 1);
+    odd.set(bytes, 1);
+    const a = await samples64(bytes);
+    const b = await samples64(odd.subarray(1));
+    expect(b.vals).toEqual(a.vals);
+  });
+
   it('gives the METHODS §11 scaling check values for −3200…3200 µV over −32768…32767', async () => {
     // METHODS §11: 0 → +0.0488288701 (not 0); 1 → 0.1464866102; 12345 → 1205.6336309; −32768 → −3200; 32767 → 3200
     const digital = [0, 1, 12345, -32768, 32767];
