@@ -5,7 +5,8 @@
  *      they stay available to the evidence as recorded);
  *   2. zero-phase FIR high-pass (default 1 Hz) and optional low-pass, each segment separately (fir.ts);
  *   3. float64 covariance, rank by relative tolerance and sharp gap, PCA whitening to the rank (whitening.ts);
- *   4. extended Infomax (infomax.ts) or Picard-O with the extended density (picard.ts) on the whitened data;
+ *   4. extended Infomax (infomax.ts) or Picard-O with the extended density (picard.ts, with its subsampled warm
+ *      start and optionally a helper thread) on the whitened data;
  *   5. total unmixing W = W_ica W_white (components × channels), mixing A = E_k diag(λ)^(1/2) W_ica⁻¹
  *      (= pinv(W) at full rank; METHODS §6), ordered by variance accounted for and sign-normalised (order.ts).
  * `channelMeans` are the means of the unfiltered channels, so activations of the original data are W (X − means).
@@ -16,7 +17,8 @@ import { matrixMultiply, matrixTranspose } from '../linalg/dense.ts';
 import { applyWhitening, covariance, pcaWhitening } from '../linalg/whitening.ts';
 import { applyZeroPhase, cascadeFir, designHighpassFir, designLowpassFir, type FirDesign } from '../signal/fir.ts';
 import { extendedInfomax } from './infomax.ts';
-import { picardOrthogonal } from './picard.ts';
+import { picardWarmStarted } from './picard.ts';
+import type { IcaThreads } from './pass-threads.ts';
 import { orderComponents } from './order.ts';
 import { cancellationError, type IcaMonitor, type IcaResult } from './ica-types.ts';
 
@@ -62,6 +64,8 @@ export interface DecomposeOptions {
   readonly signal?: { readonly aborted: boolean };
   /** Minimum milliseconds between progress reports (default 250; stage changes are always reported). */
   readonly progressIntervalMs?: number;
+  /** A helper thread for Picard's data passes (pass-threads.ts); omitted: one thread. */
+  readonly threads?: IcaThreads;
 }
 
 export interface DecomposeResult {
@@ -167,7 +171,7 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   if (k === 0) throw new RangeError(`the channel data have rank 0 (${pw.rankReason})`);
   if (nSamples < 20 * k * k)
     warnings.push(`${nSamples} samples for ${k} components is fewer than the common rule of thumb of 20·k² = ${20 * k * k}; components may be unreliable`);
-  const Z = applyWhitening(pw.whitening, k, n, cv.means, X, nSamples);
+  const Z = applyWhitening(pw.whitening, k, n, cv.means, X, nSamples, opts.threads ? opts.threads.allocate(k * nSamples) : undefined);
   checkAbort();
 
   // 4. ICA
@@ -201,7 +205,7 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   };
   const seed = opts.seed ?? 1;
   let ica: IcaResult;
-  if (opts.method === 'picard') ica = picardOrthogonal(Z, k, nSamples, { maxIter, seed, monitor });
+  if (opts.method === 'picard') ica = picardWarmStarted(Z, k, nSamples, { maxIter, seed, monitor, threads: opts.threads });
   else ica = extendedInfomax(Z, k, nSamples, { maxIter, seed, monitor });
   warnings.push(...ica.warnings);
 

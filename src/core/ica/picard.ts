@@ -23,9 +23,10 @@
  * One pass over the data computes, tile by tile, Y = W Z, tanh, ln cosh and E[tanh(Y) Yᵀ], so a line-search
  * trial that is accepted already holds the next gradient: one pass per iteration in the usual case.
  */
-import { accumulateProductTransposed, multiplyChannelMajor, SAMPLE_TILE } from '../linalg/matmul.ts';
+import { accumulateProductTransposed, SAMPLE_TILE } from '../linalg/matmul.ts';
 import { frobeniusDot, matrixExponential, matrixMultiply, matrixTranspose } from '../linalg/dense.ts';
-import { fastLogCosh, fastTanh } from './fast-tanh.ts';
+import type { IcaThreads } from './pass-threads.ts';
+import { createPassSums, singleThreadEvaluator, type PassEvaluator, type PassSums } from './picard-pass.ts';
 import { createPrng } from './prng.ts';
 import { cancellationError, type IcaMonitor, type IcaResult } from './ica-types.ts';
 
@@ -42,22 +43,16 @@ export interface PicardOptions {
   lambdaMin?: number;
   /** Seed of the random orthogonal starting point; undefined → identity. */
   seed?: number;
+  /** Starting unmixing (k × k, orthogonal); overrides `seed`. */
+  initialW?: Float64Array;
   monitor?: IcaMonitor;
+  /** Computes the data pass (default: this thread, all samples); see pass-threads.ts for two threads. */
+  evaluator?: PassEvaluator;
 }
 
-/** Statistics of one pass over the data at a given W. */
-interface PassStats {
-  /** Σ_t ln cosh(y_i(t)) / T per row. */
-  readonly logcosh: Float64Array;
-  /** Σ_t (1 − tanh²) / T per row. */
-  readonly sech2: Float64Array;
-  /** E[tanh(Y) Yᵀ], k × k. */
-  readonly gTanh: Float64Array;
-}
-
-function newStats(k: number): PassStats {
-  return { logcosh: new Float64Array(k), sech2: new Float64Array(k), gTanh: new Float64Array(k * k) };
-}
+/** Pass sums normalised by T: E[ln cosh y_i], E[sech² y_i], E[tanh(Y) Yᵀ]. */
+type PassStats = PassSums;
+const newStats = createPassSums;
 
 /** A seeded random orthogonal k × k matrix (Gram–Schmidt on Gaussian rows), or the identity without a seed. */
 export function initialRotation(k: number, seed: number | undefined): Float64Array {
@@ -108,40 +103,11 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
   }
   for (let i = 0; i < kk; i++) C[i] /= T;
 
-  const Ytile = new Float64Array(k * SAMPLE_TILE);
-  const Ptile = new Float64Array(k * SAMPLE_TILE);
-  let pollCounter = 0;
-
-  /** One fused pass: statistics of Y = Wc Z. */
+  const evaluator = opts.evaluator ?? singleThreadEvaluator(Z, k, T);
+  const poll = monitor?.poll ? () => monitor.poll!() : undefined;
+  /** One fused pass: statistics of Y = Wc Z, normalised by T. */
   const evaluate = (Wc: Float64Array, out: PassStats): void => {
-    out.logcosh.fill(0);
-    out.sech2.fill(0);
-    out.gTanh.fill(0);
-    for (let t0 = 0; t0 < T; t0 += SAMPLE_TILE) {
-      const t1 = Math.min(T, t0 + SAMPLE_TILE);
-      const len = t1 - t0;
-      // Ytile rows have stride `len` here; re-stride to SAMPLE_TILE for the accumulation kernel.
-      multiplyChannelMajor(Wc, k, k, Z, T, Ytile, t0, t1);
-      if (len !== SAMPLE_TILE) {
-        for (let i = k - 1; i >= 0; i--) Ytile.copyWithin(i * SAMPLE_TILE, i * len, i * len + len);
-      }
-      for (let i = 0; i < k; i++) {
-        let lc = 0;
-        let s2 = 0;
-        const o = i * SAMPLE_TILE;
-        for (let t = 0; t < len; t++) {
-          const y = Ytile[o + t];
-          const th = fastTanh(y);
-          Ptile[o + t] = th;
-          s2 += th * th;
-          lc += fastLogCosh(y);
-        }
-        out.logcosh[i] += lc;
-        out.sech2[i] += len - s2;
-      }
-      accumulateProductTransposed(Ptile, SAMPLE_TILE, k, Ytile, SAMPLE_TILE, k, len, out.gTanh);
-      if (monitor?.poll && ++pollCounter % 32 === 0 && monitor.poll()) throw cancellationError();
-    }
+    if ((poll && poll()) || !evaluator(Wc, out, poll)) throw cancellationError();
     for (let i = 0; i < k; i++) {
       out.logcosh[i] /= T;
       out.sech2[i] /= T;
@@ -160,7 +126,7 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
     return L;
   };
 
-  let W = initialRotation(k, opts.seed);
+  let W = opts.initialW ? Float64Array.from(opts.initialW) : initialRotation(k, opts.seed);
   let cur = newStats(k);
   let trial = newStats(k);
   evaluate(W, cur);
@@ -308,4 +274,69 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
   }
   if (!converged && it >= maxIter) warnings.push(`Picard did not converge in ${maxIter} iterations (max gradient ${gradNorm.toExponential(2)} > ${tol})`);
   return { W, iterations: Math.min(it, maxIter), converged, convergence: gradNorm, signs: Int8Array.from(signs), warnings };
+}
+
+export interface PicardWarmStartOptions extends PicardOptions {
+  /** Two-thread data passes for both stages (pass-threads.ts); Z must then come from threads.allocate. */
+  threads?: IcaThreads;
+  /** Keep every `stride`-th sample in the first stage (default 4); 1 = no warm start. */
+  stride?: number;
+  /** Gradient tolerance of the first stage (default 1e-4). */
+  warmTol?: number;
+}
+
+/**
+ * Picard-O with a subsampled warm start (our speed-up, not from the papers): stage 1 runs on every
+ * `stride`-th sample (a k × T/stride copy) to a loose tolerance; stage 2 starts from its unmixing on all
+ * samples and runs to `tol`. The fixed point is that of the full data, as stage 2 is plain Picard-O; only
+ * the route there is cheaper (stage-1 iterations cost 1/stride of a full pass). Used when the subsample
+ * still holds ≥ 5·k² samples; otherwise this is plain picardOrthogonal. `iterations` counts both stages.
+ */
+export function picardWarmStarted(Z: Float32Array, k: number, T: number, opts: PicardWarmStartOptions = {}): IcaResult {
+  const stride = Math.max(1, Math.floor(opts.stride ?? 4));
+  const Ts = Math.floor(T / stride);
+  if (stride === 1 || Ts < 5 * k * k || Ts < 1000) {
+    const ev = opts.threads ? opts.threads.evaluator(Z, k, T) : undefined;
+    try {
+      return picardOrthogonal(Z, k, T, { ...opts, evaluator: ev });
+    } finally {
+      ev?.release();
+    }
+  }
+  const threads = opts.threads;
+  const Zs = threads ? threads.allocate(k * Ts) : new Float32Array(k * Ts);
+  for (let i = 0; i < k; i++) {
+    const src = i * T;
+    const dst = i * Ts;
+    for (let t = 0; t < Ts; t++) Zs[dst + t] = Z[src + t * stride];
+  }
+  const maxIter = opts.maxIter ?? 500;
+  const ev1 = threads ? threads.evaluator(Zs, k, Ts) : undefined;
+  let first: IcaResult;
+  try {
+    first = picardOrthogonal(Zs, k, Ts, {
+      ...opts,
+      evaluator: ev1,
+      tol: opts.warmTol ?? 1e-4,
+      maxIter,
+      monitor: opts.monitor ? { poll: opts.monitor.poll, iteration: (it, c) => opts.monitor?.iteration?.(it, c, opts.tol ?? 1e-7) } : undefined,
+    });
+  } finally {
+    ev1?.release();
+  }
+  const offset = first.iterations;
+  const ev2 = threads ? threads.evaluator(Z, k, T) : undefined;
+  let second: IcaResult;
+  try {
+    second = picardOrthogonal(Z, k, T, {
+      ...opts,
+      evaluator: ev2,
+      initialW: first.W,
+      maxIter: Math.max(1, maxIter - offset),
+      monitor: opts.monitor ? { poll: opts.monitor.poll, iteration: (it, c, tol) => opts.monitor?.iteration?.(offset + it, c, tol) } : undefined,
+    });
+  } finally {
+    ev2?.release();
+  }
+  return { ...second, iterations: offset + second.iterations, warnings: [...first.warnings.filter((w) => !/did not converge/.test(w)), ...second.warnings] };
 }

@@ -175,7 +175,7 @@ export function applyWhitening(
   means: Float64Array,
   X: Float32Array,
   nSamples: number,
-  out = new Float32Array(k * nSamples),
+  out: Float32Array = new Float32Array(k * nSamples),
 ): Float32Array {
   multiplyChannelMajor(Ww, k, n, X, nSamples, out);
   for (let i = 0; i < k; i++) {
