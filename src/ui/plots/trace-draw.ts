@@ -1,6 +1,10 @@
 /**
  * Canvas drawing of stacked traces (browser only). Kept out of the React component so a caller can repaint
  * straight after a data change without a render (zustand's transient-update pattern).
+ *
+ * Layers marked `fixed` (e.g. the original signal) are drawn once per spec into an offscreen canvas together
+ * with the grid, labels and events; a repaint then copies that picture and draws only the other layers
+ * (e.g. the cleaned signal). The cache is keyed by the spec object, so a new spec redraws everything.
  */
 import { eventsInWindow, minMaxColumns, rowCentres, type WindowEvent } from './trace-layout.ts';
 
@@ -11,6 +15,8 @@ export interface TraceLayer {
   readonly lineWidth: number;
   /** Which panel the layer goes to in side-by-side mode (0 = left, 1 = right). */
   readonly panel?: 0 | 1;
+  /** The data never change while this spec is shown: drawn once into the cached background. */
+  readonly fixed?: boolean;
 }
 
 export interface TraceSpec {
@@ -40,66 +46,73 @@ export interface TraceSpec {
 
 const LABEL_W = 52;
 const BOTTOM = 18;
+const FONT = '10px system-ui, sans-serif';
 
-/** Paints `spec` into `canvas` at the device pixel ratio. */
-export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
-  const dpr = typeof window !== 'undefined' ? window.devicePixelRatio || 1 : 1;
-  const W = Math.round(spec.width * dpr);
-  const H = Math.round(spec.height * dpr);
-  if (canvas.width !== W) canvas.width = W;
-  if (canvas.height !== H) canvas.height = H;
-  const ctx = canvas.getContext('2d');
-  if (!ctx) return;
-  ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+interface Geometry {
+  readonly top: number;
+  readonly centres: Float64Array;
+  readonly rowH: number;
+  readonly panels: number;
+  readonly plotW: number;
+  readonly durS: number;
+}
+
+function geometry(spec: TraceSpec): Geometry {
+  // Side by side, the panel titles take the first line and the event labels the second.
+  const top = spec.sideBySide ? 28 : 14;
+  const nRows = spec.rowLabels.length;
+  const panels = spec.sideBySide ? 2 : 1;
+  return {
+    top,
+    centres: rowCentres(nRows, top, spec.height - BOTTOM),
+    rowH: nRows ? (spec.height - top - BOTTOM) / nRows : 0,
+    panels,
+    plotW: (spec.width - LABEL_W - 8 * panels) / panels,
+    durS: spec.length / spec.sampleRate,
+  };
+}
+
+const panelX = (g: Geometry, p: number) => LABEL_W + p * (g.plotW + 8);
+
+/** Background, row labels, time grid, events and panel titles. */
+function paintFrame(ctx: CanvasRenderingContext2D, spec: TraceSpec, g: Geometry): void {
   ctx.fillStyle = '#fffdf8';
   ctx.fillRect(0, 0, spec.width, spec.height);
-
-  // Side by side, the panel titles take the first line and the event labels the second.
-  const TOP = spec.sideBySide ? 28 : 14;
-  const eventLabelY = spec.sideBySide ? 23 : 10;
-  const nRows = spec.rowLabels.length;
-  const centres = rowCentres(nRows, TOP, spec.height - BOTTOM);
-  const rowH = nRows ? (spec.height - TOP - BOTTOM) / nRows : 0;
-  const panels = spec.sideBySide ? 2 : 1;
-  const plotW = (spec.width - LABEL_W - 8 * panels) / panels;
-  const durS = spec.length / spec.sampleRate;
-
-  ctx.font = '10px system-ui, sans-serif';
+  ctx.font = FONT;
   ctx.fillStyle = '#333';
   ctx.textBaseline = 'middle';
-  for (let r = 0; r < nRows; r++) ctx.fillText(spec.rowLabels[r], 4, centres[r]);
-
-  for (let p = 0; p < panels; p++) {
-    const x0 = LABEL_W + p * (plotW + 8);
-    // events and time grid
+  for (let r = 0; r < spec.rowLabels.length; r++) ctx.fillText(spec.rowLabels[r], 4, g.centres[r]);
+  const eventLabelY = spec.sideBySide ? 23 : 10;
+  ctx.textBaseline = 'alphabetic';
+  for (let p = 0; p < g.panels; p++) {
+    const x0 = panelX(g, p);
     ctx.strokeStyle = '#e6e1d3';
     ctx.lineWidth = 1;
-    const step = durS > 20 ? 5 : durS > 6 ? 1 : 0.5;
     ctx.fillStyle = '#555';
-    ctx.textBaseline = 'alphabetic';
-    for (let t = Math.ceil(spec.startS / step) * step; t <= spec.startS + durS + 1e-9; t += step) {
-      const x = x0 + ((t - spec.startS) / durS) * plotW;
+    const step = g.durS > 20 ? 5 : g.durS > 6 ? 1 : 0.5;
+    for (let t = Math.ceil(spec.startS / step) * step; t <= spec.startS + g.durS + 1e-9; t += step) {
+      const x = x0 + ((t - spec.startS) / g.durS) * g.plotW;
       ctx.beginPath();
-      ctx.moveTo(x, TOP);
+      ctx.moveTo(x, g.top);
       ctx.lineTo(x, spec.height - BOTTOM);
       ctx.stroke();
       const tick = `${+t.toFixed(2)} s`;
       // keep the last tick label inside the panel
-      ctx.fillText(tick, Math.min(x + 2, x0 + plotW - ctx.measureText(tick).width), spec.height - 5);
+      ctx.fillText(tick, Math.min(x + 2, x0 + g.plotW - ctx.measureText(tick).width), spec.height - 5);
     }
     ctx.strokeStyle = '#7a5cc2';
     ctx.setLineDash([3, 3]);
     let labelEnd = -Infinity;
-    for (const e of eventsInWindow(spec.events, spec.startS, spec.startS + durS)) {
-      const x = x0 + ((e.onset - spec.startS) / durS) * plotW;
+    for (const e of eventsInWindow(spec.events, spec.startS, spec.startS + g.durS)) {
+      const x = x0 + ((e.onset - spec.startS) / g.durS) * g.plotW;
       ctx.beginPath();
-      ctx.moveTo(x, TOP);
+      ctx.moveTo(x, g.top);
       ctx.lineTo(x, spec.height - BOTTOM);
       ctx.stroke();
       // Label only where it does not run into the previous one; every event keeps its line.
       const text = e.label.slice(0, 16);
       const w = ctx.measureText(text).width;
-      if (x + 2 > labelEnd + 4 && x + 2 + w <= x0 + plotW) {
+      if (x + 2 > labelEnd + 4 && x + 2 + w <= x0 + g.plotW) {
         ctx.fillStyle = '#5b3fa0';
         ctx.fillText(text, x + 2, eventLabelY);
         labelEnd = x + 2 + w;
@@ -108,59 +121,100 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
     ctx.setLineDash([]);
     if (spec.sideBySide && spec.panelTitles) {
       ctx.fillStyle = '#1d232b';
-      ctx.font = 'bold 11px system-ui, sans-serif';
+      ctx.font = `bold ${FONT}`;
       ctx.fillText(spec.panelTitles[p], x0 + 2, 10);
-      ctx.font = '10px system-ui, sans-serif';
+      ctx.font = FONT;
     }
-
-    ctx.save();
-    ctx.beginPath();
-    ctx.rect(x0, TOP - 2, plotW, spec.height - TOP - BOTTOM + 4);
-    ctx.clip();
-    const cols = Math.max(1, Math.floor(plotW));
-    const mn = new Float64Array(cols);
-    const mx = new Float64Array(cols);
-    for (const layer of spec.layers) {
-      if (spec.sideBySide && (layer.panel ?? 0) !== p) continue;
-      ctx.strokeStyle = layer.colour;
-      ctx.lineWidth = layer.lineWidth;
-      ctx.beginPath();
-      for (let r = 0; r < nRows; r++) {
-        const off = (spec.rowIndex ? spec.rowIndex[r] : r) * spec.length;
-        const yc = centres[r];
-        const span = spec.rowSpans ? spec.rowSpans[r] : spec.rowSpan;
-        const pxPerUnit = span > 0 ? rowH / span : 0;
-        if (spec.length > 2 * cols) {
-          minMaxColumns(layer.data, off, off + spec.length, cols, mn, mx);
-          let rowMean = 0;
-          let cnt = 0;
-          for (let j = 0; j < cols; j++) if (Number.isFinite(mn[j])) { rowMean += mn[j] + mx[j]; cnt += 2; }
-          rowMean = cnt ? rowMean / cnt : 0;
-          let started = false;
-          for (let j = 0; j < cols; j++) {
-            if (!Number.isFinite(mn[j])) continue;
-            const x = x0 + j + 0.5;
-            const ya = yc - (mx[j] - rowMean) * pxPerUnit;
-            const yb = yc - (mn[j] - rowMean) * pxPerUnit;
-            if (!started) ctx.moveTo(x, ya);
-            else ctx.lineTo(x, ya);
-            started = true;
-            ctx.lineTo(x, yb + 0.5);
-          }
-        } else {
-          let rowMean = 0;
-          for (let t = 0; t < spec.length; t++) rowMean += layer.data[off + t];
-          rowMean /= spec.length || 1;
-          for (let t = 0; t < spec.length; t++) {
-            const x = x0 + (t / Math.max(1, spec.length - 1)) * plotW;
-            const y = yc - (layer.data[off + t] - rowMean) * pxPerUnit;
-            if (t === 0) ctx.moveTo(x, y);
-            else ctx.lineTo(x, y);
-          }
-        }
-      }
-      ctx.stroke();
-    }
-    ctx.restore();
   }
+}
+
+/** One layer's traces in panel `p`, min/max-decimated to one column per pixel when denser than that. */
+function paintLayer(ctx: CanvasRenderingContext2D, spec: TraceSpec, g: Geometry, layer: TraceLayer, p: number): void {
+  const x0 = panelX(g, p);
+  ctx.save();
+  ctx.beginPath();
+  ctx.rect(x0, g.top - 2, g.plotW, spec.height - g.top - BOTTOM + 4);
+  ctx.clip();
+  const cols = Math.max(1, Math.floor(g.plotW));
+  const mn = new Float64Array(cols);
+  const mx = new Float64Array(cols);
+  ctx.strokeStyle = layer.colour;
+  ctx.lineWidth = layer.lineWidth;
+  ctx.beginPath();
+  for (let r = 0; r < spec.rowLabels.length; r++) {
+    const off = (spec.rowIndex ? spec.rowIndex[r] : r) * spec.length;
+    const yc = g.centres[r];
+    const span = spec.rowSpans ? spec.rowSpans[r] : spec.rowSpan;
+    const pxPerUnit = span > 0 ? g.rowH / span : 0;
+    if (spec.length > 2 * cols) {
+      minMaxColumns(layer.data, off, off + spec.length, cols, mn, mx);
+      let rowMean = 0;
+      let cnt = 0;
+      for (let j = 0; j < cols; j++) if (Number.isFinite(mn[j])) { rowMean += mn[j] + mx[j]; cnt += 2; }
+      rowMean = cnt ? rowMean / cnt : 0;
+      let started = false;
+      for (let j = 0; j < cols; j++) {
+        if (!Number.isFinite(mn[j])) continue;
+        const x = x0 + j + 0.5;
+        const ya = yc - (mx[j] - rowMean) * pxPerUnit;
+        const yb = yc - (mn[j] - rowMean) * pxPerUnit;
+        if (!started) ctx.moveTo(x, ya);
+        else ctx.lineTo(x, ya);
+        started = true;
+        ctx.lineTo(x, yb + 0.5);
+      }
+    } else {
+      let rowMean = 0;
+      for (let t = 0; t < spec.length; t++) rowMean += layer.data[off + t];
+      rowMean /= spec.length || 1;
+      for (let t = 0; t < spec.length; t++) {
+        const x = x0 + (t / Math.max(1, spec.length - 1)) * g.plotW;
+        const y = yc - (layer.data[off + t] - rowMean) * pxPerUnit;
+        if (t === 0) ctx.moveTo(x, y);
+        else ctx.lineTo(x, y);
+      }
+    }
+  }
+  ctx.stroke();
+  ctx.restore();
+}
+
+function paintLayers(ctx: CanvasRenderingContext2D, spec: TraceSpec, g: Geometry, fixed: boolean): void {
+  for (let p = 0; p < g.panels; p++) {
+    for (const layer of spec.layers) {
+      if (Boolean(layer.fixed) !== fixed) continue;
+      if (spec.sideBySide && (layer.panel ?? 0) !== p) continue;
+      paintLayer(ctx, spec, g, layer, p);
+    }
+  }
+}
+
+const backgrounds = new WeakMap<TraceSpec, HTMLCanvasElement>();
+
+/** Paints `spec` into `canvas` at the device pixel ratio, reusing the cached background of the spec. */
+export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
+  const dpr = typeof window !== 'undefined' ? window.devicePixelRatio || 1 : 1;
+  const W = Math.round(spec.width * dpr);
+  const H = Math.round(spec.height * dpr);
+  if (canvas.width !== W) canvas.width = W;
+  if (canvas.height !== H) canvas.height = H;
+  const ctx = canvas.getContext('2d');
+  if (!ctx) return;
+  const g = geometry(spec);
+  let bg = backgrounds.get(spec);
+  if (!bg || bg.width !== W || bg.height !== H) {
+    bg = document.createElement('canvas');
+    bg.width = W;
+    bg.height = H;
+    const bctx = bg.getContext('2d');
+    if (!bctx) return;
+    bctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+    paintFrame(bctx, spec, g);
+    paintLayers(bctx, spec, g, true);
+    backgrounds.set(spec, bg);
+  }
+  ctx.setTransform(1, 0, 0, 1, 0, 0);
+  ctx.drawImage(bg, 0, 0);
+  ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
+  paintLayers(ctx, spec, g, false);
 }

@@ -4,7 +4,8 @@
  * removed set updates the cleaned window incrementally (± a_i s_i, src/core/review/preview-projection.ts)
  * and repaints the canvas straight from the store subscription, without waiting for React; the time from
  * the store change to the repainted canvas is recorded as the performance measure
- * "winnow:toggle-to-repaint" and shown under the traces.
+ * "winnow:toggle-to-repaint" (and "winnow:toggle-update" for the arithmetic alone, "winnow:toggle-to-frame"
+ * up to the next animation frame) and shown under the traces.
  *
  * data-testid hooks for the end-to-end tests:
  *   preview-view               the whole view (section)
@@ -28,7 +29,7 @@ import {
   removedVarianceShare,
   windowChecksum,
 } from '../../core/review/preview-projection.ts';
-import { useWorkbench, workbenchStore } from '../../state/index.ts';
+import { useWorkbench, workbenchStore, type ReviewDecision } from '../../state/index.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { decompositionMontage } from '../plots/montage-positions.ts';
 import { TopographyMap } from '../plots/TopographyMap.tsx';
@@ -65,7 +66,6 @@ export function PreviewView() {
 function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecording; decomposition: Decomposition }) {
   const aim = useWorkbench((s) => s.aim);
   const roi = useWorkbench((s) => s.roi);
-  const decisions = useWorkbench((s) => s.decisions);
   const montage = decompositionMontage(recording, decomposition);
   const { rows } = montage;
   const fs = recording.signals.sampleRate;
@@ -88,18 +88,29 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
   // --- live incremental update, repainted straight from the store subscription -------------------------
   const canvas = useRef<HTMLCanvasElement | null>(null);
   const specRef = useRef<TraceSpec | null>(null);
-  const [version, setVersion] = useState(0);
+  // Bumped after each applied change (the cleaned window is updated in place); carries the removed set.
+  const [applied, setApplied] = useState<{ version: number; removed: ReadonlySet<number> }>({ version: 0, removed: new Set() });
+  const version = applied.version;
   const [updateMs, setUpdateMs] = useState<number | null>(null);
   useEffect(() => {
     if (!win) return;
-    const sync = (d: typeof decisions, initial: boolean) => {
+    const sync = (d: Readonly<Record<number, ReviewDecision>>, initial: boolean) => {
       performance.mark('winnow:toggle');
-      const toggled = applyRemovedSet(win, decomposition.mixing, removedSetFromDecisions(d, k));
+      const removedNow = removedSetFromDecisions(d, k);
+      const toggled = applyRemovedSet(win, decomposition.mixing, removedNow);
       if (toggled === 0 && !initial) return;
+      performance.measure('winnow:toggle-update', 'winnow:toggle');
       if (canvas.current && specRef.current) drawTraces(canvas.current, specRef.current);
       const m = performance.measure('winnow:toggle-to-repaint', 'winnow:toggle');
-      if (!initial) setUpdateMs(m.duration);
-      setVersion((v) => v + 1);
+      // The figures beside the traces (checksum, ERP, spectra, variance map) re-render after the frame that
+      // shows the new traces, so React's work never delays that frame.
+      requestAnimationFrame(() => {
+        performance.measure('winnow:toggle-to-frame', 'winnow:toggle');
+        setTimeout(() => {
+          if (!initial) setUpdateMs(m.duration);
+          setApplied((a) => ({ version: a.version + 1, removed: removedNow }));
+        }, 0);
+      });
     };
     sync(workbenchStore.getState().decisions, true);
     return workbenchStore.subscribe((s, prev) => {
@@ -123,7 +134,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
       sampleRate: fs,
       startS: start / fs,
       layers: [
-        { data: win.original, colour: side ? '#1d232b' : '#b9b3a4', lineWidth: side ? 1 : 1.6, panel: 0 },
+        { data: win.original, colour: side ? '#1d232b' : '#b9b3a4', lineWidth: side ? 1 : 1.6, panel: 0, fixed: true },
         { data: win.cleaned, colour: side ? '#1d232b' : '#1f4e8c', lineWidth: 1, panel: 1 },
       ],
       rowSpan: rowSpan / settings.gain,
@@ -135,7 +146,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
   specRef.current = spec;
 
   // --- figures that follow the verdicts (recomputed per version) ---------------------------------------
-  const removed = useMemo(() => removedSetFromDecisions(decisions, k), [decisions, k]);
+  const removed = applied.removed;
   const checksum = useMemo(() => (win ? windowChecksum(win.cleaned) : ''), [win, version]);
   const varianceRemoved = useMemo(() => (win ? removedVarianceShare(win) : null), [win, version]);
 
