@@ -1,13 +1,19 @@
 /**
  * `winnow decompose <recording> --out FILE.json [--method infomax|picard] [--seed N] [--highpass HZ]
- * [--lowpass HZ] [--max-iter N] [--n-components K] [--channels-tsv FILE]` (issue 5 contract): runs the
+ * [--lowpass HZ] [--max-iter N] [--n-components K] [--channels-tsv FILE] [--threads 1|2]` (issue 5 contract): runs the
  * decomposition engine (src/core/ica/decompose.ts) on the good EEG channels of the recording's main sampling
  * rate and writes our decomposition JSON (src/core/formats/decomposition-file.ts) atomically. Progress
  * (stage, iteration, convergence, time left) goes to stderr about twice a second; a one-line summary to stdout.
  * Default method: picard (fast); infomax is the trade's usual default and is one option away.
- * `--highpass 0` turns the high-pass off (default 1 Hz).
+ * `--highpass 0` turns the high-pass off (default 1 Hz). Picard's data passes use a second thread
+ * (worker_threads over a SharedArrayBuffer) unless `--threads 1` or the machine has one core; results are
+ * bit-identical for the same seed and thread count.
  */
 import { createHash } from 'node:crypto';
+import { availableParallelism } from 'node:os';
+import { createRequire } from 'node:module';
+import { pathToFileURL } from 'node:url';
+import { Worker } from 'node:worker_threads';
 import { createReadStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
@@ -17,9 +23,43 @@ import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
 import { parseChannelsTsv } from '../core/formats/bids.ts';
 import { serializeDecomposition } from '../core/formats/decomposition-file.ts';
 import { decomposeRecording, type DecomposeProgress } from '../core/ica/decompose.ts';
+import { createIcaThreads, type IcaThreads, type PassHelperSetup } from '../core/ica/pass-threads.ts';
+
+/**
+ * A worker_threads helper for Picard's data passes (src/core/ica/pass-threads.ts), for the CLI and the bench.
+ * The helper registers the tsx loader itself (workers do not inherit a loader registered through its API),
+ * then runs runPassHelper for each setup it is sent. Resolves once the helper is ready; `close` ends it.
+ */
+export async function createNodeIcaThreads(): Promise<{ threads: IcaThreads; close(): Promise<void> }> {
+  // The ESM entry of tsx's API (its CommonJS twin resolves the loader from the wrong folder inside a worker).
+  const tsxApi = pathToFileURL(createRequire(import.meta.url).resolve('tsx/esm/api').replace(/\.cjs$/, '.mjs')).href;
+  const helperUrl = new URL('../core/ica/pass-threads.ts', import.meta.url).href;
+  const code = `
+    const { parentPort } = require('node:worker_threads');
+    (async () => {
+      const { register } = await import(${JSON.stringify(tsxApi)});
+      register();
+      const mod = await import(${JSON.stringify(helperUrl)});
+      parentPort.on('message', (setup) => mod.runPassHelper(setup));
+      parentPort.postMessage('ready');
+    })().catch((e) => parentPort.postMessage({ error: String(e && e.stack || e) }));
+  `;
+  const worker = new Worker(code, { eval: true });
+  await new Promise<void>((resolve, reject) => {
+    worker.once('message', (m) => (m === 'ready' ? resolve() : reject(new Error(`ICA helper thread failed to start: ${m?.error ?? m}`))));
+    worker.once('error', reject);
+  });
+  worker.unref();
+  return {
+    threads: createIcaThreads((setup: PassHelperSetup) => worker.postMessage(setup)),
+    close: async () => {
+      await worker.terminate();
+    },
+  };
+}
 
 const USAGE =
-  'usage: winnow decompose <recording> --out FILE.json [--method infomax|picard] [--seed N] [--highpass HZ] [--lowpass HZ] [--max-iter N] [--n-components K] [--channels-tsv FILE]';
+  'usage: winnow decompose <recording> --out FILE.json [--method infomax|picard] [--seed N] [--highpass HZ] [--lowpass HZ] [--max-iter N] [--n-components K] [--channels-tsv FILE] [--threads 1|2]';
 
 function sha256OfFile(path: string): Promise<string> {
   return new Promise((resolve, reject) => {
@@ -59,6 +99,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     'max-iter': { type: 'string' },
     'n-components': { type: 'string' },
     'channels-tsv': { type: 'string' },
+    threads: { type: 'string' },
   });
   if (positionals.length !== 1) throw new CliError(`winnow decompose: give exactly one recording (${USAGE})`);
   if (values.out === undefined) throw new CliError(`winnow decompose: --out FILE.json is required (${USAGE})`);
@@ -73,6 +114,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   const nComponents = values['n-components'] === undefined ? undefined : numberOption('decompose', 'n-components', values['n-components'], 0);
   if (nComponents !== undefined && (!Number.isInteger(nComponents) || nComponents < 1))
     throw new CliError(`winnow decompose: --n-components must be a positive integer, got "${values['n-components']}"`);
+  const nThreads = numberOption('decompose', 'threads', values.threads, Math.min(2, availableParallelism()));
+  if (nThreads !== 1 && nThreads !== 2) throw new CliError(`winnow decompose: --threads must be 1 or 2, got "${values.threads}"`);
   if (highpass < 0) throw new CliError(`winnow decompose: --highpass must be ≥ 0 (0 = off), got "${values.highpass}"`);
 
   const path = positionals[0];
@@ -139,6 +182,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     const shaPromise = sha256OfFile(path);
 
     let result;
+    const helper = method === 'picard' && nThreads === 2 ? await createNodeIcaThreads() : null;
     try {
       result = decomposeRecording(
         {
@@ -160,11 +204,14 @@ export async function run(args: string[], io: CliIo): Promise<number> {
           nComponents,
           progressIntervalMs: 500,
           onProgress: (p) => io.stderr(progressLine(p)),
+          threads: helper?.threads,
         },
       );
     } catch (e) {
       if (e instanceof RangeError) throw new CliError(`${path}: ${e.message}`);
       throw e;
+    } finally {
+      await helper?.close();
     }
     const decomposition = { ...result.decomposition, recordingSha256: await shaPromise };
     for (const w of result.warnings) io.stderr(`warning: ${w}\n`);

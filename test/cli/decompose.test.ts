@@ -67,6 +67,18 @@ describe('winnow decompose (issue 5 contract)', () => {
     expect(readFileSync(a, 'utf8')).toBe(readFileSync(b, 'utf8'));
     expect(JSON.parse(readFileSync(a, 'utf8')).preprocessing.filter).toBe('none');
   });
+  it('gives the same unmixing within 1e-9 with one thread and with a helper thread (--threads 1 | 2)', async () => {
+    const one = join(dir, 'one.json');
+    const two = join(dir, 'two.json');
+    expect((await decompose(recording, '--out', one, '--threads', '1', '--seed', '2')).code).toBe(0);
+    expect((await decompose(recording, '--out', two, '--threads', '2', '--seed', '2')).code).toBe(0);
+    const a = JSON.parse(readFileSync(one, 'utf8')).unmixing.flat() as number[];
+    const b = JSON.parse(readFileSync(two, 'utf8')).unmixing.flat() as number[];
+    const scale = Math.max(...a.map(Math.abs));
+    let worst = 0;
+    for (let i = 0; i < a.length; i++) worst = Math.max(worst, Math.abs(a[i] - b[i]));
+    expect(worst / scale).toBeLessThan(1e-9);
+  });
   it('exits 2 with a message for a missing --out, an unknown method, a bad number and a missing recording', async () => {
     const noOut = await decompose(recording);
     expect(noOut.code).toBe(2);
