@@ -12,22 +12,10 @@ import { openReviewDb, type ReviewDb } from './review-db.ts';
 import { sortDecompositionFiles, sortParticipantFiles } from './participant-files.ts';
 import type { WorkbenchServices } from './services.ts';
 import { runDecomposition } from '../bridge/decomposition-client.ts';
+import { computeEvidenceInWorker } from '../bridge/evidence-client.ts';
 import type { DecomposeInput } from '../core/ica/decompose.ts';
 import type { LoadedRecording } from '../core/recording.ts';
-import type { Decomposition } from '../core/decomposition.ts';
-import type { ComponentEvidence } from '../core/evidence/types.ts';
-import type { Aim } from '../core/review/vocabulary.ts';
 
-// Bridges written alongside this file; globbed so the page still builds while one is missing.
-const bridges = import.meta.glob('../bridge/evidence-client.ts');
-async function loadBridge(name: 'evidence'): Promise<unknown> {
-  const load = bridges[`../bridge/${name}-client.ts`];
-  if (!load) throw new Error(`The ${name} engine is not available in this build.`);
-  return load();
-}
-interface EvidenceBridge {
-  computeEvidenceForRecording: (recording: LoadedRecording, decomposition: Decomposition, aim: Aim, signal: AbortSignal, onProgress: (f: number) => void) => Promise<ComponentEvidence[]>;
-}
 
 /** The decomposition engine's view of a recording: its main-rate block, channel types and status, gaps. */
 function decomposeInputOf(recording: LoadedRecording): DecomposeInput {
@@ -101,8 +89,21 @@ export const browserServices: WorkbenchServices = {
   },
 
   async computeEvidence(recording, decomposition, aim, signal, onProgress) {
-    const { computeEvidenceForRecording } = (await loadBridge('evidence')) as EvidenceBridge;
-    return computeEvidenceForRecording(recording, decomposition, aim, signal, onProgress);
+    const { labels, data, nSamples, sampleRate } = recording.signals;
+    const info = new Map(recording.channels.map((c) => [c.label, c] as const));
+    const result = await computeEvidenceInWorker(
+      {
+        data, nChannels: labels.length, nSamples, sampleRate, labels,
+        positionsUnit: recording.positions ?? null,
+        types: labels.map((l) => info.get(l)?.type ?? 'EEG'),
+        decomposition,
+        events: recording.events.filter((e) => e.source !== 'boundary').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label, ...(e.responseTime !== undefined ? { responseTime: e.responseTime } : {}) })),
+        aim,
+      },
+      signal,
+      (f) => onProgress(f),
+    );
+    return result.components;
   },
 
   writeCleaned: (req, signal, onProgress) => writeCleanedInWorker(req, signal, onProgress),

@@ -13,7 +13,7 @@ export interface TileFigure {
   readonly title: string;
 }
 
-const pct = (x: number) => (Number.isFinite(x) ? `${(100 * x).toFixed(x < 0.1 ? 1 : 0)} %` : 'n/a');
+const pct = (x: number) => (Number.isFinite(x) ? `${(100 * x).toFixed(Math.abs(x) < 0.01 ? 2 : Math.abs(x) < 0.1 ? 1 : 0)} %` : 'n/a');
 const num = (x: number, digits = 2) => (Number.isFinite(x) ? x.toFixed(digits) : 'n/a');
 
 /** Every figure the tile knows how to show, keyed by a short id. */
