@@ -1,6 +1,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { rmSync } from 'node:fs';
 import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { main } from '../../src/cli/winnow.ts';
 import { memoryIo } from '../../src/cli/cli-support.ts';
 import { writeCliRecordings } from '../core/formats/cli-recordings.ts';
@@ -36,6 +37,21 @@ describe('winnow inspect (issue 2 contract)', () => {
       { onset: 0.5, duration: 0.25, label: 'Blink' },
       { onset: 1.75, duration: 0, label: 'Tür zu' },
     ]);
+  });
+
+  it('prints the reference EDF+ example as checks/edf_layout.py describes it', async () => {
+    const path = fileURLToPath(new URL('../fixtures/formats/edf_example.edf', import.meta.url));
+    const { code, io } = await inspect(path);
+    expect(code).toBe(0);
+    expect(JSON.parse(io.out)).toEqual({
+      format: 'EDF+C',
+      channels: [{ label: 'EEG Fz', unit: 'uV', sampleRate: 4, physicalMin: -3200, physicalMax: 3200, digitalMin: -32768, digitalMax: 32767, transducer: 'AgAgCl electrode', prefilter: 'HP:0.1Hz LP:70Hz' }],
+      records: 2,
+      recordDurationSeconds: 1,
+      durationSeconds: 2,
+      start: '2024-01-01T10:30:00',
+      events: [{ onset: 0.5, duration: 0.2, label: 'Blink' }, { onset: 1.25, duration: 0, label: 'Stim A' }],
+    });
   });
 
   it('prints an EDF+D file with its record onsets (gaps known)', async () => {
