@@ -39,6 +39,7 @@ import { clampWindowStart, robustRowSpan } from '../plots/trace-layout.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
 import { PreviewToolbar, type PreviewSettings } from './PreviewToolbar.tsx';
 import { RegionErpPanel, RegionSpectraPanel } from './RegionPanels.tsx';
+import { RegionControls } from './RegionControls.tsx';
 import {
   defaultTraceChannels,
   eventOnsets,
@@ -203,6 +204,13 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
           </p>
         </ExportablePanel>
         <div className="preview-side">
+          <RegionControls
+            channels={decomposition.channels}
+            rows={rows}
+            regionRows={roiRows}
+            events={recording.events}
+            eventLabel={eventLabel}
+          />
           <ExportablePanel title="Variance removed per channel" context="preview" className="panel-variance">
             {varianceRemoved && montage.drawable ? (
               <TopographyMap

@@ -76,3 +76,11 @@ describe('formatValue and defaultTraceChannels', () => {
     expect(defaultTraceChannels([0, -1, 2, 3], 2)).toEqual([0, 2]);
   });
 });
+
+describe('eventChoices', () => {
+  it('offers labels and their prefixes, most frequent first, without boundaries', async () => {
+    const { eventChoices } = await import('../../../src/ui/preview/RegionControls.tsx');
+    const events = [ev(1, 'tone/rare'), ev(2, 'tone/standard'), ev(3, 'tone/standard'), ev(4, 'gap', 'boundary')];
+    expect(eventChoices(events)).toEqual(['tone', 'tone/standard', 'tone/rare']);
+  });
+});

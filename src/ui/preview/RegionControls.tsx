@@ -1,0 +1,82 @@
+/**
+ * The region of interest for the before/after figures: channels, the event the ERP is locked to, the
+ * ERP measurement window and the band for band power. Writes to the store's `roi` (shared with the board's
+ * impact figures).
+ */
+import type { RecordingEvent } from '../../core/recording.ts';
+import { useWorkbench } from '../../state/index.ts';
+
+export interface RegionControlsProps {
+  readonly channels: readonly string[];
+  readonly rows: Int32Array;
+  /** Decomposition channel indices currently used (the defaults when the store names none). */
+  readonly regionRows: readonly number[];
+  readonly events: readonly RecordingEvent[];
+  readonly eventLabel: string | null;
+}
+
+/** Event labels and their prefixes before "/" (e.g. "tone" for "tone/rare"), most frequent first. */
+export function eventChoices(events: readonly RecordingEvent[]): string[] {
+  const counts = new Map<string, number>();
+  for (const e of events) {
+    if (e.source === 'boundary' || !e.label) continue;
+    counts.set(e.label, (counts.get(e.label) ?? 0) + 1);
+    const prefix = e.label.split('/')[0];
+    if (prefix !== e.label) counts.set(prefix, (counts.get(prefix) ?? 0) + 1);
+  }
+  return [...counts.entries()].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0])).map(([l]) => l);
+}
+
+export function RegionControls({ channels, rows, regionRows, events, eventLabel }: RegionControlsProps) {
+  const roi = useWorkbench((s) => s.roi);
+  const setRoi = useWorkbench((s) => s.setRoi);
+  const choices = eventChoices(events);
+  return (
+    <div className="region-controls" role="group" aria-label="Region of interest">
+      <label>
+        Region{' '}
+        <select
+          multiple size={3} value={regionRows.map(String)}
+          onChange={(e) => setRoi({ channels: Array.from(e.target.selectedOptions, (o) => channels[Number(o.value)]) })}
+        >
+          {channels.map((l, c) => (rows[c] >= 0 ? <option key={c} value={c}>{l}</option> : null))}
+        </select>
+      </label>
+      <label>
+        Event{' '}
+        <select value={eventLabel ?? ''} onChange={(e) => setRoi({ epochEvent: e.target.value || null })} disabled={choices.length === 0}>
+          {choices.length === 0 ? <option value="">(none)</option> : null}
+          {choices.map((l) => (
+            <option key={l} value={l}>{l}</option>
+          ))}
+        </select>
+      </label>
+      <label>
+        ERP window{' '}
+        <input
+          type="number" step={0.05} value={roi.windowS[0]} aria-label="ERP window start (s)"
+          onChange={(e) => setRoi({ windowS: [Number(e.target.value), roi.windowS[1]] })}
+        />
+        –
+        <input
+          type="number" step={0.05} value={roi.windowS[1]} aria-label="ERP window end (s)"
+          onChange={(e) => setRoi({ windowS: [roi.windowS[0], Number(e.target.value)] })}
+        />{' '}
+        s
+      </label>
+      <label>
+        Band{' '}
+        <input
+          type="number" step={0.5} value={roi.bandHz[0]} aria-label="band low edge (Hz)"
+          onChange={(e) => setRoi({ bandHz: [Number(e.target.value), roi.bandHz[1]] })}
+        />
+        –
+        <input
+          type="number" step={0.5} value={roi.bandHz[1]} aria-label="band high edge (Hz)"
+          onChange={(e) => setRoi({ bandHz: [roi.bandHz[0], Number(e.target.value)] })}
+        />{' '}
+        Hz
+      </label>
+    </div>
+  );
+}
