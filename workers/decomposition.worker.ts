@@ -4,19 +4,52 @@
  * at least twice a second while it works). Cancel: the client may pass an Int32Array over a SharedArrayBuffer
  * whose element 0 it sets to 1 (the core polls it between tiles of work), and in any case terminates the
  * worker on abort. The result's matrices are transferred, not copied.
+ *
+ * When the page is cross-origin isolated (SharedArrayBuffer available), Picard's data passes are split with a
+ * nested helper worker (decomposition-helper.worker.ts, src/core/ica/pass-threads.ts): both cores work.
  */
 import { expose, transfer } from 'comlink';
+import { createIcaThreads, type IcaThreads } from '../src/core/ica/pass-threads.ts';
 import { decomposeRecording, type DecomposeInput, type DecomposeOptions, type DecomposeProgress, type DecomposeResult } from '../src/core/ica/decompose.ts';
 
-export type DecomposeJobOptions = Omit<DecomposeOptions, 'onProgress' | 'signal'>;
+/** Options that cross to the worker (callbacks, the abort signal and threads are supplied on the worker side). */
+export type DecomposeJobOptions = Omit<DecomposeOptions, 'onProgress' | 'signal' | 'threads'>;
+
+let helper: Promise<IcaThreads | null> | null = null;
+
+/** Starts the helper once per worker life; null where SharedArrayBuffer or nested workers are unavailable. */
+function helperThreads(): Promise<IcaThreads | null> {
+  if (!helper) {
+    helper = new Promise((resolve) => {
+      if (typeof SharedArrayBuffer === 'undefined' || globalThis.crossOriginIsolated !== true || typeof Worker === 'undefined') {
+        resolve(null);
+        return;
+      }
+      try {
+        const w = new Worker(new URL('./decomposition-helper.worker.ts', import.meta.url), { type: 'module', name: 'decomposition-helper' });
+        const timer = setTimeout(() => resolve(null), 5000);
+        w.addEventListener('message', (e) => {
+          if (e.data !== 'ready') return;
+          clearTimeout(timer);
+          resolve(createIcaThreads((setup) => w.postMessage(setup)));
+        });
+        w.addEventListener('error', () => resolve(null));
+      } catch {
+        resolve(null);
+      }
+    });
+  }
+  return helper;
+}
 
 const api = {
-  decompose(
+  async decompose(
     input: DecomposeInput,
     opts: DecomposeJobOptions,
     onProgress: ((p: DecomposeProgress) => void) | null,
     cancelFlag: Int32Array | null,
-  ): DecomposeResult {
+  ): Promise<DecomposeResult> {
+    const threads = opts.method === 'picard' ? await helperThreads() : null;
     const signal = {
       get aborted() {
         return cancelFlag !== null && Atomics.load(cancelFlag, 0) !== 0;
@@ -25,6 +58,7 @@ const api = {
     const result = decomposeRecording(input, {
       ...opts,
       signal,
+      threads: threads ?? undefined,
       // The proxied call returns a promise we do not await: progress is fire-and-forget.
       onProgress: onProgress ? (p) => void onProgress(p) : undefined,
     });
