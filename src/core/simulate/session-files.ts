@@ -155,7 +155,7 @@ export function eegJson(session: SimulatedSession): string {
 /** truth.json text plus the activations and sensor-noise bytes, under the given file names. */
 export function sessionTruthFiles(
   session: SimulatedSession,
-  names: { activations: string; sensorNoise: string },
+  names: { activations: string | null; sensorNoise: string | null },
 ): { truth: TruthFile; truthJson: string; activations: Uint8Array; sensorNoise: Uint8Array } {
   const { truth, activations } = truthFiles(session, names);
   return { truth, truthJson: JSON.stringify(truth) + '\n', activations, sensorNoise: float32LeBytes(session.sensorNoise) };

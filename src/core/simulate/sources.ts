@@ -379,7 +379,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     for (const r of scenario.heartbeats) addKernel(act, fs, r, 1, -0.3, 0.5, heartbeatKernel);
     // Heart below, left and in front of the head: a uniform field along this direction.
     const d = unitVec([-0.5, 0.35, -0.8]);
-    const map = sensorMap(ctx, (_l, c) => ctx.directions[3 * c] * d[0] + ctx.directions[3 * c + 1] * d[1] + ctx.directions[3 * c + 2] * d[2], 3);
+    const map = sensorMap(ctx, (_l, c) => ctx.directions[3 * c] * d[0] + ctx.directions[3 * c + 1] * d[1] + ctx.directions[3 * c + 2] * d[2], 5);
     out.push({
       id: 'cardiac',
       class: 'cardiac',

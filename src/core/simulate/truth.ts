@@ -95,8 +95,11 @@ export interface TruthFile {
   readonly headModel: { readonly kind: string; readonly radiusMm: number; readonly description: string };
   readonly channels: string[];
   readonly sensorNoiseUv: number;
-  /** Where the activations lie: one float32 little-endian file, one source after another. */
-  readonly activations: { readonly file: string; readonly dtype: 'float32-le'; readonly nSamples: number };
+  /**
+   * Where the activations lie: one float32 little-endian file, one source after another (each source's
+   * `activation.byteOffset`/`byteLength`); `file` is null when they were not written (the demo data).
+   */
+  readonly activations: { readonly file: string | null; readonly dtype: 'float32-le'; readonly nSamples: number };
   readonly sensorNoise: { readonly file: string; readonly dtype: 'float32-le'; readonly layout: 'channel-major' } | null;
   readonly sources: {
     readonly id: string;
@@ -129,7 +132,7 @@ const round = (v: number, digits: number) => Number(v.toPrecision(digits));
  */
 export function truthFiles(
   session: SimulatedSession,
-  names: { activations: string; sensorNoise: string | null } = { activations: 'activations.f32', sensorNoise: null },
+  names: { activations: string | null; sensorNoise: string | null } = { activations: 'activations.f32', sensorNoise: null },
 ): { truth: TruthFile; activations: Uint8Array } {
   const n = session.nSamples;
   const activations = new Float32Array(session.sources.length * n);
