@@ -57,7 +57,9 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
     sensors.forEach((c, r) => {
       for (let t = 0; t < L; t++) data[(r + 1) * L + t] = win[c * L + t];
     });
-    const span = robustRowSpan(data, nRows, L);
+    // The component row gets its own scale so its shape shows even when it is small at the sensors.
+    const sensorSpan = sensors.length ? robustRowSpan(data.subarray(L), sensors.length, L) : 1;
+    const rowSpans = Float64Array.from({ length: nRows }, (_, r) => (r === 0 ? robustRowSpan(act, 1, L) : sensorSpan));
     return {
       width: Math.max(420, boxWidth),
       height: 60 + 46 * nRows,
@@ -66,7 +68,8 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
       sampleRate: fs,
       startS: start / fs,
       layers: [{ data, colour: '#1d232b', lineWidth: 1 }],
-      rowSpan: span,
+      rowSpan: sensorSpan,
+      rowSpans,
       events: recording.events.filter((e) => e.source !== 'boundary'),
     };
   }, [signals, rows, start, end, L, decomposition, n, k, i, index, strongest, sensors, fs, recording.events, boxWidth]);
@@ -105,7 +108,10 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
     <ExportablePanel title="Time course and sensors" context={context} className="panel-activation" controls={controls}>
       <div ref={box} className="trace-box" />
       <TracePlot spec={spec} ariaLabel={`Component ${index} time course with ${sensors.length} sensor traces`} />
-      <p className="note">Top row: the component back-projected to its strongest channel (µV). Dashed lines: events.</p>
+      <p className="note">
+        Top row: the component back-projected to its strongest channel (µV, own vertical scale); below: the sensors on a shared
+        scale. Dashed lines: events.
+      </p>
     </ExportablePanel>
   );
 }
