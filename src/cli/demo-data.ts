@@ -78,7 +78,7 @@ Total size about ${sizeMb} MB.
 npx tsx src/cli/demo-data.ts --out demo-data --seed ${seed}
 \`\`\`
 
-writes this folder again, byte for byte${withDecomposition ? ' (it also runs `winnow decompose` on the recording)' : ''}. The same recording, plus
+writes this folder again: the recording and every sidecar byte for byte${withDecomposition ? '; it also runs `winnow decompose` on the recording (default settings, `--seed ' + seed + '`), which is deterministic for a given seed and thread count' : ''}. The same recording, plus
 the neural-only back-projection and every source's activation, comes from
 
 \`\`\`
