@@ -130,7 +130,7 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   }
   const n = used.length;
   if (n === 0) throw new RangeError('no good EEG channels left to decompose');
-  const X = new Float32Array(n * nSamples);
+  let X: Float32Array | null = new Float32Array(n * nSamples);
   const channelMeans = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const src = data.subarray(used[i] * nSamples, (used[i] + 1) * nSamples);
@@ -162,7 +162,11 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   // 3. covariance, rank, whitening
   stage = 'whiten';
   report(true);
-  const cv = covariance(X, n, nSamples);
+  const pollWork = () => {
+    checkAbort();
+    report(false);
+  };
+  const cv = covariance(X, n, nSamples, undefined, pollWork);
   for (let i = 0; i < n * n; i++)
     if (!Number.isFinite(cv.covariance[i])) throw new RangeError('the data contain non-finite samples (NaN or infinity)');
   const pw = pcaWhitening(cv.covariance, n, { nComponents: opts.nComponents });
@@ -171,7 +175,8 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   if (k === 0) throw new RangeError(`the channel data have rank 0 (${pw.rankReason})`);
   if (nSamples < 20 * k * k)
     warnings.push(`${nSamples} samples for ${k} components is fewer than the common rule of thumb of 20·k² = ${20 * k * k}; components may be unreliable`);
-  const Z = applyWhitening(pw.whitening, k, n, cv.means, X, nSamples, opts.threads ? opts.threads.allocate(k * nSamples) : undefined);
+  const Z = applyWhitening(pw.whitening, k, n, cv.means, X, nSamples, opts.threads ? opts.threads.allocate(k * nSamples) : undefined, pollWork);
+  X = null; // the filtered copy is no longer needed; let it be collected during the ICA
   checkAbort();
 
   // 4. ICA

@@ -22,9 +22,16 @@ export interface CovarianceResult {
 
 /**
  * Mean and covariance of channel-major X (n × nSamples) over `segments` (default all samples), in float64.
- * Fewer than two samples give a zero covariance.
+ * Fewer than two samples give a zero covariance. `poll` is called every 64 tiles (16 384 samples), e.g. to
+ * report progress or throw on cancel.
  */
-export function covariance(X: Float32Array, n: number, nSamples: number, segments?: SampleRanges): CovarianceResult {
+export function covariance(
+  X: Float32Array,
+  n: number,
+  nSamples: number,
+  segments?: SampleRanges,
+  poll?: () => void,
+): CovarianceResult {
   const ranges: SampleRanges = segments ?? [[0, nSamples]];
   const means = new Float64Array(n);
   let count = 0;
@@ -56,6 +63,7 @@ export function covariance(X: Float32Array, n: number, nSamples: number, segment
         for (let t = 0; t < len; t++) tile[dst + t] = X[src + t] - mu;
       }
       accumulateProductTransposed(tile, SAMPLE_TILE, n, tile, SAMPLE_TILE, n, len, cov);
+      if (poll && ((t0 - a) / SAMPLE_TILE) % 64 === 63) poll();
     }
   }
   const norm = count > 1 ? 1 / (count - 1) : 0;
@@ -167,6 +175,7 @@ export function pcaWhitening(cov: Float64Array, n: number, opts: { nComponents?:
 /**
  * Z = Ww (X − means) for channel-major X (n × nSamples) into `out` (k × nSamples, channel-major, Float32).
  * Float32 storage of unit-variance whitened data keeps 7 significant digits, ample for ICA, and halves memory.
+ * Works in chunks of 16 384 samples through a small buffer; `poll` is called after each chunk.
  */
 export function applyWhitening(
   Ww: Float64Array,
@@ -176,14 +185,27 @@ export function applyWhitening(
   X: Float32Array,
   nSamples: number,
   out: Float32Array = new Float32Array(k * nSamples),
+  poll?: () => void,
 ): Float32Array {
-  multiplyChannelMajor(Ww, k, n, X, nSamples, out);
+  const offsets = new Float64Array(k);
   for (let i = 0; i < k; i++) {
     let off = 0;
     for (let c = 0; c < n; c++) off += Ww[i * n + c] * means[c];
-    if (off === 0) continue;
-    const row = out.subarray(i * nSamples, (i + 1) * nSamples);
-    for (let t = 0; t < nSamples; t++) row[t] -= off;
+    offsets[i] = off;
+  }
+  const CHUNK = 16384;
+  const buf = new Float64Array(k * Math.min(CHUNK, nSamples));
+  for (let a = 0; a < nSamples; a += CHUNK) {
+    const b = Math.min(nSamples, a + CHUNK);
+    const len = b - a;
+    multiplyChannelMajor(Ww, k, n, X, nSamples, buf, a, b);
+    for (let i = 0; i < k; i++) {
+      const off = offsets[i];
+      const src = i * len;
+      const dst = i * nSamples + a;
+      for (let t = 0; t < len; t++) out[dst + t] = buf[src + t] - off;
+    }
+    poll?.();
   }
   return out;
 }
