@@ -19,6 +19,7 @@ import {
   windowActivations,
   windowChecksum,
 } from '../src/core/review/preview-projection.ts';
+import { minMaxColumns } from '../src/ui/plots/trace-layout.ts';
 
 const AREA = 'preview';
 const N = 64;
@@ -68,6 +69,12 @@ export async function bench(): Promise<BenchRow[]> {
   }, 200);
   const checksumMs = await perCallMs(() => windowChecksum(win.cleaned), 20);
   const varianceMs = await perCallMs(() => removedVarianceShare(win), 20);
+  // The arithmetic part of repainting the cleaned layer: 64 rows min/max-decimated to 1000 pixel columns.
+  const mn = new Float64Array(1000);
+  const mx = new Float64Array(1000);
+  const decimateMs = await perCallMs(() => {
+    for (let c = 0; c < N; c++) minMaxColumns(win.cleaned, c * L, (c + 1) * L, 1000, mn, mx);
+  }, 20);
   const activationsMs = await medianMs(() => windowActivations(W, K, N, X, L, m), 7);
   const fullMs = await medianMs(() => recomputeCleaned(X, N, L, A, S, K, removed), 5);
 
@@ -82,6 +89,10 @@ export async function bench(): Promise<BenchRow[]> {
     },
     { area: AREA, case: `checksum of the cleaned window (${size})`, oursMs: checksumMs, referenceMs: null, reference: '—' },
     { area: AREA, case: `variance removed per channel (${size})`, oursMs: varianceMs, referenceMs: null, reference: '—' },
+    {
+      area: AREA, case: `min/max decimation of the cleaned layer, 64 rows → 1000 px`, oursMs: decimateMs, referenceMs: null,
+      reference: '— (canvas stroking is measured in the browser)',
+    },
     {
       area: AREA, case: `per-toggle total: update + checksum + variance map`, oursMs: toggleMs + checksumMs + varianceMs,
       referenceMs: null, reference: 'sum of the three rows above',
