@@ -19,7 +19,7 @@
  * reproduces the map exactly through the forward model and the average reference.
  */
 import { createHeadModel, dipolePotentials, type HeadModel } from '../headmodel/forward.ts';
-import { streamRng, type Rng } from './rng.ts';
+import { fnv1a32, streamRng, type Rng } from './rng.ts';
 import type { Scenario } from './scenario.ts';
 import type { TrueDipole, TrueSourceClass } from './truth.ts';
 import {
@@ -129,9 +129,7 @@ function sensorMap(ctx: SourceContext, weights: (label: string, c: number) => nu
 
 /** A deterministic per-label number in [0, 1) (FNV-1a of the label), for fixed sensor-space gains. */
 function labelHash01(label: string): number {
-  let h = 0x811c9dc5;
-  for (let i = 0; i < label.length; i++) h = Math.imul(h ^ label.charCodeAt(i), 0x01000193) >>> 0;
-  return h / 4294967296;
+  return fnv1a32(label) / 4294967296;
 }
 
 /** Raised-cosine-edged box of duration durS with 40 ms edges, peak 1, for muscle-burst envelopes. */
