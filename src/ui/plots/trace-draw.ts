@@ -44,11 +44,12 @@ export interface TraceSpec {
   readonly panelTitles?: readonly [string, string];
 }
 
-const LABEL_W = 52;
 const BOTTOM = 18;
 const FONT = '10px system-ui, sans-serif';
 
 interface Geometry {
+  /** Width of the row-label column, px. */
+  readonly labelW: number;
   readonly top: number;
   readonly centres: Float64Array;
   readonly rowH: number;
@@ -57,22 +58,31 @@ interface Geometry {
   readonly durS: number;
 }
 
-function geometry(spec: TraceSpec): Geometry {
+/** Row-label column wide enough for the longest label (measured in the canvas font), at least 40 px. */
+function labelWidth(ctx: CanvasRenderingContext2D, labels: readonly string[]): number {
+  ctx.font = FONT;
+  let w = 0;
+  for (const l of labels) w = Math.max(w, ctx.measureText(l).width);
+  return Math.ceil(Math.max(40, w + 10));
+}
+
+function geometry(spec: TraceSpec, labelW: number): Geometry {
   // Side by side, the panel titles take the first line and the event labels the second.
   const top = spec.sideBySide ? 28 : 14;
   const nRows = spec.rowLabels.length;
   const panels = spec.sideBySide ? 2 : 1;
   return {
+    labelW,
     top,
     centres: rowCentres(nRows, top, spec.height - BOTTOM),
     rowH: nRows ? (spec.height - top - BOTTOM) / nRows : 0,
     panels,
-    plotW: (spec.width - LABEL_W - 8 * panels) / panels,
+    plotW: (spec.width - labelW - 8 * panels) / panels,
     durS: spec.length / spec.sampleRate,
   };
 }
 
-const panelX = (g: Geometry, p: number) => LABEL_W + p * (g.plotW + 8);
+const panelX = (g: Geometry, p: number) => g.labelW + p * (g.plotW + 8);
 
 /** Background, row labels, time grid, events and panel titles. */
 function paintFrame(ctx: CanvasRenderingContext2D, spec: TraceSpec, g: Geometry): void {
@@ -200,7 +210,7 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
   if (canvas.height !== H) canvas.height = H;
   const ctx = canvas.getContext('2d');
   if (!ctx) return;
-  const g = geometry(spec);
+  const g = geometry(spec, labelWidth(ctx, spec.rowLabels));
   let bg = backgrounds.get(spec);
   if (!bg || bg.width !== W || bg.height !== H) {
     bg = document.createElement('canvas');
