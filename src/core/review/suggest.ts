@@ -15,14 +15,16 @@
  * | cardiac, line-noise, electrode | remove     | remove       | remove                  |
  * | motion (step-locked)           | remove     | remove       | remove                  |
  * | neural                         | keep       | keep         | keep                    |
- * | two or more signatures (mixed) | undecided  | undecided    | keep                    |
+ * | weak artifact + strong brain   | undecided  | undecided    | keep                    |
+ * | several artifact signatures    | the most specific one names it (SIGNATURE_PRECEDENCE)   |
  * | nothing recognised (unclear)   | keep       | keep         | keep                    |
  *
  * Common practice encoded (issue 6, METHODS §14): ocular components go for every aim; muscle that is not
  * time-locked averages out of ERPs (and a low-pass helps) but biases induced power above ~15 Hz; a
  * component that cannot be identified is kept (removing brain signal is the costlier mistake — our reading
- * of common practice), so "unclear" is a keep, while "mixed" (artifact and brain signatures together) is
- * left undecided for the reviewer except under `conservative`, which keeps it. A well-fitted dipole (low
+ * of common practice), so "unclear" is a keep, while "mixed" (a weak artifact signature alongside strong
+ * brain evidence: a dipole inside the brain with 1/f, alpha or time-locking) is left undecided for the
+ * reviewer except under `conservative`, which keeps it. A well-fitted dipole (low
  * RV) inside the brain with a 1/f spectrum and an alpha peak speaks for neural origin and, when present,
  * outweighs a weak muscle signature.
  */
@@ -100,8 +102,12 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
     if (slow && (eogHit || anti)) because.push(`${pct(e.lowFrequencyShare)} of 1–45 Hz power below 4 Hz`);
     const steps = e.stepLikeness >= t.eyeMovementStepLikeness;
     if (steps && (eogHit || anti)) because.push(`slow jumps persist as steps (${fix(e.stepLikeness)})`);
-    if ((eogHit && (anti || slow || steps)) || (anti && slow && (steps || eogHit)) || (anti && slow && e.frontalGradient >= 1))
-      findings.push({ signature: 'eye-movement', strong: eogHit || (anti && slow && steps), because });
+    // Without an EOG correlation the map must also reach the front of the head: an antisymmetric slow
+    // map over temporal or parietal sites is more likely a pair of brain sources merged into one component.
+    const frontal = e.frontalGradient >= 1;
+    if (anti && frontal && !eogHit) because.push(`frontal-pole weight ${fix(e.frontalGradient, 1)}× the rest`);
+    if ((eogHit && (anti || slow || steps)) || (anti && slow && frontal))
+      findings.push({ signature: 'eye-movement', strong: eogHit || (anti && slow && frontal && steps), because });
   }
 
   // Single electrode
@@ -196,8 +202,9 @@ export function suggestVerdict(e: SuggestionInput, aim: Aim, t: Thresholds = def
   const others = artifacts.slice(1).map((f) => f.signature);
   const also = others.length ? [`also shows signs of ${others.join(' and ')}: ${artifacts.slice(1).flatMap((f) => f.because).join('; ')}`] : [];
 
-  // Brain-like evidence against a weak artifact signature: leave it to the reviewer.
-  if (!ocular && neural?.strong && artifacts.every((f) => !f.strong)) {
+  // Brain-like evidence against a weak artifact signature (ocular ones included: an ocular reading from
+  // the map alone, without an EOG correlation, can be two brain sources merged): leave it to the reviewer.
+  if (neural?.strong && artifacts.every((f) => !f.strong)) {
     return {
       verdict: aim === 'conservative' ? 'keep' : 'undecided',
       reason: 'mixed',

@@ -83,6 +83,17 @@ describe('suggestVerdict', () => {
     expect(suggestVerdict(saccade, 'erp').because.join(' ')).toMatch(/antisymmetric \(0\.97/);
   });
 
+  it('does not call an antisymmetric slow map an eye movement when it does not reach the front of the head', () => {
+    const temporalPair = evidence({ lateralAntisymmetry: 0.98, lowFrequencyShare: 0.55, stepLikeness: 0.8, frontalGradient: 0.1, aperiodic: { exponent: 1.6, offset: 1, rangeHz: [2, 40] }, dipole: alpha.dipole });
+    expect(suggestVerdict(temporalPair, 'erp')).toMatchObject({ verdict: 'keep', reason: 'neural' });
+  });
+
+  it('leaves a map-only ocular reading on a dipolar alpha component to the reviewer', () => {
+    const m = { ...alpha, lateralAntisymmetry: 0.9, lowFrequencyShare: 0.6, frontalGradient: 1.2, stepLikeness: 0.1 };
+    expect(suggestVerdict(m, 'erp')).toMatchObject({ verdict: 'undecided', reason: 'mixed' });
+    expect(suggestVerdict(m, 'conservative')).toMatchObject({ verdict: 'keep', reason: 'mixed' });
+  });
+
   it('keeps muscle that is not time-locked for ERPs but removes it for oscillations (common practice)', () => {
     const m = { ...muscle, erp: erp(0.001, 0.6) };
     expect(suggestVerdict(m, 'erp')).toMatchObject({ verdict: 'keep', reason: 'muscle' });
