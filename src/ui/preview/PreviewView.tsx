@@ -12,7 +12,7 @@
  *   preview-traces             the traces canvas
  *   preview-cleaned-checksum   8 hex digits: checksum of the cleaned window (changes when the removed set changes)
  *   preview-removed-count      number of components currently removed
- *   preview-erp-before         ERP peak in the ROI window before cleaning (µV, two decimals, or "n/a")
+ *   preview-erp-before         ERP peak in the ROI window before cleaning (µV, three decimals, or "n/a")
  *   preview-erp-after          the same after cleaning
  *   preview-band-before, preview-band-after   band power in the ROI band (µV², three decimals)
  *   preview-update-ms          last measured toggle-to-repaint time (ms)

@@ -39,9 +39,9 @@ export function RegionErpPanel({ times, before, after, nEpochs, eventLabel, regi
       )}
       <dl className="region-figures">
         <dt>Peak {windowS[0]}–{windowS[1]} s before</dt>
-        <dd><span data-testid="preview-erp-before">{formatValue(pb?.value ?? NaN)}</span> µV</dd>
+        <dd><span data-testid="preview-erp-before">{formatValue(pb?.value ?? NaN, 3)}</span> µV</dd>
         <dt>after</dt>
-        <dd><span data-testid="preview-erp-after">{formatValue(pa?.value ?? NaN)}</span> µV</dd>
+        <dd><span data-testid="preview-erp-after">{formatValue(pa?.value ?? NaN, 3)}</span> µV</dd>
       </dl>
       <p className="note">
         Mean of {regionLabel}; {nEpochs} epochs around “{eventLabel ?? '—'}”, −0.2 to 0.8 s, baseline −0.2–0 s. The whole recording is

@@ -18,8 +18,8 @@ describe('RegionErpPanel', () => {
     const html = renderToStaticMarkup(
       <RegionErpPanel times={times} before={before} after={after} nEpochs={12} eventLabel="tone" regionLabel="Pz" windowS={[0.15, 0.35]} />,
     );
-    expect(html).toContain('<span data-testid="preview-erp-before">-6.00</span>');
-    expect(html).toContain('<span data-testid="preview-erp-after">3.00</span>');
+    expect(html).toContain('<span data-testid="preview-erp-before">-6.000</span>');
+    expect(html).toContain('<span data-testid="preview-erp-after">3.000</span>');
   });
   it('says n/a when there are no events', () => {
     const html = renderToStaticMarkup(
