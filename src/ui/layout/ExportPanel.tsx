@@ -18,7 +18,7 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
   const [format, setFormat] = useState<'EDF+C' | 'BDF+C'>('EDF+C');
   const [keepIdentity, setKeepIdentity] = useState(false);
   const [methods, setMethods] = useState<string | null>(null);
-  const first = useRef<HTMLInputElement>(null);
+  const first = useRef<HTMLButtonElement>(null);
   useEffect(() => first.current?.focus(), []);
 
   const stem = exportStem(workbenchStore.getState());
@@ -31,11 +31,11 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
       <h2>Export and import</h2>
       <label className="field">
         Reviewer (written into the decisions file){' '}
-        <input ref={first} type="text" value={reviewer} onChange={(e) => setReviewer(e.target.value)} data-testid="reviewer-input" />
+        <input type="text" value={reviewer} onChange={(e) => setReviewer(e.target.value)} data-testid="reviewer-input" />
       </label>
       <div className="export-group" role="group" aria-label="Decisions">
         <h3>Decisions</h3>
-        <button type="button" data-testid="export-decisions-json" onClick={() => saveText(decisionsJsonFromState(workbenchStore.getState()), '_decisions.json', 'application/json')}>
+        <button ref={first} type="button" data-testid="export-decisions-json" onClick={() => saveText(decisionsJsonFromState(workbenchStore.getState()), '_decisions.json', 'application/json')}>
           Save decisions (JSON)
         </button>
         <button type="button" data-testid="export-decisions-tsv" onClick={() => saveText(decisionsTsvFromState(workbenchStore.getState()), '_decisions.tsv', 'text/tab-separated-values')}>
