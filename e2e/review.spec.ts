@@ -92,6 +92,16 @@ test('reviewing the demo participant: decide, preview, focus, export, reload, ke
   const tsv = await readFile(await tsvDownload.path(), 'utf8');
   expect(tsv.split('\n')[0]).toBe('index\tverdict\treason\tnote');
   expect(tsv.split('\n')[1]).toBe('1\tremove\tblink\tfrontal, blink-shaped <b>not html</b>');
+  await page.getByTestId('show-methods').click();
+  await expect(page.getByTestId('methods-text')).toContainText(`1 of ${n} components were removed — 1 (blink)`);
+  // The cleaned recording, written in a worker: an EDF+ file with the identifying fields blanked.
+  const [edfDownload] = await Promise.all([page.waitForEvent('download', { timeout: 60_000 }), page.getByTestId('export-cleaned').click()]);
+  expect(edfDownload.suggestedFilename()).toMatch(/_cleaned\.edf$/);
+  const edf = await readFile(await edfDownload.path());
+  expect(edf.subarray(0, 8).toString('latin1')).toBe('0       ');
+  // EDF+ anonymous patient field "X X X X" (Kemp & Olivan 2003, EDF+ §2.1.3.3) and "EDF+C" in the reserved field.
+  expect(edf.subarray(8, 88).toString('latin1').trim()).toBe('X X X X');
+  expect(edf.subarray(192, 197).toString('latin1')).toBe('EDF+C');
   await page.keyboard.press('Escape');
 
   // Reload: the saved review is offered and restored.
