@@ -1,10 +1,11 @@
 /**
  * Cardiac evidence (METHODS §14, common practice): a heartbeat component repeats sharp QRS complexes every
- * 0.4–1.5 s (40–150 beats per minute). We smooth the activation over ≈ 20 ms (a boxcar, so broadband
- * noise above ~25 Hz does not swamp it), take the change over ≈ 20 ms and square it (slope energy, which
- * the sharp QRS dominates), average that in blocks of ≈ 20 ms, remove the mean and look for the largest
- * local maximum of its normalised autocorrelation at lags 0.4–1.5 s that also exceeds the value at half
- * that lag, after a 100 ms moving average of the block energies (a periodic train, not a slowly decaying envelope). Our construction.
+ * 0.4–1.5 s (40–150 beats per minute). We smooth the activation over ≈ 20 ms (a boxcar, so broadband noise
+ * above ~25 Hz does not swamp it), take the change over ≈ 20 ms and square it (slope energy, which the
+ * sharp QRS dominates), sum that in blocks of ≈ 40 ms, smooth the block energies over 120 ms, remove the
+ * mean, and look for the largest local maximum of the normalised autocorrelation at lags 0.4–1.5 s that
+ * also exceeds the value at half that lag (a periodic train, not a slowly decaying envelope). Our
+ * construction.
  */
 export interface CardiacResult {
   /** Beats per minute at the peak (parabolic refinement), or null when there is no qualifying peak. */
@@ -15,32 +16,37 @@ export interface CardiacResult {
 
 export function cardiacPeriodicity(x: ArrayLike<number>, fs: number, minBpm = 40, maxBpm = 150): CardiacResult {
   const none = { bpm: null, peak: 0 };
-  const block = Math.max(1, Math.round(fs * 0.02));
+  const B = Math.max(1, Math.round(fs * 0.02)); // ≈ 20 ms: boxcar width and slope span
+  const block = 2 * B; // ≈ 40 ms energy blocks (the QRS is then spread over 100 ms anyway)
   const dt = block / fs;
-  const nb = Math.floor((x.length - 1) / block);
+  const nb = Math.floor(x.length / block);
   const minLag = Math.max(2, Math.floor(60 / maxBpm / dt));
   const maxLag = Math.ceil(60 / minBpm / dt);
   if (nb < 2 * maxLag + 2) return none;
-  // y = 20 ms boxcar of x (prefix sums); slope = y[t] − y[t − block]
-  const pre = new Float64Array(x.length + 1);
-  for (let i = 0; i < x.length; i++) pre[i + 1] = pre[i] + x[i];
-  const smooth = (i: number) => (pre[i + 1] - pre[Math.max(0, i + 1 - block)]) / Math.min(block, i + 1);
+  // y = B-sample boxcar of x (running sum); slope d = y[i] − y[i − B], squared and summed per block.
+  const ring = new Float64Array(B); // the last B boxcar outputs
   const e = new Float64Array(nb);
+  let run = 0;
   let mean = 0;
   for (let b = 0; b < nb; b++) {
     let s = 0;
     for (let j = 0; j < block; j++) {
       const i = b * block + j;
-      const d = i >= 2 * block ? smooth(i) - smooth(i - block) : 0;
-      s += d * d;
+      run += x[i] - (i >= B ? x[i - B] : 0);
+      const y = run / B;
+      const slot = i % B;
+      if (i >= 2 * B) {
+        const d = y - ring[slot];
+        s += d * d;
+      }
+      ring[slot] = y;
     }
     e[b] = s;
-    mean += s;
   }
-  // 100 ms moving average of the block energies: keeps the beat (a ~40 ms QRS repeating every 0.4–1.5 s)
+  // 120 ms (3-block) moving average of the block energies: keeps the beat (a ~40 ms QRS repeating every 0.4–1.5 s)
   // and removes the ripple of ongoing rhythms (a 6 Hz theta's slope energy ripples at 12 Hz).
   {
-    const half = 2;
+    const half = 1; // 3 blocks of 40 ms
     const sm = new Float64Array(nb);
     let acc = 0;
     let lo = 0;
@@ -52,6 +58,7 @@ export function cardiacPeriodicity(x: ArrayLike<number>, fs: number, minBpm = 40
     }
     e.set(sm);
   }
+  for (let b = 0; b < nb; b++) mean += e[b];
   mean /= nb;
   let r0 = 0;
   for (let b = 0; b < nb; b++) {

@@ -60,7 +60,7 @@ export interface EvidenceInput {
   readonly thresholds?: Partial<Thresholds>;
   /** 0-based [start, end) range of components to compute (default all); indices stay global. */
   readonly componentRange?: readonly [number, number];
-  /** Shuffles for the time-locking permutation test (default 49). */
+  /** Most shuffles for the time-locking permutation test (default 19, so p ≥ 0.05; sequential stopping after 3 exceedances). */
   readonly permutations?: number;
   /** Override the dipole fit (tests, or a fitter shared across calls); null disables fitting. */
   readonly dipoleFit?: DipoleFitFn | null;
@@ -315,7 +315,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
       let erp: ErpEvidence | null = null;
       let epochImage: EpochImage | null = null;
       if (epochName && epochOnsets.length >= 2) {
-        const locked = eventLocked(scaled, fs, epochOnsets, win, input.permutations ?? 49, 1 + i);
+        const locked = eventLocked(scaled, fs, epochOnsets, win, input.permutations ?? 19, 1 + i);
         if (locked) {
           erp = {
             event: epochName,

@@ -208,6 +208,13 @@ export function eogReferences(
   };
 }
 
+/** Median of a typed array (sorted copy; native numeric sort). */
+function medianOf(a: Float64Array): number {
+  if (a.length === 0) return 0;
+  const s = a.slice().sort();
+  return s[Math.floor(s.length / 2)];
+}
+
 /**
  * Step-likeness of an activation (0…1): the signal is averaged in 50 ms blocks; a "jump" is a local
  * maximum of |mean(next 200 ms) − mean(previous 200 ms)| above 4 robust SDs (MAD × 1.4826) of that
@@ -231,11 +238,9 @@ export function stepLikeness(x: ArrayLike<number>, fs: number): number {
   const mean = (a: number, b: number) => (pre[b] - pre[a]) / (b - a);
   const J = new Float64Array(nb);
   for (let b = 4; b + 12 <= nb; b++) J[b] = mean(b, b + 4) - mean(b - 4, b);
-  const absJ = Array.from(J.subarray(4, nb - 12), Math.abs);
-  const sorted = absJ.slice().sort((a, b) => a - b);
-  const med = sorted[Math.floor(sorted.length / 2)] ?? 0;
-  const dev = absJ.map((v) => Math.abs(v - med)).sort((a, b) => a - b);
-  const mad = (dev[Math.floor(dev.length / 2)] ?? 0) * 1.4826;
+  const absJ = J.slice(4, nb - 12).map(Math.abs);
+  const med = medianOf(absJ);
+  const mad = medianOf(absJ.map((v) => Math.abs(v - med))) * 1.4826;
   const threshold = med + 4 * Math.max(mad, 1e-12);
   const persist: number[] = [];
   let last = -Infinity;

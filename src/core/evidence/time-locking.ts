@@ -55,15 +55,20 @@ export function mulberry32(seed: number): () => number {
 
 export interface LockingTest {
   readonly observed: number;
-  /** Mean locked share over shuffled event times. */
+  /** Mean locked share over the shuffled event times that were drawn. */
   readonly chance: number;
-  /** (1 + #{shuffled ≥ observed}) / (1 + nPermutations). */
+  /** Sequential Monte Carlo p-value (Besag & Clifford 1991, Biometrika 78:301–304): h / m when the run
+   * stopped after h = `stopAfter` shuffles reached the observed share in m draws, else (1 + #≥) / (1 + n). */
   readonly p: number;
+  /** Shuffles actually drawn. */
+  readonly permutations: number;
 }
 
 /**
  * Permutation test of the locked share: the same number of events placed uniformly at random (seeded)
- * wherever a whole epoch fits, `nPermutations` times.
+ * wherever a whole epoch fits, up to `nPermutations` times. Sequential (Besag & Clifford 1991): the run
+ * stops once `stopAfter` shuffles (default 3) reach the observed share, because the p-value can then no
+ * longer fall below 3 / nPermutations — most components, which are not locked, need only a few shuffles.
  */
 export function lockingPermutationTest(
   x: ArrayLike<number>,
@@ -72,23 +77,27 @@ export function lockingPermutationTest(
   length: number,
   nPermutations = 49,
   seed = 1,
+  stopAfter = 3,
 ): LockingTest {
   const scratch = new Float64Array(length);
   const observed = lockedShare(x, eventSamples, firstOffset, length, scratch);
   const lo = -firstOffset;
   const hi = x.length - length - firstOffset; // last valid event sample + 1
-  if (!Number.isFinite(observed) || hi <= lo) return { observed, chance: NaN, p: NaN };
+  if (!Number.isFinite(observed) || hi <= lo || nPermutations < 1) return { observed, chance: NaN, p: NaN, permutations: 0 };
   const rand = mulberry32(seed);
   const fake = new Int32Array(eventSamples.length);
   let sum = 0;
   let atLeast = 0;
-  for (let p = 0; p < nPermutations; p++) {
+  let drawn = 0;
+  while (drawn < nPermutations) {
     for (let r = 0; r < fake.length; r++) fake[r] = lo + Math.floor(rand() * (hi - lo));
     const v = lockedShare(x, fake, firstOffset, length, scratch);
+    drawn++;
     sum += v;
     if (v >= observed) atLeast++;
+    if (atLeast >= stopAfter) return { observed, chance: sum / drawn, p: atLeast / drawn, permutations: drawn };
   }
-  return { observed, chance: sum / nPermutations, p: (1 + atLeast) / (1 + nPermutations) };
+  return { observed, chance: sum / drawn, p: (1 + atLeast) / (1 + drawn), permutations: drawn };
 }
 
 /**
