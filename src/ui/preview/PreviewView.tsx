@@ -12,7 +12,8 @@
  *   preview-traces             the traces canvas
  *   preview-cleaned-checksum   8 hex digits: checksum of the cleaned window (changes when the removed set changes)
  *   preview-removed-count      number of components currently removed
- *   preview-erp-before         ERP peak in the ROI window before cleaning (µV, three decimals, or "n/a")
+ *   preview-erp-before         ERP peak in the ROI window before cleaning (µV, three decimals; "n/a" without
+ *                              epochs; "…" for the moment the epochs are being averaged after opening)
  *   preview-erp-after          the same after cleaning
  *   preview-band-before, preview-band-after   band power in the ROI band (µV², three decimals)
  *   preview-update-ms          last measured toggle-to-repaint time (ms)
@@ -23,6 +24,7 @@ import type { Decomposition } from '../../core/decomposition.ts';
 import type { LoadedRecording } from '../../core/recording.ts';
 import {
   applyRemovedSet,
+  type RegionErpPlan,
   regionErpAfter,
   regionErpPlan,
   regionMean,
@@ -154,14 +156,26 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
   const roiRows = useMemo(() => regionChannels(aim, roi.channels, decomposition.channels, rows), [aim, roi.channels, decomposition.channels, rows]);
   const regionLabel = roiRows.map((c) => decomposition.channels[c]).join(', ') || '—';
   const eventLabel = roi.epochEvent ?? defaultEventLabel(recording.events);
-  const erpPlan = useMemo(
-    () =>
-      regionErpPlan(
+  // Epoching every channel of the whole recording takes a few tens of ms: done after the first paint of the
+  // traces (a macrotask later), and dropped if the inputs changed meanwhile.
+  const [erp, setErp] = useState<{ key: unknown[]; plan: RegionErpPlan | null } | null>(null);
+  const erpKey = [recording, fs, rows, roiRows, decomposition, k, eventLabel];
+  useEffect(() => {
+    let stale = false;
+    const key = [recording, fs, rows, roiRows, decomposition, k, eventLabel];
+    const timer = setTimeout(() => {
+      const plan = regionErpPlan(
         recording.signals.data, recording.signals.nSamples, fs, rows, roiRows,
         decomposition.unmixing, decomposition.mixing, k, eventOnsets(recording.events, eventLabel),
-      ),
-    [recording, fs, rows, roiRows, decomposition, k, eventLabel],
-  );
+      );
+      if (!stale) setErp({ key, plan });
+    }, 0);
+    return () => {
+      stale = true;
+      clearTimeout(timer);
+    };
+  }, [recording, fs, rows, roiRows, decomposition, k, eventLabel]);
+  const erpPlan = erp && erp.key.every((v, i) => v === erpKey[i]) ? erp.plan : null;
   const erpAfter = useMemo(
     () => (erpPlan ? regionErpAfter(erpPlan.before, erpPlan.componentErps, erpPlan.regionWeights, removed) : null),
     [erpPlan, removed],
@@ -236,6 +250,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
             eventLabel={eventLabel}
             regionLabel={regionLabel}
             windowS={roi.windowS}
+            pending={erpPlan === null && !(erp && erp.key.every((v, i) => v === erpKey[i]))}
           />
           <RegionSpectraPanel spectra={spectra} aim={aim} bandHz={roi.bandHz} regionLabel={regionLabel} />
         </div>

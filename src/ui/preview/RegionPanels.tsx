@@ -17,10 +17,12 @@ export interface RegionErpPanelProps {
   readonly eventLabel: string | null;
   readonly regionLabel: string;
   readonly windowS: readonly [number, number];
+  /** The epochs are still being computed. */
+  readonly pending?: boolean;
 }
 
 /** ERP at the region before and after, with the peak in the measurement window printed as numbers. */
-export function RegionErpPanel({ times, before, after, nEpochs, eventLabel, regionLabel, windowS }: RegionErpPanelProps) {
+export function RegionErpPanel({ times, before, after, nEpochs, eventLabel, regionLabel, windowS, pending = false }: RegionErpPanelProps) {
   const pb = times && before ? peakInWindow(times, before, windowS[0], windowS[1]) : null;
   const pa = times && after ? peakInWindow(times, after, windowS[0], windowS[1]) : null;
   return (
@@ -35,13 +37,19 @@ export function RegionErpPanel({ times, before, after, nEpochs, eventLabel, regi
           title={`ERP at ${regionLabel}`}
         />
       ) : (
-        <p>{eventLabel ? `No complete epoch around “${eventLabel}”.` : 'No events in this recording, so no ERP.'}</p>
+        <p>
+          {pending
+            ? 'Averaging the epochs…'
+            : eventLabel
+              ? `No complete epoch around “${eventLabel}”.`
+              : 'No events in this recording, so no ERP.'}
+        </p>
       )}
       <dl className="region-figures">
         <dt>Peak {windowS[0]}–{windowS[1]} s before</dt>
-        <dd><span data-testid="preview-erp-before">{formatValue(pb?.value ?? NaN, 3)}</span> µV</dd>
+        <dd><span data-testid="preview-erp-before">{pending ? '…' : formatValue(pb?.value ?? NaN, 3)}</span> µV</dd>
         <dt>after</dt>
-        <dd><span data-testid="preview-erp-after">{formatValue(pa?.value ?? NaN, 3)}</span> µV</dd>
+        <dd><span data-testid="preview-erp-after">{pending ? '…' : formatValue(pa?.value ?? NaN, 3)}</span> µV</dd>
       </dl>
       <p className="note">
         Mean of {regionLabel}; {nEpochs} epochs around “{eventLabel ?? '—'}”, −0.2 to 0.8 s, baseline −0.2–0 s. The whole recording is
