@@ -78,16 +78,20 @@ export async function exportCleanedRecording(format: 'EDF+C' | 'BDF+C', keepIden
   const started = performance.now();
   const task = `Writing the cleaned recording (${format.slice(0, 3)})`;
   store.setState({ progress: progressAt(task, 0, started, started, cancel) });
+  // Worker progress calls are fire-and-forget; once the bytes are here, late ones are dropped.
+  let done = false;
   try {
     const services = await getWorkbenchServices();
     const bytes = await services.writeCleaned(
       { recording: s.recording, decomposition: s.decomposition, removed: selectRemovedIndices(s), format, keepIdentity },
       controller.signal,
-      (f) => { if (!controller.signal.aborted) store.setState({ progress: progressAt(task, f, started, performance.now(), cancel) }); },
+      (f) => { if (!done && !controller.signal.aborted) store.setState({ progress: progressAt(task, f, started, performance.now(), cancel) }); },
     );
+    done = true;
     store.setState({ progress: null });
     return bytes;
   } catch (e) {
+    done = true;
     store.setState({
       progress: null,
       notice: controller.signal.aborted ? { kind: 'info', text: 'Export cancelled.' } : { kind: 'error', text: `Export failed: ${(e as Error)?.message ?? String(e)}` },

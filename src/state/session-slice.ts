@@ -31,13 +31,20 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     const cancel = () => controller.abort();
     set({ progress: progressAt(task, 0, started, started, cancel) });
     let lastMs = 0;
+    // Progress calls from a worker are fire-and-forget and may arrive after the step has finished: drop those.
+    let done = false;
     const onProgress: OnFraction = (f, eta) => {
       const t = now();
+      if (done || controller.signal.aborted) return;
       if (t - lastMs < 50 && f < 1) return; // at most ~20 store updates per second
       lastMs = t;
-      if (!controller.signal.aborted) set({ progress: progressAt(task, f, started, t, cancel, eta) });
+      set({ progress: progressAt(task, f, started, t, cancel, eta) });
     };
-    return run(onProgress);
+    try {
+      return await run(onProgress);
+    } finally {
+      done = true;
+    }
   }
 
   /** Starts a new cancellable task, cancelling any load still running. */
