@@ -8,7 +8,8 @@ import type { LoadedRecording } from '../../core/recording.ts';
 import { extractWindow } from '../../core/review/preview-projection.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { TracePlot } from '../plots/TracePlot.tsx';
-import { clampWindowStart, robustRowSpan } from '../plots/trace-layout.ts';
+import { clampWindowStart, markerEvents, robustRowSpan } from '../plots/trace-layout.ts';
+import { EventMarkerSelect } from '../plots/EventMarkerSelect.tsx';
 import type { TraceSpec } from '../plots/trace-draw.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
 import { backProjectedActivation, strongestChannels } from './focus-logic.ts';
@@ -18,6 +19,8 @@ export interface ActivationSettings {
   readonly lengthS: number;
   /** Decomposition channel indices chosen by the reviewer; null = the three strongest for the component. */
   readonly sensors: readonly number[] | null;
+  /** Event label prefixes drawn as markers; null = all. */
+  readonly markers: ReadonlySet<string> | null;
 }
 
 export interface ActivationPanelProps {
@@ -70,9 +73,9 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
       layers: [{ data, colour: '#1d232b', lineWidth: 1 }],
       rowSpan: sensorSpan,
       rowSpans,
-      events: recording.events.filter((e) => e.source !== 'boundary'),
+      events: markerEvents(recording.events, settings.markers),
     };
-  }, [signals, rows, start, end, L, decomposition, n, k, i, index, strongest, sensors, fs, recording.events, boxWidth]);
+  }, [signals, rows, start, end, L, decomposition, n, k, i, index, strongest, sensors, fs, recording.events, settings.markers, boxWidth]);
 
   const controls = (
     <>
@@ -102,6 +105,7 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
         </select>
       </label>
       {settings.sensors ? <button type="button" onClick={() => onSettings({ sensors: null })}>strongest</button> : null}
+      <EventMarkerSelect events={recording.events} shown={settings.markers} onChange={(markers) => onSettings({ markers })} />
     </>
   );
   return (

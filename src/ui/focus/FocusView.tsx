@@ -39,7 +39,7 @@ export function FocusView() {
   const select = useWorkbench((s) => s.select);
   const setScreen = useWorkbench((s) => s.setScreen);
   const [epochSettings, setEpochSettings] = useState<EpochSettings>({ sort: 'order', smoothing: 1, amplitudeWindowS: roiWindow });
-  const [activation, setActivation] = useState<ActivationSettings>({ startS: 0, lengthS: 10, sensors: null });
+  const [activation, setActivation] = useState<ActivationSettings>({ startS: 0, lengthS: 10, sensors: null, markers: null });
 
   const n = decomposition?.nComponents ?? 0;
   const index = selected ?? (n > 0 ? 1 : null);

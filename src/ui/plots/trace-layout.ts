@@ -92,3 +92,23 @@ export function clampWindowStart(startS: number, lengthS: number, durationS: num
   if (!(lengthS < durationS)) return 0;
   return Math.min(Math.max(0, startS), durationS - lengthS);
 }
+
+/** The label prefix before "/" ("tone" for "tone/rare"); the whole label when it has none. */
+export function eventPrefix(label: string): string {
+  return label.split('/')[0];
+}
+
+/** Distinct event label prefixes in first-seen order (boundaries of discontinuous files excluded). */
+export function eventPrefixes(events: readonly { label: string; source?: string }[]): string[] {
+  const out = new Set<string>();
+  for (const e of events) if (e.source !== 'boundary' && e.label) out.add(eventPrefix(e.label));
+  return [...out];
+}
+
+/**
+ * Events shown as markers: all (null), none (empty set), or those whose prefix is in `shown`.
+ * Boundaries of discontinuous files are never drawn as events.
+ */
+export function markerEvents<E extends { label: string; source?: string }>(events: readonly E[], shown: ReadonlySet<string> | null): E[] {
+  return events.filter((e) => e.source !== 'boundary' && (shown === null || shown.has(eventPrefix(e.label))));
+}

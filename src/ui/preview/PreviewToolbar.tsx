@@ -1,5 +1,6 @@
 /** Window position and length (zoom), vertical gain, overlay / side by side, and the channels shown. */
 import { clampWindowStart } from '../plots/trace-layout.ts';
+import { EventMarkerSelect } from '../plots/EventMarkerSelect.tsx';
 
 export interface PreviewSettings {
   readonly startS: number;
@@ -9,6 +10,8 @@ export interface PreviewSettings {
   readonly mode: 'overlay' | 'side-by-side';
   /** Vertical magnification (1 = about ±3 robust SD per row). */
   readonly gain: number;
+  /** Event label prefixes drawn as markers; null = all. */
+  readonly markers: ReadonlySet<string> | null;
 }
 
 export interface PreviewToolbarProps {
@@ -17,12 +20,13 @@ export interface PreviewToolbarProps {
   readonly channels: readonly string[];
   readonly rows: Int32Array;
   readonly regionRows: readonly number[];
+  readonly events: readonly { label: string; source?: string }[];
   readonly onChange: (patch: Partial<PreviewSettings>) => void;
 }
 
 const LENGTHS_S = [2, 5, 10, 20, 30, 60];
 
-export function PreviewToolbar({ settings, durationS, channels, rows, regionRows, onChange }: PreviewToolbarProps) {
+export function PreviewToolbar({ settings, durationS, channels, rows, regionRows, events, onChange }: PreviewToolbarProps) {
   const { startS, lengthS } = settings;
   const step = (dir: number) => onChange({ startS: clampWindowStart(startS + dir * lengthS * 0.8, lengthS, durationS) });
   const present = channels.map((_, c) => c).filter((c) => rows[c] >= 0);
@@ -57,6 +61,7 @@ export function PreviewToolbar({ settings, durationS, channels, rows, regionRows
       >
         {settings.mode === 'overlay' ? 'side by side' : 'overlay'}
       </button>
+      <EventMarkerSelect events={events} shown={settings.markers} onChange={(markers) => onChange({ markers })} />
       <label className="channel-select">
         Channels{' '}
         <select

@@ -37,7 +37,7 @@ import { decompositionMontage } from '../plots/montage-positions.ts';
 import { TopographyMap } from '../plots/TopographyMap.tsx';
 import { TracePlot } from '../plots/TracePlot.tsx';
 import { drawTraces, type TraceSpec } from '../plots/trace-draw.ts';
-import { clampWindowStart, robustRowSpan } from '../plots/trace-layout.ts';
+import { clampWindowStart, markerEvents, robustRowSpan } from '../plots/trace-layout.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
 import { PreviewToolbar, type PreviewSettings } from './PreviewToolbar.tsx';
 import { RegionErpPanel, RegionSpectraPanel } from './RegionPanels.tsx';
@@ -82,6 +82,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
     channels: defaultTraceChannels(rows, 16),
     mode: 'overlay',
     gain: 1,
+    markers: null,
   }));
   const startS = clampWindowStart(settings.startS, settings.lengthS, durationS);
   const start = Math.round(startS * fs);
@@ -141,11 +142,11 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
         { data: win.cleaned, colour: side ? '#1d232b' : '#1f4e8c', lineWidth: 1, panel: 1 },
       ],
       rowSpan: rowSpan / settings.gain,
-      events: recording.events.filter((e) => e.source !== 'boundary'),
+      events: markerEvents(recording.events, settings.markers),
       sideBySide: side,
       panelTitles: ['original', 'cleaned'],
     };
-  }, [win, settings.channels, settings.mode, settings.gain, decomposition.channels, length, fs, start, rowSpan, recording.events, tracesWidth]);
+  }, [win, settings.channels, settings.mode, settings.gain, settings.markers, decomposition.channels, length, fs, start, rowSpan, recording.events, tracesWidth]);
   specRef.current = spec;
 
   // --- figures that follow the verdicts (recomputed per version) ---------------------------------------
@@ -193,6 +194,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
         channels={decomposition.channels}
         rows={rows}
         regionRows={roiRows}
+        events={recording.events}
         onChange={(p) => setSettings((s) => ({ ...s, ...p }))}
       />
       <div className="preview-grid">

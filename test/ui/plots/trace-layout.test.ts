@@ -46,3 +46,22 @@ describe('eventsInWindow and clampWindowStart', () => {
     expect(clampWindowStart(4, 10, 6)).toBe(0);
   });
 });
+
+describe('event markers', () => {
+  const ev = [
+    { onset: 1, label: 'tone/rare', source: 'events-tsv' },
+    { onset: 2, label: 'step/left', source: 'events-tsv' },
+    { onset: 3, label: 'tone/standard', source: 'events-tsv' },
+    { onset: 4, label: 'boundary', source: 'boundary' },
+  ];
+  it('lists the label prefixes once, in order, without boundaries', async () => {
+    const { eventPrefixes } = await import('../../../src/ui/plots/trace-layout.ts');
+    expect(eventPrefixes(ev)).toEqual(['tone', 'step']);
+  });
+  it('keeps all events, none, or those of the chosen prefixes', async () => {
+    const { markerEvents } = await import('../../../src/ui/plots/trace-layout.ts');
+    expect(markerEvents(ev, null).map((e) => e.onset)).toEqual([1, 2, 3]);
+    expect(markerEvents(ev, new Set())).toEqual([]);
+    expect(markerEvents(ev, new Set(['tone'])).map((e) => e.onset)).toEqual([1, 3]);
+  });
+});
