@@ -11,6 +11,10 @@ export function Board() {
   return (
     <section className="board" aria-label="Component board" data-testid="board">
       <BoardToolbar shown={order.length} />
+      <p className="key-hint" aria-label="Main keys">
+        <kbd>←</kbd> <kbd>→</kbd> move · <kbd>u</kbd> next undecided · <kbd>k</kbd> keep · <kbd>x</kbd> remove · <kbd>0</kbd> undecided ·{' '}
+        <kbd>r</kbd> reason · <kbd>a</kbd> take suggestion · <kbd>n</kbd> note · <kbd>Enter</kbd> focus · <kbd>p</kbd> preview · <kbd>?</kbd> all keys
+      </p>
       <div className="board-body">
         <ol className="tile-grid" aria-label="Components">
           {order.map((i) => (

@@ -1,0 +1,23 @@
+import { describe, expect, it } from 'vitest';
+import { tileFigures } from '../../../src/ui/board/tile-figures.ts';
+import type { ComponentEvidence } from '../../../src/core/evidence/types.ts';
+
+const evidence = {
+  index: 1, varianceShare: 0.2, highFrequencyShare: 0.004, lineNoiseShare: 0.01, kurtosis: 12.34, frontalGradient: 4.56,
+  focality: { share: 0.3, channel: 'Fp1' }, cardiac: { bpm: 72.4, peak: 0.5 }, erp: null, dipole: { residualVariance: 0.052 },
+  alphaPeakHz: null, aperiodic: { exponent: 1.5 }, stepLocking: null,
+  eogCorrelation: { vertical: 0.91, horizontal: 0.2, source: 'EOG channels', channels: { vertical: 'VEOG', horizontal: 'HEOG' } },
+  suggestions: {
+    erp: { verdict: 'remove', reason: 'blink', because: [] },
+    oscillations: { verdict: 'remove', reason: 'cardiac', because: [] },
+    conservative: { verdict: 'keep', reason: 'neural', because: [] },
+  },
+} as unknown as ComponentEvidence;
+
+describe('tileFigures', () => {
+  it('shows the figures behind the suggested reason, each with its unit', () => {
+    expect(tileFigures(evidence, 'erp').map((f) => `${f.label} ${f.value}`)).toEqual(['EOG |r| 0.91', 'frontal 4.6×', 'kurtosis 12.3']);
+    expect(tileFigures(evidence, 'oscillations').map((f) => `${f.label} ${f.value}`)).toEqual(['beat 72 bpm', 'dipole RV 5.2 %', 'kurtosis 12.3']);
+    expect(tileFigures(evidence, 'conservative').map((f) => `${f.label} ${f.value}`)).toEqual(['dipole RV 5.2 %', 'alpha none', 'time-locked n/a']);
+  });
+});
