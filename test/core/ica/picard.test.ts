@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { initialRotation, picardOrthogonal } from '../../../src/core/ica/picard.ts';
+import { initialRotation, picardOrthogonal, picardWarmStarted } from '../../../src/core/ica/picard.ts';
+import { amariIndex } from '../../../src/core/ica/amari.ts';
 import { amariIndexOf } from '../../../src/core/ica/amari.ts';
 import { applyWhitening, covariance, pcaWhitening } from '../../../src/core/linalg/whitening.ts';
 import { matrixExponential, matrixMultiply, matrixTranspose } from '../../../src/core/linalg/dense.ts';
@@ -47,6 +48,17 @@ describe('picardOrthogonal (Ablin, Cardoso & Gramfort 2018, orthogonal variant, 
     picardOrthogonal(Z, pw.k, 5000, { maxIter: 5, monitor: { iteration: (i) => seen.push(i) } });
     expect(seen.slice(0, 3)).toEqual([1, 2, 3]);
     expect(() => picardOrthogonal(Z, pw.k, 5000, { monitor: { poll: () => true } })).toThrowError(/cancelled/);
+  });
+});
+
+describe('picardWarmStarted', () => {
+  it('reaches the same fixed point as plain Picard-O (W_warm W_plainᵀ is a signed permutation, Amari < 1e-3)', () => {
+    const { pw, Z } = whitened(6, 16000, 11);
+    const plain = picardOrthogonal(Z, pw.k, 16000, { seed: 2 });
+    const warm = picardWarmStarted(Z, pw.k, 16000, { seed: 2 });
+    expect(warm.converged).toBe(true);
+    const P = matrixMultiply(warm.W, matrixTranspose(plain.W, 6, 6), 6, 6, 6);
+    expect(amariIndex(P, 6).normalised).toBeLessThan(1e-3);
   });
 });
 
