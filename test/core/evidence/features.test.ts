@@ -145,3 +145,20 @@ describe('time course evidence', () => {
     expect(stepLocking(gaussian(12, n), fs, steps)!.share).toBeLessThan(0.05);
   });
 });
+
+describe('lockedShare on a coarser grid', () => {
+  it('gives 1 for identical trials and ≈ the full-rate value for a mixture when every 2nd sample is used', () => {
+    const fs = 250;
+    const n = fs * 60;
+    const x = gaussian(13, n);
+    const onsets: number[] = [];
+    for (let t = 1; t < 58; t += 1.1) onsets.push(t);
+    const evoked = new Float64Array(n);
+    for (const o of onsets) for (let j = 0; j < 100; j++) evoked[Math.round(o * fs) + j] = 2 * Math.sin((2 * Math.PI * j) / 100);
+    const ep = extractEpochs(evoked, fs, onsets, -0.2, 0.8, null);
+    expect(lockedShare(evoked, ep.eventSamples, ep.firstOffset, ep.length, undefined, 2)).toBeCloseTo(1, 10);
+    const mixed = x.map((v, i) => v + evoked[i]);
+    const full = lockedShare(mixed, ep.eventSamples, ep.firstOffset, ep.length);
+    expect(lockedShare(mixed, ep.eventSamples, ep.firstOffset, ep.length, undefined, 2)).toBeCloseTo(full, 1);
+  });
+});
