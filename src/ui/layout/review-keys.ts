@@ -3,7 +3,7 @@
  * press into an action. Keys are ignored while typing in a text field, except Escape (leaves the field).
  */
 export type ReviewAction =
-  | 'next' | 'previous' | 'first' | 'last' | 'next-undecided'
+  | 'next' | 'previous' | 'row-down' | 'row-up' | 'first' | 'last' | 'next-undecided'
   | 'keep' | 'remove' | 'undecided' | 'accept-suggestion'
   | 'reason-next' | 'reason-previous' | 'note'
   | 'open-focus' | 'open-board' | 'open-preview' | 'open-start'
@@ -19,7 +19,7 @@ export interface KeyBinding {
 export const KEY_BINDINGS: readonly KeyBinding[] = [
   { keys: ['→', ']'], action: 'next', does: 'next component' },
   { keys: ['←', '['], action: 'previous', does: 'previous component' },
-  { keys: ['↓', '↑'], action: 'next', does: 'next / previous component (↑ goes back)' },
+  { keys: ['↓', '↑'], action: 'row-down', does: 'board: the component below / above (elsewhere: next / previous)' },
   { keys: ['Home', 'End'], action: 'first', does: 'first / last component' },
   { keys: ['u'], action: 'next-undecided', does: 'jump to the next undecided component' },
   { keys: ['k', '1'], action: 'keep', does: 'verdict: keep' },
@@ -62,8 +62,10 @@ export function reviewActionForKey(e: KeyPress, target: KeyTarget): ReviewAction
   if (e.key === 'Escape') return 'escape';
   if (target === 'text' || e.altKey || mod) return null;
   switch (e.key) {
-    case 'ArrowRight': case 'ArrowDown': case ']': return 'next';
-    case 'ArrowLeft': case 'ArrowUp': case '[': return 'previous';
+    case 'ArrowRight': case ']': return 'next';
+    case 'ArrowLeft': case '[': return 'previous';
+    case 'ArrowDown': return 'row-down';
+    case 'ArrowUp': return 'row-up';
     case 'Home': return 'first';
     case 'End': return 'last';
     case 'u': return 'next-undecided';

@@ -21,6 +21,14 @@ function targetKind(t: EventTarget | null): KeyTarget {
   return 'other';
 }
 
+/** Columns of the board's tile grid as laid out now (1 when not on the board). */
+function boardColumns(): number {
+  const grid = document.querySelector('.tile-grid');
+  if (!grid) return 1;
+  const cols = getComputedStyle(grid).gridTemplateColumns.split(' ').filter((c) => c.trim() !== '').length;
+  return Math.max(1, cols);
+}
+
 function focusNoteField(): void {
   const tryFocus = () => {
     const el = document.querySelector<HTMLElement>('[data-note-field]');
@@ -61,6 +69,8 @@ export function runReviewAction(action: ReviewAction, h: ReviewKeyHandlers, targ
   switch (action) {
     case 'next': move(1); return true;
     case 'previous': move(-1); return true;
+    case 'row-down': move(s.screen === 'board' ? boardColumns() : 1); return true;
+    case 'row-up': move(s.screen === 'board' ? -boardColumns() : -1); return true;
     case 'first': { const o = order(); if (o.length) s.select(o[0]); return true; }
     case 'last': { const o = order(); if (o.length) s.select(o[o.length - 1]); return true; }
     case 'next-undecided': { const i = nextUndecided(order(), s.decisions, sel); if (i !== null) s.select(i); return true; }

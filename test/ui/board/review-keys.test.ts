@@ -9,6 +9,7 @@ describe('reviewActionForKey', () => {
   it('maps the documented keys to review actions', () => {
     expect(reviewActionForKey(press('ArrowRight'), 'other')).toBe('next');
     expect(reviewActionForKey(press('['), 'other')).toBe('previous');
+    expect(reviewActionForKey(press('ArrowDown'), 'other')).toBe('row-down');
     expect(reviewActionForKey(press('x'), 'other')).toBe('remove');
     expect(reviewActionForKey(press('k'), 'other')).toBe('keep');
     expect(reviewActionForKey(press('0'), 'other')).toBe('undecided');
