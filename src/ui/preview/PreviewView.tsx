@@ -131,7 +131,8 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
     const side = settings.mode === 'side-by-side';
     return {
       width: Math.max(480, tracesWidth),
-      height: Math.max(160, 40 + 26 * settings.channels.length),
+      // 26 px per row for a few channels, down to 12 px so 64 channels fit on one screen.
+      height: Math.max(160, 40 + Math.round(Math.min(26, Math.max(12, 720 / Math.max(1, settings.channels.length)))) * settings.channels.length),
       rowLabels: labels,
       rowIndex: settings.channels,
       length,
