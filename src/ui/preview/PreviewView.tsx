@@ -63,7 +63,16 @@ export function PreviewView() {
       </section>
     );
   }
-  return <PreviewWorkspace recording={recording} decomposition={decomposition} />;
+  // A new participant starts a fresh workspace (window, channel selection) rather than reusing indices.
+  return <PreviewWorkspace key={participantKey(recording, decomposition)} recording={recording} decomposition={decomposition} />;
+}
+
+const participantIds = new WeakMap<object, number>();
+let nextParticipantId = 1;
+/** A stable key per (recording, decomposition) pair of objects. */
+function participantKey(recording: LoadedRecording, decomposition: Decomposition): string {
+  for (const o of [recording, decomposition]) if (!participantIds.has(o)) participantIds.set(o, nextParticipantId++);
+  return `${participantIds.get(recording)}-${participantIds.get(decomposition)}`;
 }
 
 function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecording; decomposition: Decomposition }) {
