@@ -32,7 +32,7 @@ function lcg(seed: number) {
 /** Inverse of a small square matrix by Gauss–Jordan elimination with partial pivoting. */
 function invert(a: number[], n: number): number[] {
   const m = a.slice();
-  const inv = Array.from({ length: n * n }, (_, i) => (i % (n + 1) === 0 ? 1 : 0));
+  const inv: number[] = Array.from({ length: n * n }, (_, i) => (i % (n + 1) === 0 ? 1 : 0));
   for (let c = 0; c < n; c++) {
     let p = c;
     for (let r = c + 1; r < n; r++) if (Math.abs(m[r * n + c]) > Math.abs(m[p * n + c])) p = r;
