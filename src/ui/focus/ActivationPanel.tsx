@@ -47,7 +47,10 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
   const end = Math.min(signals.nSamples, start + Math.round(settings.lengthS * fs));
   const L = Math.max(0, end - start);
   const strongest = useMemo(() => strongestChannels(decomposition.mixing, n, k, i, 3, rows), [decomposition, n, k, i, rows]);
-  const sensors = settings.sensors?.filter((c) => c >= 0 && c < n && rows[c] >= 0) ?? strongest;
+  const sensors = useMemo(
+    () => settings.sensors?.filter((c) => c >= 0 && c < n && rows[c] >= 0) ?? strongest,
+    [settings.sensors, n, rows, strongest],
+  );
   const [box, boxWidth] = useElementWidth<HTMLDivElement>(640);
 
   const spec = useMemo((): TraceSpec => {
