@@ -182,4 +182,25 @@ describe('autosave', () => {
     expect(st().resumeOffer?.decisions).toEqual(saved?.decisions);
     db.close();
   });
+
+  it('does not overwrite a saved review while its resume offer is unanswered', async () => {
+    const key = reviewKey('r'.repeat(64), 'd'.repeat(64));
+    const saved = new Map([[key, {
+      savedAt: '2026-12-01T12:00:00.000Z', aim: 'erp' as const, reviewer: '',
+      decisions: { 1: { verdict: 'keep' as const, reason: 'neural' as const, note: '' } },
+    }]]);
+    const services = fakeServices(saved);
+    setWorkbenchServices(services);
+    const handle = startAutosave(workbenchStore, async () => services);
+    await st().loadParticipant({ recordingFiles: [edf()], decompositionFiles: [json()] });
+    expect(st().resumeOffer).not.toBeNull();
+    st().setAim('oscillations');
+    await handle.flush();
+    expect(saved.get(key)?.decisions).toEqual({ 1: { verdict: 'keep', reason: 'neural', note: '' } });
+    st().resume(false);
+    st().decide(2, { verdict: 'remove' });
+    await handle.flush();
+    expect(saved.get(key)?.decisions).toEqual({ 2: { verdict: 'remove', reason: null, note: '' } });
+    handle.stop();
+  });
 });
