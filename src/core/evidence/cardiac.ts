@@ -28,18 +28,19 @@ export function cardiacPeriodicity(x: ArrayLike<number>, fs: number, minBpm = 40
   const e = new Float64Array(nb);
   let run = 0;
   let mean = 0;
+  let slot = 0; // i mod B
   for (let b = 0; b < nb; b++) {
     let s = 0;
     for (let j = 0; j < block; j++) {
       const i = b * block + j;
       run += x[i] - (i >= B ? x[i - B] : 0);
       const y = run / B;
-      const slot = i % B;
       if (i >= 2 * B) {
         const d = y - ring[slot];
         s += d * d;
       }
       ring[slot] = y;
+      if (++slot === B) slot = 0;
     }
     e[b] = s;
   }

@@ -208,11 +208,34 @@ export function eogReferences(
   };
 }
 
-/** Median of a typed array (sorted copy; native numeric sort). */
-function medianOf(a: Float64Array): number {
-  if (a.length === 0) return 0;
-  const s = a.slice().sort();
-  return s[Math.floor(s.length / 2)];
+/** Upper median of a typed array (element ⌊n/2⌋ in sorted order), by quickselect on a copy: O(n). */
+function medianOf(values: Float64Array): number {
+  const n = values.length;
+  if (n === 0) return 0;
+  const a = values.slice();
+  const k = n >> 1;
+  let lo = 0;
+  let hi = n - 1;
+  while (lo < hi) {
+    const pivot = a[(lo + hi) >> 1];
+    let i = lo;
+    let j = hi;
+    while (i <= j) {
+      while (a[i] < pivot) i++;
+      while (a[j] > pivot) j--;
+      if (i <= j) {
+        const t = a[i];
+        a[i] = a[j];
+        a[j] = t;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) hi = j;
+    else if (k >= i) lo = i;
+    else return a[k];
+  }
+  return a[k];
 }
 
 /**
@@ -238,9 +261,12 @@ export function stepLikeness(x: ArrayLike<number>, fs: number): number {
   const mean = (a: number, b: number) => (pre[b] - pre[a]) / (b - a);
   const J = new Float64Array(nb);
   for (let b = 4; b + 12 <= nb; b++) J[b] = mean(b, b + 4) - mean(b - 4, b);
-  const absJ = J.slice(4, nb - 12).map(Math.abs);
+  const absJ = new Float64Array(Math.max(0, nb - 16));
+  for (let i = 0; i < absJ.length; i++) absJ[i] = Math.abs(J[i + 4]);
   const med = medianOf(absJ);
-  const mad = medianOf(absJ.map((v) => Math.abs(v - med))) * 1.4826;
+  const dev = new Float64Array(absJ.length);
+  for (let i = 0; i < absJ.length; i++) dev[i] = Math.abs(absJ[i] - med);
+  const mad = medianOf(dev) * 1.4826;
   const threshold = med + 4 * Math.max(mad, 1e-12);
   const persist: number[] = [];
   let last = -Infinity;
