@@ -8,8 +8,9 @@ import { blobByteSource } from '../src/core/formats/byte-source.ts';
 import { loadRecording } from '../src/core/formats/recording-loader.ts';
 import { sha256Hex } from '../src/core/formats/sha256.ts';
 import { writeEdfChunks } from '../src/core/formats/edf-writer.ts';
-import { buildCleanedEdfInput, cleanedRecordingSamples } from '../src/core/review/clean.ts';
-import type { LoadedRecording } from '../src/core/recording.ts';
+import { cleanedEdfInput, cleanedRecordingSamples } from '../src/core/review/clean.ts';
+import { readEdfSignals } from '../src/core/formats/edf.ts';
+import type { LoadedRecording, SignalBlock } from '../src/core/recording.ts';
 import type { Decomposition } from '../src/core/decomposition.ts';
 import type { ParseError } from '../src/core/formats/parse-result.ts';
 
@@ -35,6 +36,8 @@ export interface CleanedExportRequest {
   removed: number[];
   format: 'EDF+C' | 'BDF+C';
   keepIdentity: boolean;
+  /** The files the recording was read from: channels at other rates than the reviewed block are re-read from them. */
+  files?: File[];
 }
 
 const api = {
@@ -53,8 +56,30 @@ const api = {
 
   /** The cleaned recording as EDF+/BDF+ bytes (transferred, not copied). */
   async writeCleaned(req: CleanedExportRequest, onProgress?: (fraction: number) => void): Promise<Uint8Array> {
-    const cleaned = cleanedRecordingSamples(req.recording, req.decomposition, req.removed, (f) => onProgress?.(0.8 * f));
-    const input = buildCleanedEdfInput(req.recording, cleaned, req.format, req.keepIdentity);
+    const rec = req.recording;
+    const cleaned = cleanedRecordingSamples(rec, req.decomposition, req.removed, (f) => onProgress?.(0.7 * f));
+    const blocks: SignalBlock[] = [{ ...rec.signals, data: cleaned }];
+    // Channels at other rates are not in the reviewed block: copy them from the file, unchanged.
+    const inBlock = new Set(rec.signals.labels);
+    const others = rec.channels.filter((c) => !inBlock.has(c.label));
+    const main = req.files?.find((f) => RECORDING_EXT.test(f.name) && f.name === rec.fileName) ?? req.files?.find((f) => RECORDING_EXT.test(f.name));
+    let info = rec as typeof rec;
+    if (others.length > 0) {
+      if (!main) {
+        info = { ...rec, channels: rec.channels.filter((c) => inBlock.has(c.label)) };
+      } else {
+        const source = blobByteSource(main, main.name);
+        const rates = [...new Set(others.map((c) => c.sampleRate))];
+        for (const rate of rates) {
+          const res = await readEdfSignals(source, rec, { channels: others.filter((c) => c.sampleRate === rate).map((c) => c.label) });
+          if (!res.ok) throw new Error(res.error.message);
+          blocks.push(res.value);
+        }
+      }
+    }
+    onProgress?.(0.8);
+    const cleanedLabels = new Set(req.removed.length > 0 ? req.decomposition.channels.map((l) => l.toLowerCase()) : []);
+    const input = cleanedEdfInput(info, blocks, cleanedLabels, req.format.startsWith('BDF') ? 'BDF' : 'EDF', req.keepIdentity);
     const parts: Uint8Array[] = [];
     let total = 0;
     for (const part of writeEdfChunks(input)) {

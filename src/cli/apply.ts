@@ -19,9 +19,9 @@ import { writeFileAtomicChunks } from './atomic-write.ts';
 import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
 import { parseDecompositionJson, matchDecompositionToRecording } from '../core/formats/decomposition-file.ts';
 import { sha256Hex } from '../core/formats/sha256.ts';
-import { writeEdfChunks, type EdfWriteChannel, type EdfWriteInput } from '../core/formats/edf-writer.ts';
+import { writeEdfChunks } from '../core/formats/edf-writer.ts';
 import { parseDecisionsJson } from '../core/review/decisions-file.ts';
-import { cleanSignalRange, createCleaningPlan } from '../core/review/clean.ts';
+import { cleanSignalRange, cleanedEdfInput, createCleaningPlan } from '../core/review/clean.ts';
 import type { SignalBlock } from '../core/recording.ts';
 
 const USAGE = 'usage: winnow apply <recording> <decomposition.json> <decisions.json> --out cleaned.edf [--keep-identity] [--ignore-hashes]';
@@ -113,37 +113,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
         : matched.error.message);
     }
 
-    const cleanedLabels = new Set(decomposition.value.channels.map((l) => l.toLowerCase()));
-    const channels: EdfWriteChannel[] = info.channels.map((c) => {
-      const block = blocks.get(c.sampleRate)!;
-      const row = block.labels.indexOf(c.label);
-      const data = block.data.subarray(row * block.nSamples, (row + 1) * block.nSamples);
-      const touched = c.sampleRate === cleanedRate && cleanedLabels.has(c.label.toLowerCase()) && removed.length > 0;
-      return {
-        label: c.label,
-        unit: c.unit,
-        sampleRate: c.sampleRate,
-        transducer: c.transducer,
-        prefilter: c.prefilter,
-        // Untouched channels keep their scaling, so their samples come back exactly; cleaned ones get a
-        // range fitted to the cleaned values (the writer's symmetric default).
-        ...(touched ? {} : { physicalMin: c.physicalMin, physicalMax: c.physicalMax, digitalMin: c.digitalMin, digitalMax: c.digitalMax }),
-        data,
-      };
-    });
-    const bdf = info.format.startsWith('BDF');
-    const discontinuous = info.format.endsWith('+D');
-    const input: EdfWriteInput = {
-      format: bdf ? (discontinuous ? 'BDF+D' : 'BDF+C') : discontinuous ? 'EDF+D' : 'EDF+C',
-      patientId: info.header.patientId,
-      recordingId: info.header.recordingId,
-      keepIdentity: values['keep-identity'] === true,
-      start: info.header.start,
-      recordDurationSeconds: info.header.recordDurationSeconds,
-      ...(discontinuous ? { recordOnsets: info.header.recordOnsets } : {}),
-      channels,
-      annotations: info.events.filter((e) => e.source === 'annotation').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label })),
-    };
+    const cleanedLabels = new Set(removed.length > 0 ? decomposition.value.channels.map((l) => l.toLowerCase()) : []);
+    const input = cleanedEdfInput(info, [...blocks.values()], cleanedLabels, info.format.startsWith('BDF') ? 'BDF' : 'EDF', values['keep-identity'] === true);
     await writeFileAtomicChunks(out, writeEdfChunks(input));
     io.stdout(
       `wrote ${out}: ${info.channels.length} channels, ${removed.length} of ${k} components removed` +

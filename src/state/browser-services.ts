@@ -33,6 +33,9 @@ function decomposeInputOf(recording: LoadedRecording): DecomposeInput {
   };
 }
 
+/** The files each loaded recording came from (File objects are references, not copies). */
+const filesOf = new WeakMap<LoadedRecording, readonly File[]>();
+
 let db: Promise<ReviewDb> | null = null;
 const reviewDb = () => (db ??= openReviewDb());
 
@@ -42,6 +45,7 @@ export const browserServices: WorkbenchServices = {
   async readRecording(files, signal, onProgress) {
     const result = await readRecordingInWorker(files, signal, onProgress);
     if (!result.ok) throw new Error(result.error.message);
+    filesOf.set(result.recording, files);
     return { recording: result.recording, sha256: result.sha256 };
   },
 
@@ -106,7 +110,8 @@ export const browserServices: WorkbenchServices = {
     return result.components;
   },
 
-  writeCleaned: (req, signal, onProgress) => writeCleanedInWorker(req, signal, onProgress),
+  writeCleaned: (req, signal, onProgress) =>
+    writeCleanedInWorker({ ...req, files: [...(filesOf.get(req.recording) ?? [])] }, signal, onProgress),
 
   async demoInput(signal) {
     const files = await demoFiles(signal);

@@ -10,8 +10,8 @@
  */
 import { multiplyChannelMajor } from '../linalg/matmul.ts';
 import type { Decomposition } from '../decomposition.ts';
-import type { LoadedRecording } from '../recording.ts';
-import type { EdfWriteInput } from '../formats/edf-writer.ts';
+import type { LoadedRecording, RecordingInfo, SignalBlock } from '../recording.ts';
+import type { EdfWriteChannel, EdfWriteInput } from '../formats/edf-writer.ts';
 
 export interface CleaningPlan {
   /** 1-based indices of the removed components, ascending. */
@@ -164,42 +164,48 @@ export function cleanedRecordingSamples(
 }
 
 /**
- * Writer input for a cleaned copy of `recording`: the same main-rate channels (labels, units, rates,
- * transducer and prefilter text), the same record duration, start time and annotations (gap boundaries are
- * kept through the record onsets of a discontinuous file, not as annotations). Identifying header fields
- * are replaced by the EDF+ anonymous forms unless `keepIdentity`.
+ * Writer input for a cleaned copy of a recording: every channel of `info` in the file's order, each taken
+ * from the signal block (one per sampling rate) that holds it, the same record duration, start time,
+ * record onsets (discontinuous files stay discontinuous) and annotations (gap boundaries are carried by the
+ * record onsets, not written as annotations). Channels not in `cleanedLabels` (lower-case) keep their
+ * physical and digital ranges when the output family (EDF/BDF) is the input's, so their samples come back
+ * exactly; cleaned channels get a range fitted to the new values (the writer's symmetric default).
+ * Identifying header fields become the EDF+ anonymous forms unless `keepIdentity`.
+ * Throws a RangeError naming the channel when a channel of `info` is in no block (a caller's contract fault).
  */
-export function buildCleanedEdfInput(
-  recording: LoadedRecording,
-  cleaned: Float32Array,
-  format: 'EDF+C' | 'BDF+C' | 'EDF+D' | 'BDF+D',
+export function cleanedEdfInput(
+  info: RecordingInfo,
+  blocks: readonly SignalBlock[],
+  cleanedLabels: ReadonlySet<string>,
+  family: 'EDF' | 'BDF',
   keepIdentity: boolean,
 ): EdfWriteInput {
-  const { labels, nSamples, sampleRate } = recording.signals;
-  const byLabel = new Map(recording.channels.map((c) => [c.label, c] as const));
-  const discontinuous = recording.format.endsWith('+D');
-  const outFormat = discontinuous ? (format.startsWith('BDF') ? 'BDF+D' : 'EDF+D') : format.startsWith('BDF') ? 'BDF+C' : 'EDF+C';
+  const discontinuous = info.format.endsWith('+D');
+  const sameFamily = info.format.startsWith(family);
+  const channels: EdfWriteChannel[] = info.channels.map((c) => {
+    const block = blocks.find((b) => b.sampleRate === c.sampleRate && b.labels.includes(c.label));
+    if (!block) throw new RangeError(`channel "${c.label}" (${c.sampleRate} Hz) is in none of the signal blocks`);
+    const row = block.labels.indexOf(c.label);
+    const touched = cleanedLabels.has(c.label.toLowerCase());
+    return {
+      label: c.label,
+      unit: c.unit,
+      sampleRate: c.sampleRate,
+      transducer: c.transducer,
+      prefilter: c.prefilter,
+      ...(touched || !sameFamily ? {} : { physicalMin: c.physicalMin, physicalMax: c.physicalMax, digitalMin: c.digitalMin, digitalMax: c.digitalMax }),
+      data: block.data.subarray(row * block.nSamples, (row + 1) * block.nSamples),
+    };
+  });
   return {
-    format: outFormat,
-    patientId: recording.header.patientId,
-    recordingId: recording.header.recordingId,
+    format: family === 'BDF' ? (discontinuous ? 'BDF+D' : 'BDF+C') : discontinuous ? 'EDF+D' : 'EDF+C',
+    patientId: info.header.patientId,
+    recordingId: info.header.recordingId,
     keepIdentity,
-    start: recording.header.start,
-    recordDurationSeconds: recording.header.recordDurationSeconds,
-    ...(discontinuous ? { recordOnsets: recording.header.recordOnsets } : {}),
-    channels: labels.map((label, c) => {
-      const info = byLabel.get(label);
-      return {
-        label,
-        unit: info?.unit ?? 'uV',
-        sampleRate,
-        transducer: info?.transducer ?? '',
-        prefilter: info?.prefilter ?? '',
-        data: cleaned.subarray(c * nSamples, (c + 1) * nSamples),
-      };
-    }),
-    annotations: recording.events
-      .filter((e) => e.source !== 'boundary')
-      .map((e) => ({ onset: e.onset, duration: e.duration, label: e.label })),
+    start: info.header.start,
+    recordDurationSeconds: info.header.recordDurationSeconds,
+    ...(discontinuous ? { recordOnsets: info.header.recordOnsets } : {}),
+    channels,
+    annotations: info.events.filter((e) => e.source !== 'boundary').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label })),
   };
 }
