@@ -55,7 +55,7 @@ export interface EvidenceInput {
   readonly window?: readonly [number, number];
   /** Power-line frequency in Hz (default 50). */
   readonly lineHz?: 50 | 60;
-  /** Aim whose suggestion is listed first in `suggestion` (all three are always computed). */
+  /** The caller's current aim. Suggestions are always computed for all three aims (`suggestions[aim]`). */
   readonly aim?: Aim;
   readonly thresholds?: Partial<Thresholds>;
   /** 0-based [start, end) range of components to compute (default all); indices stay global. */

@@ -64,7 +64,10 @@ export const defaultThresholds: Thresholds = {
   blinkKurtosis: 3,
   // Ours, after METHODS §14 (muscle: broadband, flat or rising above ~20 Hz — common practice; Goncharova
   // et al. 2003, Clin. Neurophysiol. 114:1580). A flat spectrum gives ≈ 0.6 over 2–48 Hz; 1/f² brain ≈ 0.02.
+  // Below the strong level a well-fitted dipole inside the brain vetoes the muscle reading (sparse evoked
+  // components look flat between responses).
   muscleHighFrequencyShare: 0.35,
+  // Ours: unmistakable muscle (our simulated muscle components reach 0.75–0.83; brain components stay < 0.5).
   muscleHighFrequencyShareStrong: 0.6,
   // METHODS §14: "log-log slope over 20–45 Hz near 0 or positive" (common practice); −1 allows partly mixed.
   muscleSlope: -1,
@@ -72,7 +75,9 @@ export const defaultThresholds: Thresholds = {
   lineNoiseShare: 0.5,
   // METHODS §14: "max a² / Σ a² > ~0.5–0.8" for a single electrode (common practice / from memory); 0.6.
   electrodeFocality: 0.6,
-  // Ours: autocorrelation of the slope energy at the beat lag; simulated brain, muscle and ocular components stay below 0.25, a heartbeat reaches 0.8.
+  // Ours: autocorrelation of the slope energy at the beat lag; on our simulations brain, muscle and ocular
+  // components stay below 0.27 and a heartbeat reaches 0.8 (cable sway at the step rate reaches 0.5: motion
+  // is named before cardiac when both are present).
   cardiacPeak: 0.4,
   // Ours: a fifth of the activity phase-locked to steps.
   motionStepLocking: 0.2,
