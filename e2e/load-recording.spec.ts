@@ -31,3 +31,16 @@ test('dropping an EDF file on the page lists its channels, rate, duration and fo
   await expect(page.getByTestId('decompose-form')).toBeVisible();
   expect(offOrigin).toEqual([]);
 });
+
+test('a file dropped anywhere on the page is opened, not shown in place of the page', async ({ page }) => {
+  await page.goto('/?demo=0');
+  const bytes = Array.from(tinyEdf({ labels: ['C3', 'C4'], sampleRate: 64, records: 2 }));
+  const dataTransfer = await page.evaluateHandle((b) => {
+    const dt = new DataTransfer();
+    dt.items.add(new File([new Uint8Array(b)], 'sub-08_eeg.edf'));
+    return dt;
+  }, bytes);
+  await page.dispatchEvent('header', 'drop', { dataTransfer });
+  await expect(page.getByTestId('channel-list').getByRole('cell', { name: 'C4', exact: true })).toBeVisible();
+  expect(page.url()).toContain('127.0.0.1:4173');
+});

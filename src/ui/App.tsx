@@ -16,6 +16,7 @@ import { ExportPanel } from './layout/ExportPanel.tsx';
 import { HelpPanel } from './help/HelpPanel.tsx';
 import { useReviewKeys } from './layout/useReviewKeys.ts';
 import { useAutosave } from './layout/useAutosave.ts';
+import { usePageDrop } from './layout/usePageDrop.ts';
 import { shouldOpenDemo } from './start/demo-url.ts';
 
 export function App() {
@@ -23,6 +24,7 @@ export function App() {
   const [helpOpen, setHelpOpen] = useState(false);
   const [exportOpen, setExportOpen] = useState(false);
   useAutosave();
+  usePageDrop();
   useReviewKeys({ toggleHelp: () => setHelpOpen((o) => !o), toggleExport: () => setExportOpen((o) => !o), helpOpen, exportOpen, closePanels: () => { setHelpOpen(false); setExportOpen(false); } });
 
   useEffect(() => {

@@ -7,7 +7,7 @@
 import { useRef, useState } from 'react';
 import { useWorkbench } from '../../state/index.ts';
 import { filesFromDataTransfer } from './collect-dropped.ts';
-import { hasRecording, sortParticipantFiles } from '../../state/participant-files.ts';
+import { openFiles } from './open-files.ts';
 import { RecordingSummary } from './RecordingSummary.tsx';
 import { DecomposeForm } from './DecomposeForm.tsx';
 
@@ -15,31 +15,14 @@ export function StartScreen() {
   const recording = useWorkbench((s) => s.recording);
   const hasDecomposition = useWorkbench((s) => s.decomposition !== null);
   const busy = useWorkbench((s) => s.progress !== null);
-  const loadParticipant = useWorkbench((s) => s.loadParticipant);
   const loadDemo = useWorkbench((s) => s.loadDemo);
-  const setNotice = useWorkbench((s) => s.setNotice);
   const setScreen = useWorkbench((s) => s.setScreen);
   const [over, setOver] = useState(false);
   const [extraDecomposition, setExtraDecomposition] = useState<File[]>([]);
   const [extraDecisions, setExtraDecisions] = useState<File | null>(null);
   const folderRef = useRef<HTMLInputElement>(null);
 
-  const open = (files: File[]) => {
-    if (!hasRecording(files)) {
-      setNotice({ kind: 'error', text: `No EDF or BDF recording among ${files.length} file${files.length === 1 ? '' : 's'} (${files.slice(0, 5).map((f) => f.name).join(', ')}).` });
-      return;
-    }
-    const sorted = sortParticipantFiles(files);
-    const decompositionFiles = sorted.decompositionFiles.length > 0 ? sorted.decompositionFiles : extraDecomposition;
-    const decisionsFile = sorted.decisionsFile ?? extraDecisions;
-    void loadParticipant({
-      recordingFiles: sorted.recordingFiles,
-      decompositionFiles,
-      decisionsFile,
-      // Without a decomposition, stop after reading: the recording is listed and a decomposition offered.
-      decompose: null,
-    });
-  };
+  const open = (files: File[]) => openFiles(files, { decompositionFiles: extraDecomposition, decisionsFile: extraDecisions });
 
   return (
     <section className="start-screen" aria-label="Open a participant" data-testid="start-screen">
@@ -50,6 +33,7 @@ export function StartScreen() {
         onDragLeave={() => setOver(false)}
         onDrop={(e) => {
           e.preventDefault();
+          e.stopPropagation();
           setOver(false);
           void filesFromDataTransfer(e.dataTransfer).then(open);
         }}

@@ -1,0 +1,40 @@
+/**
+ * What happens to files the user drops or picks: a recording (with sidecars, decomposition, decisions)
+ * opens a participant; a decisions file alone is imported into the review under way.
+ */
+import { workbenchStore } from '../../state/index.ts';
+import { hasRecording, sortParticipantFiles } from '../../state/participant-files.ts';
+
+export interface OpenExtras {
+  readonly decompositionFiles?: readonly File[];
+  readonly decisionsFile?: File | null;
+}
+
+export function openFiles(files: readonly File[], extras: OpenExtras = {}): void {
+  const s = workbenchStore.getState();
+  if (files.length === 0) return;
+  const sorted = sortParticipantFiles(files);
+  if (!hasRecording(files)) {
+    if (sorted.decisionsFile && s.decomposition) {
+      void s.importDecisions(sorted.decisionsFile);
+      return;
+    }
+    if (sorted.decompositionFiles.length > 0 && s.recording) {
+      void s.openDecomposition(sorted.decompositionFiles);
+      return;
+    }
+    s.setNotice({
+      kind: 'error',
+      text: `No EDF or BDF recording among ${files.length} file${files.length === 1 ? '' : 's'} (${files.slice(0, 5).map((f) => f.name).join(', ')}).`,
+    });
+    return;
+  }
+  const decompositionFiles = sorted.decompositionFiles.length > 0 ? sorted.decompositionFiles : [...(extras.decompositionFiles ?? [])];
+  void s.loadParticipant({
+    recordingFiles: sorted.recordingFiles,
+    decompositionFiles,
+    decisionsFile: sorted.decisionsFile ?? extras.decisionsFile ?? null,
+    // Without a decomposition, stop after reading: the recording is listed and a decomposition offered.
+    decompose: null,
+  });
+}
