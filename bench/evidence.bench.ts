@@ -12,6 +12,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Decomposition } from '../src/core/decomposition.ts';
 import { computeEvidence, type EvidenceResult } from '../src/core/evidence/compute-evidence.ts';
+import { multiplyChannelMajor } from '../src/core/linalg/matmul.ts';
 import { createWelchPlan, welchPsd } from '../src/core/signal/welch.ts';
 import { simulateSession } from '../src/core/simulate/simulate.ts';
 import { type BenchRow, medianMs } from './bench-types.ts';
@@ -171,6 +172,13 @@ export async function bench(): Promise<BenchRow[]> {
     rmSync(dir, { recursive: true, force: true });
   }
   rows.push({ area: 'evidence', case: 'Welch 64 × 150 000, 512/256, 1 core', oursMs: welchMs, referenceMs: refMs, reference });
+
+  // Machine-state calibration: the unmixing kernel on the same sizes, against the time PERFORMANCE.md
+  // measured on an idle machine of this kind (~176 ms). A ratio well above 1 means the cores are shared.
+  const W = ctx.decomposition.unmixing;
+  const act = new Float64Array(CHANNELS * n);
+  const mmMs = await medianMs(() => multiplyChannelMajor(W, CHANNELS, CHANNELS, s.data, n, act), 3);
+  rows.push({ area: 'evidence', case: 'calibration: W·X 64 × 64 × 150 000, 1 core', oursMs: mmMs, referenceMs: 176, reference: 'PERFORMANCE.md, idle machine' });
   return rows;
 }
 
