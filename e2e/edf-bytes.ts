@@ -9,9 +9,16 @@ export interface TinyEdfOptions {
   readonly labels: readonly string[];
   readonly sampleRate: number;
   readonly records: number;
+  /** Add seeded noise (µV, uniform ±amplitude) so channels are not exactly sinusoidal; default 0. */
+  readonly noiseUv?: number;
 }
 
-export function tinyEdf({ labels, sampleRate, records }: TinyEdfOptions): Uint8Array {
+export function tinyEdf({ labels, sampleRate, records, noiseUv = 0 }: TinyEdfOptions): Uint8Array {
+  let seed = 12345;
+  const noise = () => {
+    seed = (Math.imul(seed, 1664525) + 1013904223) >>> 0; // Numerical Recipes LCG
+    return (seed / 2 ** 32 - 0.5) * 2 * noiseUv;
+  };
   const ns = labels.length;
   const headerBytes = 256 * (ns + 1);
   let h = '';
@@ -45,7 +52,8 @@ export function tinyEdf({ labels, sampleRate, records }: TinyEdfOptions): Uint8A
       for (let k = 0; k < sampleRate; k++) {
         // 10 µV sine at (s + 1) Hz: digital = physical / 0.1 µV per step
         const t = r + k / sampleRate;
-        view.setInt16(p, Math.round(100 * Math.sin(2 * Math.PI * (s + 1) * t)), true);
+        const uv = 10 * Math.sin(2 * Math.PI * (s + 1) * t) + (noiseUv > 0 ? noise() : 0);
+        view.setInt16(p, Math.max(-32768, Math.min(32767, Math.round(uv * 10))), true);
         p += 2;
       }
     }
