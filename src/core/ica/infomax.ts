@@ -16,8 +16,10 @@
  * - k_i is re-estimated every 8 blocks from the statistics accumulated over those blocks.
  * - Annealing: after each pass, if the angle between this pass's weight change and the previous one exceeds
  *   60°, η ← 0.9 η (oscillation means the rate is too large for the remaining error) — but not when a density
- *   sign switched in this pass or the one before: a switch turns the direction by itself, and annealing then
- *   froze 64 Laplace/uniform sources half-separated (Amari 0.058) in the bench.
+ *   sign switched decidedly (|statistic| ≥ 0.01) in this pass or the one before, during the first 50 passes: a
+ *   switch turns the direction by itself, and annealing then froze 64 Laplace/uniform sources half-separated
+ *   (Amari 0.058) in the bench. After 50 passes the plain rule applies, so near-Gaussian outputs whose sign
+ *   keeps flipping cannot stop the annealing.
  * - Stopping rule: the squared Frobenius norm of one pass's weight change ‖ΔW‖²_F < tol (default 1e-7)·k,
  *   or maxIter passes (default 512). One iteration = one pass over all samples.
  * - Divergence guard: if W becomes non-finite or max|W_ij| > 1e4, restart from W = I with η ← 0.8 η
@@ -90,7 +92,8 @@ export function extendedInfomax(Z: Float32Array, k: number, T: number, opts: Inf
     for (let i = 0; i < k; i++) {
       const stat = (sumSech2[i] / statCount) * (sumU2[i] / statCount) - sumThU[i] / statCount;
       const ki = stat >= 0 ? 1 : -1;
-      if (ki !== K[i]) signFlips++;
+      // Only decided flips count for the annealing guard: a near-Gaussian output flips on noise alone.
+      if (ki !== K[i] && Math.abs(stat) >= 0.01) signFlips++;
       K[i] = ki;
     }
     sumSech2.fill(0);
@@ -159,7 +162,8 @@ export function extendedInfomax(Z: Float32Array, k: number, T: number, opts: Inf
     if (havePrev && n0 > 0 && n1 > 0) {
       const cos = dot / Math.sqrt(n0 * n1);
       // angle > 60°; not while densities are still switching (a flip turns the direction by itself)
-      if (cos < 0.5 && signFlips === 0 && flipsLastPass === 0) eta *= 0.9;
+      const switching = it <= 50 && (signFlips > 0 || flipsLastPass > 0);
+      if (cos < 0.5 && !switching) eta *= 0.9;
     }
     deltaPrev.set(delta);
     havePrev = true;
