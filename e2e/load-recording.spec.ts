@@ -45,33 +45,36 @@ test('a file dropped anywhere on the page is opened, not shown in place of the p
   expect(page.url()).toContain('127.0.0.1:4173');
 });
 
-test('without a decomposition the page computes one, with progress, and opens the board', async ({ page }) => {
-  await page.goto('/?demo=0');
-  const labels = ['Fp1', 'Fp2', 'F3', 'F4', 'C3', 'C4', 'O1', 'O2'];
-  const bytes = Array.from(tinyEdf({ labels, sampleRate: 128, records: 40, noiseUv: 20 }));
-  const dataTransfer = await page.evaluateHandle((b) => {
-    const dt = new DataTransfer();
-    dt.items.add(new File([new Uint8Array(b)], 'sub-09_eeg.edf'));
-    return dt;
-  }, bytes);
-  await page.dispatchEvent('[data-testid="drop-zone"]', 'drop', { dataTransfer });
-  await page.getByTestId('decompose-method').selectOption('infomax');
-  await page.getByTestId('decompose-seed').fill('3');
-  // Record every progress text shown (the run may finish between two polls of an assertion).
-  await page.evaluate(() => {
-    const seen: string[] = [];
-    (window as unknown as { progressSeen: string[] }).progressSeen = seen;
-    new MutationObserver(() => {
-      const el = document.querySelector('[data-testid="progress"]');
-      if (el?.textContent) seen.push(el.textContent);
-    }).observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true });
+// Both methods: Picard's second thread must never hang the run in a browser (it falls back to one thread).
+for (const method of ['infomax', 'picard'] as const) {
+  test(`without a decomposition the page computes one (${method}), with progress, and opens the board`, async ({ page }) => {
+    await page.goto('/?demo=0');
+    const labels = ['Fp1', 'Fp2', 'F3', 'F4', 'C3', 'C4', 'O1', 'O2'];
+    const bytes = Array.from(tinyEdf({ labels, sampleRate: 128, records: 40, noiseUv: 20 }));
+    const dataTransfer = await page.evaluateHandle((b) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([new Uint8Array(b)], 'sub-09_eeg.edf'));
+      return dt;
+    }, bytes);
+    await page.dispatchEvent('[data-testid="drop-zone"]', 'drop', { dataTransfer });
+    await page.getByTestId('decompose-method').selectOption(method);
+    await page.getByTestId('decompose-seed').fill('3');
+    // Record every progress text shown (the run may finish between two polls of an assertion).
+    await page.evaluate(() => {
+      const seen: string[] = [];
+      (window as unknown as { progressSeen: string[] }).progressSeen = seen;
+      new MutationObserver(() => {
+        const el = document.querySelector('[data-testid="progress"]');
+        if (el?.textContent) seen.push(el.textContent);
+      }).observe(document.body, { subtree: true, childList: true, characterData: true, attributes: true });
+    });
+    await page.getByTestId('decompose-run').click();
+    await expect(page.getByTestId('board')).toBeVisible({ timeout: 60_000 });
+    const seen = await page.evaluate(() => (window as unknown as { progressSeen: string[] }).progressSeen);
+    expect(seen.some((t) => t.includes(`Decomposing (${method}, seed 3`) && t.includes('Cancel'))).toBe(true);
+    expect(seen.some((t) => t.includes('Computing evidence'))).toBe(true);
+    await expect(page.locator('[data-testid^="tile-"]')).toHaveCount(8);
+    await page.getByTestId('export-open').click();
+    await expect(page.getByTestId('export-decomposition')).toBeVisible();
   });
-  await page.getByTestId('decompose-run').click();
-  await expect(page.getByTestId('board')).toBeVisible({ timeout: 60_000 });
-  const seen = await page.evaluate(() => (window as unknown as { progressSeen: string[] }).progressSeen);
-  expect(seen.some((t) => t.includes('Decomposing (infomax, seed 3') && t.includes('Cancel'))).toBe(true);
-  expect(seen.some((t) => t.includes('Computing evidence'))).toBe(true);
-  await expect(page.locator('[data-testid^="tile-"]')).toHaveCount(8);
-  await page.getByTestId('export-open').click();
-  await expect(page.getByTestId('export-decomposition')).toBeVisible();
-});
+}

@@ -10,6 +10,11 @@
  *
  * Results are deterministic for a given number of threads; 1 and 2 threads differ at rounding level because
  * the sums are added in another order.
+ *
+ * Liveness: a browser may hold back the setup message to a nested worker while the posting thread is blocked
+ * (observed in Chromium: the run hung at its first pass). The helper therefore acknowledges each setup through
+ * control[1]; the caller waits at most `ackTimeoutMs` for it before the first pass, and if it never comes the
+ * evaluator sums the helper's half itself and later evaluators stop posting (one thread, never a hang).
  */
 import { accumulatePassSums, clearPassSums, createPassScratch, createPassSums, type PassEvaluator } from './picard-pass.ts';
 
@@ -37,6 +42,10 @@ export function runPassHelper(setup: PassHelperSetup): void {
   const { Z, k, T, t0, t1, control, weights, sums } = setup;
   const out = createPassSums(k);
   const scratch = createPassScratch(k);
+  if (control.length > 1) {
+    Atomics.store(control, 1, 1);
+    Atomics.notify(control, 1);
+  }
   for (;;) {
     Atomics.wait(control, 0, IDLE);
     const state = Atomics.load(control, 0);
@@ -71,20 +80,35 @@ export interface IcaThreads {
  * PassHelperSetup, on which the helper must call runPassHelper. `helperShare` is the fraction of samples the
  * helper takes (default 0.5).
  */
-export function createIcaThreads(post: (setup: PassHelperSetup) => void, helperShare = 0.5): IcaThreads {
+export function createIcaThreads(post: (setup: PassHelperSetup) => void, helperShare = 0.5, ackTimeoutMs = 1500): IcaThreads {
+  /** null until the helper has answered (or failed to answer) one setup. */
+  let helperResponsive: boolean | null = null;
   return {
     allocate: (length) => new Float32Array(new SharedArrayBuffer(4 * length)),
     evaluator(Z, k, T) {
       if (!(Z.buffer instanceof SharedArrayBuffer)) throw new RangeError('IcaThreads.evaluator needs Z allocated by IcaThreads.allocate');
       const split = Math.max(0, Math.min(T, Math.round(T * (1 - helperShare))));
-      const control = new Int32Array(new SharedArrayBuffer(4));
+      // control[0]: the pass state; control[1]: 1 once the helper has taken this setup.
+      const control = new Int32Array(new SharedArrayBuffer(8));
       const weights = new Float64Array(new SharedArrayBuffer(8 * k * k));
       const sums = new Float64Array(new SharedArrayBuffer(8 * (2 * k + k * k)));
-      post({ Z, k, T, t0: split, t1: T, control, weights, sums });
       const scratch = createPassScratch(k);
+      let useHelper = helperResponsive !== false;
+      let acknowledged = false;
+      if (useHelper) post({ Z, k, T, t0: split, t1: T, control, weights, sums });
       let released = false;
       const evaluate = ((W, out, poll) => {
         if (released) throw new RangeError('evaluator used after release');
+        if (useHelper && !acknowledged) {
+          if (Atomics.load(control, 1) === 0) Atomics.wait(control, 1, 0, ackTimeoutMs);
+          acknowledged = Atomics.load(control, 1) === 1;
+          helperResponsive = acknowledged;
+          useHelper = acknowledged;
+        }
+        if (!useHelper) {
+          clearPassSums(out);
+          return accumulatePassSums(Z, k, T, W, 0, T, scratch, out, poll);
+        }
         weights.set(W);
         Atomics.store(control, 0, WORK);
         Atomics.notify(control, 0);
