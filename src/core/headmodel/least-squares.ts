@@ -1,13 +1,14 @@
 /**
  * Small dense least-squares pieces shared by the head-model fits: an orthonormal basis of a few columns
  * (modified Gram–Schmidt with one re-orthogonalisation pass, "twice is enough": Giraud, Langou & Rozložník
- * 2005, Comput. Math. Appl. 50:1069–1075), a pivoting solve of a small square system, and a
+ * 2005, Comput. Math. Appl. 50:1069–1075), a pivoting solve of a small square system (LU, from linalg/lu.ts), and a
  * Levenberg–Marquardt loop with a central-difference Jacobian (Levenberg 1944, Q. Appl. Math. 2:164–168;
  * Marquardt 1963, J. SIAM 11:431–441; damping of diag(JᵀJ) and the ×10 / ÷10 schedule as in METHODS §15).
  *
  * Everything here works on column-major scratch buffers handed in by the caller, so the fits' inner loops
  * allocate nothing.
  */
+import { luFactor, luSolve } from '../linalg/lu.ts';
 
 /**
  * Orthonormal basis of the columns of `a` (column-major, `rows × cols`), written column-major into `q`,
@@ -79,44 +80,20 @@ export function solveUpperTriangular(r: Float64Array, n: number, y: Float64Array
 }
 
 /**
- * Solves the small square system A x = b (row-major `n × n`) by Gaussian elimination with partial pivoting.
- * `a` and `b` are overwritten. Returns false when a pivot is exactly zero (singular).
+ * Solves the small square system A x = b (row-major `n × n`) by LU factorisation with partial pivoting
+ * (`luFactor` / `luSolve` in linalg/lu.ts). `a` is overwritten by its factors; `b` is left unchanged.
+ * `perm` (length ≥ n) is pivot scratch: pass one from a scratch object to keep a loop allocation-free.
+ * Returns false when a pivot is exactly zero (singular).
  */
-export function solveSmallSystem(a: Float64Array, b: Float64Array, n: number, x: Float64Array): boolean {
-  for (let col = 0; col < n; col++) {
-    let piv = col;
-    let best = Math.abs(a[col * n + col]);
-    for (let i = col + 1; i < n; i++) {
-      const v = Math.abs(a[i * n + col]);
-      if (v > best) {
-        best = v;
-        piv = i;
-      }
-    }
-    if (!(best > 0)) return false;
-    if (piv !== col) {
-      for (let k = 0; k < n; k++) {
-        const t = a[col * n + k];
-        a[col * n + k] = a[piv * n + k];
-        a[piv * n + k] = t;
-      }
-      const t = b[col];
-      b[col] = b[piv];
-      b[piv] = t;
-    }
-    const d = a[col * n + col];
-    for (let i = col + 1; i < n; i++) {
-      const f = a[i * n + col] / d;
-      if (f === 0) continue;
-      for (let k = col; k < n; k++) a[i * n + k] -= f * a[col * n + k];
-      b[i] -= f * b[col];
-    }
-  }
-  for (let i = n - 1; i >= 0; i--) {
-    let s = b[i];
-    for (let k = i + 1; k < n; k++) s -= a[i * n + k] * x[k];
-    x[i] = s / a[i * n + i];
-  }
+export function solveSmallSystem(
+  a: Float64Array,
+  b: Float64Array,
+  n: number,
+  x: Float64Array,
+  perm: Int32Array = new Int32Array(n),
+): boolean {
+  if (!luFactor(a, n, perm)) return false;
+  luSolve(a, n, perm, b, x);
   return true;
 }
 
@@ -169,6 +146,8 @@ export interface LevenbergMarquardtScratch {
   readonly jtr: Float64Array;
   readonly sys: Float64Array;
   readonly rhs: Float64Array;
+  /** Pivot order of the step's LU solve. */
+  readonly perm: Int32Array;
   readonly delta: Float64Array;
   readonly p: Float64Array;
   readonly trial: Float64Array;
@@ -188,6 +167,7 @@ export function createLevenbergMarquardtScratch(nParams: number, nResiduals: num
     jtr: new Float64Array(nParams),
     sys: new Float64Array(nParams * nParams),
     rhs: new Float64Array(nParams),
+    perm: new Int32Array(nParams),
     delta: new Float64Array(nParams),
     p: new Float64Array(nParams),
     trial: new Float64Array(nParams),
@@ -214,7 +194,7 @@ export function levenbergMarquardt(
 ): LevenbergMarquardtResult {
   const n = problem.nParams;
   const m = problem.nResiduals;
-  const { r, rTrial, rPlus, rMinus, jac, jtj, jtr, sys, rhs, delta, p, trial, probe } = scratch;
+  const { r, rTrial, rPlus, rMinus, jac, jtj, jtr, sys, rhs, perm, delta, p, trial, probe } = scratch;
   const maxIterations = opts.maxIterations ?? 100;
   const relTol = opts.relativeCostTol ?? 1e-12;
   const stepTol = opts.stepTol ?? opts.step * 1e-4;
@@ -258,7 +238,7 @@ export function levenbergMarquardt(
         sys[a * n + a] = d + lambda * (d > 0 ? d : 1e-300);
         rhs[a] = -jtr[a];
       }
-      if (!solveSmallSystem(sys, rhs, n, delta)) break outer;
+      if (!solveSmallSystem(sys, rhs, n, delta, perm)) break outer;
       let stepLen = 0;
       for (let i = 0; i < n; i++) {
         trial[i] = p[i] + delta[i];

@@ -13,6 +13,7 @@
  * matrix–vector product. We do not fold A⁻¹ into the kernel: an explicit inverse raises the residual at the
  * electrodes from rounding level (~1e-14) to ~cond(G) × ε (~2e-12 for the 21-electrode check).
  */
+import { luFactor, luSolve } from '../linalg/lu.ts';
 
 /**
  * g_m(x) of Perrin et al. (1989), 1/(4π) included; x = cos(angle) is clamped to [−1, 1].
@@ -150,56 +151,6 @@ function normalise(v: Float64Array): Float64Array {
     out[3 * i + 2] = z * inv;
   }
   return out;
-}
-
-/**
- * LU factorisation with partial pivoting of the n × n row-major `a` in place; `perm` receives the row order.
- * Returns false for an exactly singular matrix.
- */
-function luFactor(a: Float64Array, n: number, perm: Int32Array): boolean {
-  for (let i = 0; i < n; i++) perm[i] = i;
-  for (let col = 0; col < n; col++) {
-    let piv = col;
-    let best = Math.abs(a[col * n + col]);
-    for (let i = col + 1; i < n; i++) {
-      const v = Math.abs(a[i * n + col]);
-      if (v > best) {
-        best = v;
-        piv = i;
-      }
-    }
-    if (!(best > 0)) return false;
-    if (piv !== col) {
-      for (let k = 0; k < n; k++) {
-        const t = a[col * n + k];
-        a[col * n + k] = a[piv * n + k];
-        a[piv * n + k] = t;
-      }
-      const t = perm[col];
-      perm[col] = perm[piv];
-      perm[piv] = t;
-    }
-    const d = a[col * n + col];
-    for (let i = col + 1; i < n; i++) {
-      const f = (a[i * n + col] /= d);
-      if (f === 0) continue;
-      for (let k = col + 1; k < n; k++) a[i * n + k] -= f * a[col * n + k];
-    }
-  }
-  return true;
-}
-
-function luSolve(lu: Float64Array, n: number, perm: Int32Array, b: Float64Array, x: Float64Array): void {
-  for (let i = 0; i < n; i++) {
-    let s = b[perm[i]];
-    for (let k = 0; k < i; k++) s -= lu[i * n + k] * x[k];
-    x[i] = s;
-  }
-  for (let i = n - 1; i >= 0; i--) {
-    let s = x[i];
-    for (let k = i + 1; k < n; k++) s -= lu[i * n + k] * x[k];
-    x[i] = s / lu[i * n + i];
-  }
 }
 
 /**
