@@ -4,9 +4,10 @@
  * Tab reaches all of them.
  */
 import { useEffect, useRef, useState } from 'react';
-import { REASON_CODES, VERDICTS, type ReasonCode } from '../../core/review/vocabulary.ts';
+import { REASON_CODES, type ReasonCode } from '../../core/review/vocabulary.ts';
 import { selectComponentEvidence, selectDecision, useWorkbench } from '../../state/index.ts';
-import { VERDICT_GLYPH, VerdictMark } from './VerdictMark.tsx';
+import { VerdictMark } from './VerdictMark.tsx';
+import { VerdictButtons } from '../decision/VerdictButtons.tsx';
 
 /** Milliseconds of typing pause after which a note is committed (also on blur). */
 const NOTE_COMMIT_MS = 600;
@@ -42,21 +43,13 @@ function DecisionPanelFor({ index }: { index: number }) {
   return (
     <aside className="decision-panel" aria-label={`Decision for component ${index}`} data-testid="decision-panel">
       <h2>Component {index}</h2>
-      <div role="group" aria-label="Verdict" className="verdict-buttons">
-        {VERDICTS.map((v) => (
-          <button
-            key={v}
-            type="button"
-            aria-pressed={decision.verdict === v}
-            className={`verdict-button verdict-${v}`}
-            onClick={() => decide(index, { verdict: v })}
-            data-testid={`verdict-${v}`}
-            title={`${v} (key ${v === 'keep' ? 'k' : v === 'remove' ? 'x' : '0'})`}
-          >
-            <span aria-hidden="true">{VERDICT_GLYPH[v]}</span> {v}
-          </button>
-        ))}
-      </div>
+      <VerdictButtons
+        verdict={decision.verdict}
+        onChoose={(v) => decide(index, { verdict: v })}
+        testIdPrefix="verdict"
+        groupLabel="Verdict"
+        title={(v) => `${v} (key ${v === 'keep' ? 'k' : v === 'remove' ? 'x' : '0'})`}
+      />
       <label className="field">
         Reason
         <select

@@ -6,12 +6,10 @@
 import { useEffect, useRef, useState } from 'react';
 import { useWorkbench } from '../../state/index.ts';
 import { UNDECIDED } from '../../core/review/decisions-file.ts';
-import { REASON_CODES, VERDICTS, type ReasonCode, type Verdict } from '../../core/review/vocabulary.ts';
+import { REASON_CODES, type ReasonCode } from '../../core/review/vocabulary.ts';
+import { VerdictButtons } from '../decision/VerdictButtons.tsx';
 
 const NOTE_COMMIT_MS = 400;
-
-/** Symbol shown with each verdict (shape as well as colour). */
-export const VERDICT_SYMBOL: Record<Verdict, string> = { keep: '✓', remove: '✕', undecided: '?' };
 
 export function DecisionControls({ index }: { index: number }) {
   const decision = useWorkbench((s) => s.decisions[index] ?? UNDECIDED);
@@ -38,20 +36,7 @@ export function DecisionControls({ index }: { index: number }) {
 
   return (
     <div className="decision-controls" role="group" aria-label={`Decision for component ${index}`}>
-      <div className="verdict-buttons">
-        {VERDICTS.map((v) => (
-          <button
-            key={v}
-            type="button"
-            className={`verdict-button verdict-${v}`}
-            aria-pressed={decision.verdict === v}
-            data-testid={`decision-${v}`}
-            onClick={() => decide(index, { verdict: v })}
-          >
-            <span aria-hidden="true">{VERDICT_SYMBOL[v]}</span> {v}
-          </button>
-        ))}
-      </div>
+      <VerdictButtons verdict={decision.verdict} onChoose={(v) => decide(index, { verdict: v })} testIdPrefix="decision" />
       <label className="field">
         Reason
         <select

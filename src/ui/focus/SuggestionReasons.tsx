@@ -2,7 +2,7 @@
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
 import type { Aim } from '../../core/review/vocabulary.ts';
 import { useWorkbench } from '../../state/index.ts';
-import { VERDICT_SYMBOL } from './DecisionControls.tsx';
+import { VERDICT_GLYPH } from '../board/VerdictMark.tsx';
 
 export function SuggestionReasons({ evidence, aim }: { evidence: ComponentEvidence; aim: Aim }) {
   const decide = useWorkbench((s) => s.decide);
@@ -13,7 +13,7 @@ export function SuggestionReasons({ evidence, aim }: { evidence: ComponentEviden
       <p>
         Suggested for the <strong>{aim}</strong> aim:{' '}
         <strong>
-          {VERDICT_SYMBOL[s.verdict]} {s.verdict}
+          {VERDICT_GLYPH[s.verdict]} {s.verdict}
         </strong>{' '}
         ({s.reason})
       </p>
