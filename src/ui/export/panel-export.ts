@@ -6,6 +6,7 @@
  * `toBlob`. Browser only.
  */
 import type { PanelFormat } from './export-names.ts';
+import { saveBlob } from '../layout/download.ts';
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
@@ -94,22 +95,9 @@ export async function svgToPng(svg: string, width: number, height: number, scale
   }
 }
 
-/** Saves `blob` under `fileName` through a temporary object URL (no network). */
-export function downloadBlob(blob: Blob, fileName: string): void {
-  const url = URL.createObjectURL(blob);
-  const a = document.createElement('a');
-  a.href = url;
-  a.download = fileName;
-  a.rel = 'noopener';
-  document.body.appendChild(a);
-  a.click();
-  a.remove();
-  setTimeout(() => URL.revokeObjectURL(url), 1000);
-}
-
 /** Exports `panel` in `format` and starts the download. */
 export async function exportPanel(panel: HTMLElement, format: PanelFormat, fileName: string, title?: string): Promise<void> {
   const { svg, width, height } = panelToSvg(panel, title);
   const blob = format === 'svg' ? new Blob([svg], { type: 'image/svg+xml' }) : await svgToPng(svg, width, height);
-  downloadBlob(blob, fileName);
+  saveBlob(blob, fileName, 1000);
 }
