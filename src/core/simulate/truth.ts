@@ -3,18 +3,13 @@
  * exact sensor noise, plus its file form (truth.json with the activations in a little-endian float32
  * side file). Later parts score decompositions and cleaned data against these.
  */
+import type { ReasonCode } from '../review/vocabulary.ts';
 
-/** Classes of true sources, matching the review's reason codes where one exists ('noise' has none). */
-export type TrueSourceClass =
-  | 'neural'
-  | 'blink'
-  | 'eye-movement'
-  | 'muscle'
-  | 'cardiac'
-  | 'line-noise'
-  | 'electrode'
-  | 'motion'
-  | 'noise';
+/**
+ * Classes of true sources: the review's reason codes that name an origin (every code but the judgements
+ * 'mixed' and 'unclear'), plus 'noise' for sources no reason code covers.
+ */
+export type TrueSourceClass = Exclude<ReasonCode, 'mixed' | 'unclear'> | 'noise';
 
 /** A current dipole in head coordinates (RAS, mm) with its moment in nA·m. */
 export interface TrueDipole {
