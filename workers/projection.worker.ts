@@ -3,19 +3,12 @@
  * the core's register-blocked kernel off the main thread. The result is transferred, not copied.
  */
 import { expose, transfer } from 'comlink';
-import { windowActivations } from '../src/core/review/preview-projection.ts';
+import { windowActivations, type WindowActivationsInput } from '../src/core/review/preview-projection.ts';
 
 const api = {
   /** k × length activations of a channel-major n × length window (see windowActivations). */
-  activations(
-    unmixing: Float64Array,
-    k: number,
-    n: number,
-    window: Float32Array,
-    length: number,
-    channelMeans: Float64Array | null,
-  ): Float64Array {
-    const out = windowActivations(unmixing, k, n, window, length, channelMeans);
+  activations(...input: WindowActivationsInput): Float64Array {
+    const out = windowActivations(...input);
     return transfer(out, [out.buffer]);
   },
 };

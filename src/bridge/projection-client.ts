@@ -6,6 +6,7 @@
  */
 import { wrap, type Remote } from 'comlink';
 import type { ProjectionApi } from '../../workers/projection.worker.ts';
+import type { WindowActivationsInput } from '../core/review/preview-projection.ts';
 
 const IDLE_MS = 10_000;
 
@@ -45,17 +46,10 @@ function scheduleIdleShutdown(): void {
  * S_w = W (X_w − m) for one window, computed in the worker. `window` and `unmixing` are copied to the
  * worker (the caller keeps them); the result is transferred back.
  */
-export async function windowActivationsInWorker(
-  unmixing: Float64Array,
-  k: number,
-  n: number,
-  window: Float32Array,
-  length: number,
-  channelMeans: Float64Array | null,
-): Promise<Float64Array> {
+export async function windowActivationsInWorker(...input: WindowActivationsInput): Promise<Float64Array> {
   pending++;
   try {
-    return await api().activations(unmixing, k, n, window, length, channelMeans);
+    return await api().activations(...input);
   } finally {
     pending--;
     scheduleIdleShutdown();
