@@ -20,17 +20,7 @@ import { writeFileAtomic } from './atomic-write.ts';
 import { CliError, numberOption, parseCommandArgs, processIo, type CliIo } from './cli-support.ts';
 import { formatTsv } from '../core/formats/bids.ts';
 import { simulateSession, type SimulateOptions } from '../core/simulate/simulate.ts';
-import {
-  TASK_NAME,
-  channelsTsv,
-  coordsystemJson,
-  eegJson,
-  electrodesTsv,
-  eventsJson,
-  eventsTsv,
-  sessionEdf,
-  sessionTruthFiles,
-} from '../core/simulate/session-files.ts';
+import { TASK_NAME, sessionEdf, sessionSidecars, sessionTruthFiles } from '../core/simulate/session-files.ts';
 
 /** The demo's fixed settings (changing them changes the bundled data; update README.md with them). */
 export const DEMO_OPTIONS: Required<Omit<SimulateOptions, 'sensorNoiseUv'>> = { seed: 1, channels: 32, minutes: 3, rate: 250, lineHz: 50 };
@@ -118,12 +108,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     }, null, 2) + '\n'],
     [join(root, 'participants.tsv'), formatTsv(['participant_id', 'description'], [['sub-01', 'simulated participant (no real person)']])],
     [join(eeg, `${base}_eeg.edf`), sessionEdf(session, 'data')],
-    [join(eeg, `${base}_eeg.json`), eegJson(session)],
-    [join(eeg, `${base}_channels.tsv`), channelsTsv(session)],
-    [join(eeg, `${base}_events.tsv`), eventsTsv(session)],
-    [join(eeg, `${base}_events.json`), eventsJson()],
-    [join(eeg, 'sub-01_electrodes.tsv'), electrodesTsv(session)],
-    [join(eeg, 'sub-01_coordsystem.json'), coordsystemJson(session)],
+    ...sessionSidecars(session).map((f): [string, string] => [join(eeg, `${f.taskEntity ? base : 'sub-01'}_${f.suffix}`), f.text]),
     [join(root, 'derivatives', 'simulation', 'dataset_description.json'), JSON.stringify({
       Name: 'Ground truth of the simulated demo participant',
       BIDSVersion: '1.10.0',

@@ -16,16 +16,7 @@ import { join } from 'node:path';
 import { writeFileAtomic } from './atomic-write.ts';
 import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { simulateSession, type SimulateOptions } from '../core/simulate/simulate.ts';
-import {
-  channelsTsv,
-  coordsystemJson,
-  eegJson,
-  electrodesTsv,
-  eventsJson,
-  eventsTsv,
-  sessionEdf,
-  sessionTruthFiles,
-} from '../core/simulate/session-files.ts';
+import { sessionEdf, sessionSidecars, sessionTruthFiles } from '../core/simulate/session-files.ts';
 
 const USAGE = 'usage: winnow simulate --out DIR [--seed N] [--channels 32|64] [--minutes M] [--rate HZ] [--line 50|60]';
 
@@ -63,12 +54,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   const files: [string, Uint8Array | string][] = [
     ['recording.edf', sessionEdf(session, 'data')],
     ['neural.edf', sessionEdf(session, 'neural')],
-    ['channels.tsv', channelsTsv(session)],
-    ['electrodes.tsv', electrodesTsv(session)],
-    ['coordsystem.json', coordsystemJson(session)],
-    ['events.tsv', eventsTsv(session)],
-    ['events.json', eventsJson()],
-    ['eeg.json', eegJson(session)],
+    ...sessionSidecars(session).map((f): [string, string] => [f.suffix, f.text]),
     ['truth.json', truth.truthJson],
     ['activations.f32', truth.activations],
     ['sensor-noise.f32', truth.sensorNoise],

@@ -152,6 +152,32 @@ export function eegJson(session: SimulatedSession): string {
   );
 }
 
+/** One BIDS sidecar of a session: its suffix (`channels.tsv` …) and text. */
+export interface SessionSidecar {
+  readonly suffix: 'channels.tsv' | 'electrodes.tsv' | 'coordsystem.json' | 'events.tsv' | 'events.json' | 'eeg.json';
+  /**
+   * Whether the BIDS name carries the task entity (`sub-01_task-X_channels.tsv`); electrodes and coordinate
+   * system files have none (`sub-01_electrodes.tsv`; BIDS specification v1.11, EEG "Electrodes description").
+   */
+  readonly taskEntity: boolean;
+  readonly text: string;
+}
+
+/**
+ * Every BIDS sidecar of a session, in the order `winnow simulate` lists them: channels, electrodes,
+ * coordinate system, events, events description, recording sidecar. Both writers name files from this list.
+ */
+export function sessionSidecars(session: SimulatedSession): SessionSidecar[] {
+  return [
+    { suffix: 'channels.tsv', taskEntity: true, text: channelsTsv(session) },
+    { suffix: 'electrodes.tsv', taskEntity: false, text: electrodesTsv(session) },
+    { suffix: 'coordsystem.json', taskEntity: false, text: coordsystemJson(session) },
+    { suffix: 'events.tsv', taskEntity: true, text: eventsTsv(session) },
+    { suffix: 'events.json', taskEntity: true, text: eventsJson() },
+    { suffix: 'eeg.json', taskEntity: true, text: eegJson(session) },
+  ];
+}
+
 /** truth.json text plus the activations and sensor-noise bytes, under the given file names. */
 export function sessionTruthFiles(
   session: SimulatedSession,

@@ -10,7 +10,9 @@ import {
   electrodesTsv,
   eventsTsv,
   formatSeconds,
+  eventsJson,
   sessionEdf,
+  sessionSidecars,
   sessionTruthFiles,
 } from '../../../src/core/simulate/session-files.ts';
 import type { SimulatedSession } from '../../../src/core/simulate/truth.ts';
@@ -123,5 +125,21 @@ describe('simulated session files', () => {
     expect(formatSeconds(2.5)).toBe('2.5');
     expect(formatSeconds(1 / 256)).toBe('0.00390625');
     expect(formatSeconds(1e-10)).toBe('0');
+  });
+});
+
+describe('sessionSidecars', () => {
+  it('lists the six BIDS sidecars with their writers\' text; only electrodes and coordsystem lack the task entity', () => {
+    // BIDS specification v1.11, EEG: *_electrodes.tsv and *_coordsystem.json take no task entity.
+    const list = sessionSidecars(s);
+    expect(list.map((f) => [f.suffix, f.taskEntity])).toEqual([
+      ['channels.tsv', true],
+      ['electrodes.tsv', false],
+      ['coordsystem.json', false],
+      ['events.tsv', true],
+      ['events.json', true],
+      ['eeg.json', true],
+    ]);
+    expect(list.map((f) => f.text)).toEqual([channelsTsv(s), electrodesTsv(s), coordsystemJson(s), eventsTsv(s), eventsJson(), eegJson(s)]);
   });
 });
