@@ -7,9 +7,9 @@ import type { SimulatedSession } from '../../../src/core/simulate/truth.ts';
 import { evidenceFor, expectClassVerdicts } from './simulated-classes.ts';
 
 // The whole chain on 64 channels with a real decomposition (issue 6: "both 32 and 64 channels"): Picard-O
-// (seeded), then evidence and suggestions, on a seed other than the 32-channel Infomax test's (seed 2 passed too when run by hand; one seed keeps CI short). Only sources
-// the decomposition recovered (|map r| ≥ 0.85) are checked, with the class expectations of simulated-classes.ts
-// (common practice, issue 6). Decomposed once per seed, in beforeAll.
+// (seeded), then evidence and suggestions, on a seed other than the 32-channel Infomax test's (seed 2 passed
+// too when run by hand; one seed keeps CI short). Only sources the decomposition recovered (|map r| >= 0.85)
+// are checked, with the class expectations of simulated-classes.ts (common practice, issue 6).
 describe.each([5])('suggestions after Picard on a simulated 64-channel session (seed %i)', (seed) => {
   let s: SimulatedSession;
   let dec: Decomposition;
