@@ -14,6 +14,7 @@
  * electrodes from rounding level (~1e-14) to ~cond(G) × ε (~2e-12 for the 21-electrode check).
  */
 import { luFactor, luSolve } from '../linalg/lu.ts';
+import { electrodeDirections } from './sphere.ts';
 
 /**
  * g_m(x) of Perrin et al. (1989), 1/(4π) included; x = cos(angle) is clamped to [−1, 1].
@@ -138,19 +139,9 @@ export interface SplineOptions {
   targetKernel?: 'series' | 'table';
 }
 
+/** Unit vectors of the whole triples in `v` (a trailing partial triple is dropped). */
 function normalise(v: Float64Array): Float64Array {
-  const n = Math.floor(v.length / 3);
-  const out = new Float64Array(3 * n);
-  for (let i = 0; i < n; i++) {
-    const x = v[3 * i];
-    const y = v[3 * i + 1];
-    const z = v[3 * i + 2];
-    const inv = 1 / Math.sqrt(x * x + y * y + z * z);
-    out[3 * i] = x * inv;
-    out[3 * i + 1] = y * inv;
-    out[3 * i + 2] = z * inv;
-  }
-  return out;
+  return electrodeDirections(v, new Float64Array(3 * Math.floor(v.length / 3)));
 }
 
 /**
