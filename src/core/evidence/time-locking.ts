@@ -22,37 +22,10 @@ export function lockedShare(
 ): number {
   const n = eventSamples.length;
   if (n < 2 || length < 2) return NaN;
-  if (stride > 1) return lockedShareStrided(x, eventSamples, firstOffset, length, stride, scratch);
+  // `stride` evaluates every stride-th sample of each epoch (same estimator on a coarser time grid).
+  const step = stride > 1 ? stride : 1;
+  const m = Math.ceil(length / step);
   // One pass per epoch: Σ_r x_r[j], Σ_r m_r and Σ (x − m_r)² = Σ x² − L m_r².
-  scratch.fill(0, 0, length);
-  let single = 0;
-  let meanSum = 0;
-  for (let r = 0; r < n; r++) {
-    const start = eventSamples[r] + firstOffset;
-    let s = 0;
-    let s2 = 0;
-    for (let j = 0; j < length; j++) {
-      const v = x[start + j];
-      scratch[j] += v;
-      s += v;
-      s2 += v * v;
-    }
-    const m = s / length;
-    meanSum += m;
-    single += s2 - length * m * m;
-  }
-  for (let j = 0; j < length; j++) scratch[j] -= meanSum;
-  let avg = 0;
-  for (let j = 0; j < length; j++) avg += (scratch[j] / n) ** 2;
-  avg /= length;
-  single /= n * length;
-  return single > 0 ? (n * avg - single) / ((n - 1) * single) : NaN;
-}
-
-/** lockedShare over every `stride`-th sample of each epoch (same estimator on a coarser time grid). */
-function lockedShareStrided(x: ArrayLike<number>, eventSamples: ArrayLike<number>, firstOffset: number, length: number, stride: number, scratch: Float64Array): number {
-  const n = eventSamples.length;
-  const m = Math.ceil(length / stride);
   scratch.fill(0, 0, m);
   let single = 0;
   let meanSum = 0;
@@ -60,7 +33,7 @@ function lockedShareStrided(x: ArrayLike<number>, eventSamples: ArrayLike<number
     const start = eventSamples[r] + firstOffset;
     let s = 0;
     let s2 = 0;
-    for (let j = 0, q = 0; j < length; j += stride, q++) {
+    for (let j = 0, q = 0; j < length; j += step, q++) {
       const v = x[start + j];
       scratch[q] += v;
       s += v;
