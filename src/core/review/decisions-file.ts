@@ -42,13 +42,9 @@ export interface DecisionsFile {
   readonly components: readonly DecisionsFileComponent[];
 }
 
-export interface DecisionsFileInput {
-  readonly aim: Aim;
-  readonly reviewer: string;
-  readonly createdAt: string;
-  readonly software: string;
-  readonly recordingSha256: string;
-  readonly decompositionSha256: string;
+/** What `buildDecisionsFile` needs: the file's header fields as written, plus the review state. */
+export interface DecisionsFileInput
+  extends Pick<DecisionsFile, 'aim' | 'reviewer' | 'createdAt' | 'software' | 'recordingSha256' | 'decompositionSha256'> {
   /** Number of components in the decomposition; every one gets an entry (undecided when absent). */
   readonly nComponents: number;
   readonly decisions: Readonly<Record<number, ReviewDecision>>;
