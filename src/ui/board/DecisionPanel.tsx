@@ -4,10 +4,10 @@
  * Tab reaches all of them.
  */
 import { useEffect, useRef, useState } from 'react';
-import { REASON_CODES, type ReasonCode } from '../../core/review/vocabulary.ts';
 import { selectComponentEvidence, selectDecision, useWorkbench } from '../../state/index.ts';
 import { VerdictMark } from './VerdictMark.tsx';
 import { VerdictButtons } from '../decision/VerdictButtons.tsx';
+import { ReasonSelect } from '../decision/ReasonSelect.tsx';
 
 /** Milliseconds of typing pause after which a note is committed (also on blur). */
 const NOTE_COMMIT_MS = 600;
@@ -50,20 +50,12 @@ function DecisionPanelFor({ index }: { index: number }) {
         groupLabel="Verdict"
         title={(v) => `${v} (key ${v === 'keep' ? 'k' : v === 'remove' ? 'x' : '0'})`}
       />
-      <label className="field">
-        Reason
-        <select
-          value={decision.reason ?? ''}
-          onChange={(e) => decide(index, { reason: e.target.value === '' ? null : (e.target.value as ReasonCode) })}
-          data-testid="reason-select"
-          title="Reason code (keys r / Shift+R cycle)"
-        >
-          <option value="">(none)</option>
-          {REASON_CODES.map((r) => (
-            <option key={r} value={r}>{r}</option>
-          ))}
-        </select>
-      </label>
+      <ReasonSelect
+        reason={decision.reason}
+        onChoose={(reason) => decide(index, { reason })}
+        testId="reason-select"
+        title="Reason code (keys r / Shift+R cycle)"
+      />
       <label className="field">
         Note
         <textarea

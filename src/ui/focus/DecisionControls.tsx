@@ -6,8 +6,8 @@
 import { useEffect, useRef, useState } from 'react';
 import { useWorkbench } from '../../state/index.ts';
 import { UNDECIDED } from '../../core/review/decisions-file.ts';
-import { REASON_CODES, type ReasonCode } from '../../core/review/vocabulary.ts';
 import { VerdictButtons } from '../decision/VerdictButtons.tsx';
+import { ReasonSelect } from '../decision/ReasonSelect.tsx';
 
 const NOTE_COMMIT_MS = 400;
 
@@ -37,19 +37,7 @@ export function DecisionControls({ index }: { index: number }) {
   return (
     <div className="decision-controls" role="group" aria-label={`Decision for component ${index}`}>
       <VerdictButtons verdict={decision.verdict} onChoose={(v) => decide(index, { verdict: v })} testIdPrefix="decision" />
-      <label className="field">
-        Reason
-        <select
-          value={decision.reason ?? ''}
-          data-testid="decision-reason"
-          onChange={(e) => decide(index, { reason: (e.target.value || null) as ReasonCode | null })}
-        >
-          <option value="">(none)</option>
-          {REASON_CODES.map((r) => (
-            <option key={r} value={r}>{r}</option>
-          ))}
-        </select>
-      </label>
+      <ReasonSelect reason={decision.reason} onChoose={(reason) => decide(index, { reason })} testId="decision-reason" />
       <label className="field">
         Note
         <textarea
