@@ -58,19 +58,6 @@ export function extractWindow(
 }
 
 /**
- * The arguments of `windowActivations` without `out`: what the projection worker receives and its client
- * passes on, named once here.
- */
-export type WindowActivationsInput = [
-  unmixing: Float64Array,
-  k: number,
-  n: number,
-  window: Float32Array,
-  length: number,
-  channelMeans: Float64Array | null,
-];
-
-/**
  * S_w = W (X_w − m) for a channel-major window X_w (n × L): W is k × n row-major, m the channel means
  * (or null when the decomposition was computed on the data as is). Uses the register-blocked kernel,
  * then subtracts W m once per component: W (X − m) = W X − W m.
@@ -96,6 +83,13 @@ export function windowActivations(
   }
   return out;
 }
+
+/**
+ * The arguments of `windowActivations` without `out`: what the projection worker receives and its client
+ * passes on (taken from the signature, so the list is written once).
+ */
+export type WindowActivationsInput =
+  Parameters<typeof windowActivations> extends [...infer Input, (Float64Array | undefined)?] ? Input : never;
 
 /** Starts a preview window with nothing removed (cleaned = original). */
 export function createPreviewWindow(

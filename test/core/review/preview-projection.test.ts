@@ -1,4 +1,4 @@
-import { describe, expect, it } from 'vitest';
+import { describe, expect, expectTypeOf, it } from 'vitest';
 import fixture from '../../fixtures/preview/preview_projection.json' with { type: 'json' };
 import {
   applyRemovedSet,
@@ -13,6 +13,7 @@ import {
   setComponentRemoved,
   windowActivations,
   windowChecksum,
+  type WindowActivationsInput,
 } from '../../../src/core/review/preview-projection.ts';
 import { epochMean, extractEpochs } from '../../../src/core/signal/epochs.ts';
 
@@ -200,5 +201,14 @@ describe('regionErpPlan', () => {
   it('returns null when no epoch fits in the recording', () => {
     const X = new Float32Array(20);
     expect(regionErpPlan(X, 10, 100, [0, 1], [0], new Float64Array(2), new Float64Array(2), 1, [5])).toBeNull();
+  });
+});
+
+describe('WindowActivationsInput', () => {
+  it('is windowActivations\' six inputs without the out buffer (what the projection worker takes)', () => {
+    // Checked by the type checker (tsc --noEmit covers test/).
+    expectTypeOf<WindowActivationsInput>().toEqualTypeOf<
+      [unmixing: Float64Array, k: number, n: number, window: Float32Array, length: number, channelMeans: Float64Array | null]
+    >();
   });
 });
