@@ -23,8 +23,8 @@ export function DecomposeForm() {
         <label>
           Method{' '}
           <select value={method} onChange={(e) => setMethod(e.target.value as DecomposeOptions['method'])} data-testid="decompose-method">
-            <option value="infomax">extended Infomax</option>
-            <option value="picard">Picard</option>
+            <option value="picard">Picard (faster)</option>
+            <option value="infomax">extended Infomax (slower)</option>
           </select>
         </label>
         <label>
