@@ -138,11 +138,11 @@ export function leadField(
   positionMm: ArrayLike<number>,
   out: Float64Array = new Float64Array(electrodes.length - (electrodes.length % 3)),
 ): Float64Array {
-  if (model.fast) return leadFieldFast(model, electrodes, positionMm, out);
+  // The homogeneous sphere's closed form is exact, so the fast path is the exact one there.
+  if (model.fast || model.kind === 'sphere') return leadFieldFast(model, electrodes, positionMm, out);
   const m = Math.floor(electrodes.length / 3);
   if (!positionInside(model, positionMm)) return out.fill(NaN, 0, 3 * m);
-  if (model.kind === 'sphere') sphereLeadField(electrodes, model.radiusMm, positionMm, out);
-  else shellSeriesLeadField(model.seriesCoefficients, electrodes, model.radiusMm, positionMm, out);
+  shellSeriesLeadField(model.seriesCoefficients, electrodes, model.radiusMm, positionMm, out);
   return scaleToMicrovolts(model, out, m);
 }
 
