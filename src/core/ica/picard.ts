@@ -285,6 +285,16 @@ export interface PicardWarmStartOptions extends PicardOptions {
   warmTol?: number;
 }
 
+/** Runs `run` with a two-thread evaluator over Z when `threads` is given (one thread otherwise), always releasing it. */
+function withEvaluator<R>(threads: IcaThreads | undefined, Z: Float32Array, k: number, T: number, run: (evaluator: PassEvaluator | undefined) => R): R {
+  const ev = threads ? threads.evaluator(Z, k, T) : undefined;
+  try {
+    return run(ev);
+  } finally {
+    ev?.release();
+  }
+}
+
 /**
  * Picard-O with a subsampled warm start (our speed-up, not from the papers): stage 1 runs on every
  * `stride`-th sample (a k × T/stride copy) to a loose tolerance; stage 2 starts from its unmixing on all
@@ -296,12 +306,7 @@ export function picardWarmStarted(Z: Float32Array, k: number, T: number, opts: P
   const stride = Math.max(1, Math.floor(opts.stride ?? 4));
   const Ts = Math.floor(T / stride);
   if (stride === 1 || Ts < 5 * k * k || Ts < 1000) {
-    const ev = opts.threads ? opts.threads.evaluator(Z, k, T) : undefined;
-    try {
-      return picardOrthogonal(Z, k, T, { ...opts, evaluator: ev });
-    } finally {
-      ev?.release();
-    }
+    return withEvaluator(opts.threads, Z, k, T, (evaluator) => picardOrthogonal(Z, k, T, { ...opts, evaluator }));
   }
   const threads = opts.threads;
   const Zs = threads ? threads.allocate(k * Ts) : new Float32Array(k * Ts);
@@ -311,32 +316,24 @@ export function picardWarmStarted(Z: Float32Array, k: number, T: number, opts: P
     for (let t = 0; t < Ts; t++) Zs[dst + t] = Z[src + t * stride];
   }
   const maxIter = opts.maxIter ?? 500;
-  const ev1 = threads ? threads.evaluator(Zs, k, Ts) : undefined;
-  let first: IcaResult;
-  try {
-    first = picardOrthogonal(Zs, k, Ts, {
+  const first = withEvaluator(threads, Zs, k, Ts, (evaluator) =>
+    picardOrthogonal(Zs, k, Ts, {
       ...opts,
-      evaluator: ev1,
+      evaluator,
       tol: opts.warmTol ?? 1e-4,
       maxIter,
       monitor: opts.monitor ? { poll: opts.monitor.poll, iteration: (it, c) => opts.monitor?.iteration?.(it, c, opts.tol ?? 1e-7) } : undefined,
-    });
-  } finally {
-    ev1?.release();
-  }
+    }),
+  );
   const offset = first.iterations;
-  const ev2 = threads ? threads.evaluator(Z, k, T) : undefined;
-  let second: IcaResult;
-  try {
-    second = picardOrthogonal(Z, k, T, {
+  const second = withEvaluator(threads, Z, k, T, (evaluator) =>
+    picardOrthogonal(Z, k, T, {
       ...opts,
-      evaluator: ev2,
+      evaluator,
       initialW: first.W,
       maxIter: Math.max(1, maxIter - offset),
       monitor: opts.monitor ? { poll: opts.monitor.poll, iteration: (it, c, tol) => opts.monitor?.iteration?.(offset + it, c, tol) } : undefined,
-    });
-  } finally {
-    ev2?.release();
-  }
+    }),
+  );
   return { ...second, iterations: offset + second.iterations, warnings: [...first.warnings.filter((w) => !/did not converge/.test(w)), ...second.warnings] };
 }
