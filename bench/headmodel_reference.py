@@ -2,11 +2,11 @@
 """
 Reference timing for bench/headmodel.bench.ts: single-dipole fits of the same maps with
 scipy.optimize.least_squares(method='lm') on the variable-projection residual (moment solved linearly,
-average reference on model and data; METHODS §15), started from the same points our coarse grid picked.
+average reference on model and data; docs/methods.md §15), started from the same points our coarse grid picked.
 
 Forward models in numpy, vectorised over electrodes:
-  sphere      closed form (METHODS §8.2)
-  three-shell Legendre series with g_n from the ratio recursion of METHODS §8.3, terms up to the same
+  sphere      closed form (docs/methods.md §8.2)
+  three-shell Legendre series with g_n from the ratio recursion of docs/methods.md §8.3, terms up to the same
               convergence bound as src/core/headmodel/shells.ts
 
 Usage: python3 headmodel_reference.py input.json  -> prints JSON {"ms": [...], "positions": [...]} on stdout.

@@ -80,7 +80,7 @@ test('reviewing the demo participant: decide, preview, focus, export, reload, ke
   const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-decisions-json').click()]);
   const exportedPath = await download.path();
   const exported = JSON.parse(await readFile(exportedPath, 'utf8'));
-  expect(exported.format).toBe('winnow-decisions/1');
+  expect(exported.format).toBe('winnow-decisions/2');
   expect(exported.aim).toBe('erp');
   expect(exported.recordingSha256).toMatch(/^[0-9a-f]{64}$/);
   expect(exported.decompositionSha256).toMatch(/^[0-9a-f]{64}$/);

@@ -27,10 +27,10 @@ function resultBuffers(result: EvidenceResult): ArrayBuffer[] {
       add(c.erp.band.lower);
       add(c.erp.band.upper);
     }
-    if (c.epochImage) {
-      add(c.epochImage.data);
-      add(c.epochImage.times);
-      add(c.epochImage.responseTimes);
+    if (c.trialStack) {
+      add(c.trialStack.data);
+      add(c.trialStack.times);
+      add(c.trialStack.responseTimes);
     }
   }
   return [...seen];

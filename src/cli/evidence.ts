@@ -19,10 +19,10 @@
  *     index                 1-based component number
  *     varianceShare         share (0–1) of the data's variance carried by the back-projected component
  *     spectrum              { frequencies (Hz), power (µV²/Hz at the strongest channel), powerDb, channel }
- *     aperiodicExponent     χ of P ∝ f^−χ, 2–40 Hz robust log–log fit; aperiodicOffset: log10 P at 1 Hz
- *     alphaPeakHz           7–14 Hz peak above the aperiodic fit, or null; alphaProminence (log10 units)
+ *     oneOverFExponent     χ of P ∝ f^−χ, 2–40 Hz robust log–log fit; oneOverFOffset: log10 P at 1 Hz
+ *     alphaPeakHz           7–14 Hz peak above the 1/f fit, or null; alphaProminence (log10 units)
  *     highFrequencyShare    BP(20, line−2) / BP(2, line−2); highFrequencySlope: log–log slope above 20 Hz
- *     lineNoiseShare        Σ BP(h·line ± 1 Hz) / BP(1, fmax); linePeakRatio: P(line) / median neighbours
+ *     mainsShare        Σ BP(h·line ± 1 Hz) / BP(1, fmax); linePeakRatio: P(line) / median neighbours
  *     lowFrequencyShare     BP(1, 4) / BP(1, 45)
  *     kurtosis              excess kurtosis of the activation
  *     focality              { share of map energy on one electrode, channel }
@@ -37,7 +37,7 @@
  *     map                   scalp map (unit L2 norm), decomposition channel order
  *     suggestion            { verdict, reason, because } for --aim (default erp)
  *     suggestions           { erp, oscillations, conservative }, each { verdict, reason, because }
- *   Epoch images (trials × time) are not written; the workbench computes them.
+ *   Trial stacks (trials × time) are not written; the workbench computes them.
  *   NaN and infinite numbers are written as null.
  */
 import { readFile } from 'node:fs/promises';
@@ -99,13 +99,13 @@ export function componentJson(e: ComponentEvidence, aim: Aim): Record<string, un
     index: e.index,
     varianceShare: finite(e.varianceShare),
     spectrum: { frequencies: list(e.spectrum.frequencies), power: list(e.spectrum.power), powerDb: list(e.spectrum.powerDb), channel: e.strongestChannel.label },
-    aperiodicExponent: finite(e.aperiodic.exponent),
-    aperiodicOffset: finite(e.aperiodic.offset),
+    oneOverFExponent: finite(e.oneOverF.exponent),
+    oneOverFOffset: finite(e.oneOverF.offset),
     alphaPeakHz: e.alphaPeakHz,
     alphaProminence: finite(e.alphaProminence),
     highFrequencyShare: finite(e.highFrequencyShare),
     highFrequencySlope: finite(e.highFrequencySlope),
-    lineNoiseShare: finite(e.lineNoiseShare),
+    mainsShare: finite(e.mainsShare),
     linePeakRatio: finite(e.linePeakRatio),
     lowFrequencyShare: finite(e.lowFrequencyShare),
     kurtosis: finite(e.kurtosis),

@@ -8,11 +8,11 @@ const commands: Record<string, { summary: string; load: () => Promise<{ run: Com
   inspect: { summary: 'print a recording header, channels and events as JSON', load: () => import('./inspect.ts') },
   read: { summary: 'print samples as TSV', load: () => import('./read.ts') },
   forward: { summary: 'potentials of a current dipole at electrodes (TSV)', load: () => import('./forward.ts') },
-  'fit-dipole': { summary: 'fit one equivalent dipole to a scalp map (JSON)', load: () => import('./fit-dipole.ts') },
+  dipole: { summary: 'fit one equivalent dipole to a scalp map (JSON)', load: () => import('./dipole.ts') },
   simulate: { summary: 'simulate a mobile EEG session with known sources', load: () => import('./simulate.ts') },
   decompose: { summary: 'run ICA (extended Infomax or Picard) on a recording', load: () => import('./decompose.ts') },
   evidence: { summary: 'compute per-component evidence and suggested verdicts', load: () => import('./evidence.ts') },
-  apply: { summary: 'write the cleaned recording from a decisions file', load: () => import('./apply.ts') },
+  clean: { summary: 'write the cleaned recording from a decisions file', load: () => import('./clean.ts') },
 };
 
 function usage(): string {

@@ -1,5 +1,5 @@
 /**
- * An ICA decomposition of a recording: X_c ≈ A S, S = W X_c (METHODS §6–7). `mixing` is channels ×
+ * An ICA decomposition of a recording: X_c ≈ A S, S = W X_c (docs/methods.md §6–7). `mixing` is channels ×
  * components (column i = scalp map of component i), `unmixing` components × channels, both row-major
  * Float64Array. Components are ordered by variance accounted for (largest first).
  */

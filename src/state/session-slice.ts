@@ -11,7 +11,7 @@ import { DEFAULT_ROI } from './view-slice.ts';
 import type { DecomposeOptions, SessionSlice, WorkbenchState } from './types.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 
-/** Default decomposition when none is given: extended Infomax, seed 1, 1 Hz high-pass (METHODS §14, common practice). */
+/** Default decomposition when none is given: extended Infomax, seed 1, 1 Hz high-pass (docs/methods.md §14, common practice). */
 // Picard by default in the browser: same maximum-likelihood model as extended Infomax, several times faster here
 // (bench/ica.bench.ts), so the researcher waits less; Infomax stays one choice away.
 export const DEFAULT_DECOMPOSE = { method: 'picard', seed: 1, highpassHz: 1 } as const;

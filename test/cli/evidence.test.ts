@@ -114,7 +114,7 @@ describe('winnow evidence (issue 6 contract)', () => {
     expect(o.format).toBe('winnow-evidence/1');
     expect(o.components).toHaveLength(8);
     for (const c of o.components) {
-      for (const key of ['index', 'varianceShare', 'spectrum', 'aperiodicExponent', 'alphaPeakHz', 'highFrequencyShare', 'lineNoiseShare', 'dipole', 'suggestion'])
+      for (const key of ['index', 'varianceShare', 'spectrum', 'oneOverFExponent', 'alphaPeakHz', 'highFrequencyShare', 'mainsShare', 'dipole', 'suggestion'])
         expect(c).toHaveProperty(key);
       expect(c.spectrum.frequencies.length).toBe(c.spectrum.power.length);
       expect(c.spectrum.frequencies[0]).toBeGreaterThanOrEqual(1);
@@ -128,7 +128,7 @@ describe('winnow evidence (issue 6 contract)', () => {
     expect(blink.eogCorrelation.vertical).toBeGreaterThan(0.9);
     expect(blink.suggestion).toMatchObject({ verdict: 'remove', reason: 'blink' });
     expect(electrode.focality).toEqual({ share: 1, channel: 'O2' });
-    expect(electrode.suggestion).toMatchObject({ verdict: 'remove', reason: 'electrode' });
+    expect(electrode.suggestion).toMatchObject({ verdict: 'remove', reason: 'contact' });
     expect(alpha.dipole).toHaveProperty('residualVariance');
     expect(alpha.dipole.position).toHaveLength(3);
     expect(o.epochEvent).toBe('cue');

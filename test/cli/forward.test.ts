@@ -33,7 +33,7 @@ describe('winnow forward (issue 3 contract)', () => {
     expect(r.code).toBe(0);
     expect(r.rows[0]).toEqual(['name', 'potential']);
     expect(r.rows.slice(1).map((row) => row[0])).toEqual(names);
-    // closed form, METHODS §8.2 / §8.4: 0.8931253821 µV at Cz for 10 nA·m, R = 90 mm, σ = 0.33 S/m
+    // closed form, docs/methods.md §8.2 / §8.4: 0.8931253821 µV at Cz for 10 nA·m, R = 90 mm, σ = 0.33 S/m
     const cz = Number(r.rows.find((row) => row[0] === 'Cz')![1]);
     expect(cz).toBeCloseTo(0.8931253821094, 9);
     const c3 = Number(r.rows.find((row) => row[0] === 'C3')![1]);

@@ -39,7 +39,7 @@ export interface Moments {
   readonly mean: number;
   /** Population variance (divide by n). */
   readonly variance: number;
-  /** Excess kurtosis E[(s−μ)⁴]/σ⁴ − 3 (0 for a Gaussian; METHODS §14). NaN for constant signals. */
+  /** Excess kurtosis E[(s−μ)⁴]/σ⁴ − 3 (0 for a Gaussian; docs/methods.md §14). NaN for constant signals. */
   readonly kurtosis: number;
 }
 

@@ -1,5 +1,5 @@
 /**
- * Cardiac evidence (METHODS §14, common practice): a heartbeat component repeats sharp QRS complexes every
+ * Cardiac evidence (docs/methods.md §14, common practice): a heartbeat component repeats sharp QRS complexes every
  * 0.4–1.5 s (40–150 beats per minute). We smooth the activation over ≈ 20 ms (a boxcar, so broadband noise
  * above ~25 Hz does not swamp it), take the change over ≈ 20 ms and square it (slope energy, which the
  * sharp QRS dominates), sum that in blocks of ≈ 40 ms, smooth the block energies over 120 ms, remove the

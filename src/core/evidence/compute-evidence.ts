@@ -4,7 +4,7 @@
  * long the recording; every per-component number is then taken from that block and the block is dropped.
  *
  * Order of work per block: activations → moments and variance shares → Welch spectrum and its shape →
- * ocular, focality, cardiac → epochs (ERP, epoch image, time-locking, step-locking) → dipole → suggestions.
+ * ocular, focality, cardiac → epochs (ERP, trial stack, time-locking, step-locking) → dipole → suggestions.
  * `timings` reports the wall time of each stage in ms (activations, spectra, epochs, dipoles, other).
  */
 import type { Decomposition } from '../decomposition.ts';
@@ -20,9 +20,9 @@ import { cardiacPeriodicity } from './cardiac.ts';
 import { mapFocality } from './focality.ts';
 import { STEP_EVENT_PATTERN, stepLocking } from './motion.ts';
 import { eogReferences, mapGeometry, mirrorPairs, stepLikeness } from './ocular.ts';
-import { findAlphaPeak, fitAperiodic, spectrumShares } from './spectrum-shape.ts';
+import { findAlphaPeak, fitOneOverF, spectrumShares } from './spectrum-shape.ts';
 import { eventLocked } from './time-locking.ts';
-import type { ComponentEvidence, DipoleEvidence, EpochImage, ErpEvidence } from './types.ts';
+import type { ComponentEvidence, DipoleEvidence, TrialStack, ErpEvidence } from './types.ts';
 
 export interface EvidenceEvent {
   readonly onset: number;
@@ -115,7 +115,7 @@ export function createDefaultDipoleFit(positionsUnit: Float64Array, headRadiusMm
     for (let k = 0; k < 3; k++) electrodes[3 * i + k] = positionsUnit[3 * c + k] * headRadiusMm;
   });
   // The fast (equivalent-dipole) three-shell approximation without the exact-series polish: ~10× cheaper
-  // per map and well within what an approximate region needs; the CLI's fit-dipole gives the exact fit.
+  // per map and well within what an approximate region needs; the CLI's dipole command gives the exact fit.
   const fitter = createDipoleFitter(createHeadModel({ radiusMm: headRadiusMm, fast: true }), electrodes, { refine: false });
   const sub = new Float64Array(usable.length);
   return (map) => {
@@ -296,8 +296,8 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
       }
       const frequencies = freqs.slice(kLo, kHi + 1);
       tNow = tick('spectra', tNow);
-      const aperiodic = fitAperiodic(frequencies, power, { rangeHz: [2, 40], excludeHz: lineExclude });
-      const alpha = findAlphaPeak(frequencies, power, aperiodic, [7, 14], thresholds.alphaProminence);
+      const oneOverF = fitOneOverF(frequencies, power, { rangeHz: [2, 40], excludeHz: lineExclude });
+      const alpha = findAlphaPeak(frequencies, power, oneOverF, [7, 14], thresholds.alphaProminence);
       const shares = spectrumShares(frequencies, power, lineHz, fmax);
       tNow = tick('shape', tNow);
 
@@ -313,7 +313,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
 
       // Event-locked
       let erp: ErpEvidence | null = null;
-      let epochImage: EpochImage | null = null;
+      let trialStack: TrialStack | null = null;
       if (epochName && epochOnsets.length >= 2) {
         const locked = eventLocked(scaled, fs, epochOnsets, win, input.permutations ?? 19, 1 + i);
         if (locked) {
@@ -329,7 +329,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
             lockedShare: locked.test.observed,
             permutationP: locked.test.p,
           };
-          epochImage = {
+          trialStack = {
             nEpochs: locked.epochs.nEpochs,
             length: locked.epochs.length,
             data: Float32Array.from(locked.epochs.epochs),
@@ -351,12 +351,12 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
         strongestChannel: { index: strongest, label: dec.channels[strongest], weight },
         map,
         spectrum: { frequencies, power, powerDb, nfft, df: fs / nfft },
-        aperiodic: { exponent: aperiodic.exponent, offset: aperiodic.offset, rangeHz: [2, 40] },
+        oneOverF: { exponent: oneOverF.exponent, offset: oneOverF.offset, rangeHz: [2, 40] },
         alphaPeakHz: alpha.frequencyHz,
         alphaProminence: alpha.prominence,
         highFrequencyShare: shares.highFrequencyShare,
         highFrequencySlope: shares.highFrequencySlope,
-        lineNoiseShare: shares.lineNoiseShare,
+        mainsShare: shares.mainsShare,
         linePeakRatio: shares.linePeakRatio,
         lowFrequencyShare: shares.lowFrequencyShare,
         kurtosis: moments.kurtosis,
@@ -369,7 +369,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
         cardiac: { bpm: cardiac.bpm, peak: cardiac.peak },
         stepLocking: step,
         erp,
-        epochImage,
+        trialStack,
         dipole,
       };
       components.push({ ...partial, suggestions: suggestAllAims(partial, thresholds) });

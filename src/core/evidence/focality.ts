@@ -1,5 +1,5 @@
 /**
- * Single-electrode evidence (METHODS §14, common practice): the share of a scalp map's energy on its
+ * Single-electrode evidence (docs/methods.md §14, common practice): the share of a scalp map's energy on its
  * largest electrode, max_c a_c² / Σ_j a_j². A loose or bridged electrode gives one channel most of the
  * map (> ~0.5–0.8 [common practice / from memory]); brain and ocular maps spread over many.
  */

@@ -1,5 +1,5 @@
 /**
- * Ocular evidence (METHODS §14, common practice): where the map sits (frontal-pole weight, left–right
+ * Ocular evidence (docs/methods.md §14, common practice): where the map sits (frontal-pole weight, left–right
  * antisymmetry), whether the activation follows the eyes (correlation with EOG channels, or with a
  * frontal bipolar proxy when none were recorded), and whether its slow jumps persist as steps
  * (saccades) or return (blinks).
@@ -13,7 +13,7 @@ export const FRONTAL_POLE_Y = 0.75;
 export interface MapGeometry {
   /** Share (0…1) of Σ a² on frontal-pole sites; NaN when no site qualifies. */
   readonly frontalShare: number;
-  /** Mean |a| on frontal-pole sites ÷ mean |a| elsewhere (METHODS §14 "frontal dominance"). */
+  /** Mean |a| on frontal-pole sites ÷ mean |a| elsewhere (docs/methods.md §14 "frontal dominance"). */
   readonly frontalGradient: number;
   /** Pearson r of |a| with the anterior coordinate y (positive: falls off posteriorly). */
   readonly anteriorCorrelation: number;

@@ -1,5 +1,5 @@
 /**
- * Shape of a power spectrum: aperiodic (1/f) fit, alpha peak, and band-power shares (METHODS §2–4).
+ * Shape of a power spectrum: 1/f fit, alpha peak, and band-power shares (docs/methods.md §2–4).
  * All inputs are one-sided densities P[k] (any unit²/Hz) at frequencies f[k] Hz; band edges inclusive.
  */
 
@@ -46,7 +46,7 @@ export function percentile(values: ArrayLike<number>, p: number): number {
   return a[lo] + (a[hi] - a[lo]) * (pos - lo);
 }
 
-export interface AperiodicResult {
+export interface OneOverFResult {
   /** χ = −slope (positive for falling spectra). */
   readonly exponent: number;
   /** b = intercept, log10 power at 1 Hz. */
@@ -55,22 +55,22 @@ export interface AperiodicResult {
   readonly nKept: number;
 }
 
-export interface AperiodicOptions {
-  /** Fit range in Hz, inclusive (default 2–40 Hz, METHODS §2: avoid < 2 Hz and the line band). */
+export interface OneOverFOptions {
+  /** Fit range in Hz, inclusive (default 2–40 Hz, docs/methods.md §2: avoid < 2 Hz and the line band). */
   readonly rangeHz?: readonly [number, number];
   /** Bands (Hz, inclusive) left out of the fit, e.g. the line band. */
   readonly excludeHz?: readonly (readonly [number, number])[];
-  /** 'robust' (two-pass rule of METHODS §2, default), 'all' (plain OLS). */
+  /** 'robust' (two-pass rule of docs/methods.md §2, default), 'all' (plain OLS). */
   readonly rule?: 'robust' | 'all';
 }
 
 /**
- * Aperiodic exponent in log–log space (Donoghue et al. 2020, Nat. Neurosci. 23:1655 "fixed" model,
- * log10 P = b − χ log10 f), estimated with METHODS §2's robust two-pass least squares: fit all bins;
+ * 1/f exponent in log–log space (Donoghue et al. 2020, Nat. Neurosci. 23:1655 "fixed" model,
+ * log10 P = b − χ log10 f), estimated with docs/methods.md §2's robust two-pass least squares: fit all bins;
  * keep the bins whose positive residual is at or below its 2.5th percentile (peaks stop pulling the
  * line); fit again. Bins with P ≤ 0 or non-finite are skipped.
  */
-export function fitAperiodic(frequencies: ArrayLike<number>, psd: ArrayLike<number>, options: AperiodicOptions = {}): AperiodicResult {
+export function fitOneOverF(frequencies: ArrayLike<number>, psd: ArrayLike<number>, options: OneOverFOptions = {}): OneOverFResult {
   const [lo, hi] = options.rangeHz ?? [2, 40];
   const exclude = options.excludeHz ?? [];
   const xs: number[] = [];
@@ -102,14 +102,14 @@ export function fitAperiodic(frequencies: ArrayLike<number>, psd: ArrayLike<numb
 export interface AlphaPeak {
   /** Peak frequency, Hz (parabolic refinement on the flattened spectrum), or null. */
   readonly frequencyHz: number | null;
-  /** Height above the aperiodic fit at the peak bin, log10 units. 0 when none. */
+  /** Height above the 1/f fit at the peak bin, log10 units. 0 when none. */
   readonly prominence: number;
 }
 
 /**
- * Alpha peak (METHODS §3, after Klimesch 1999): the largest local maximum of the flattened spectrum
+ * Alpha peak (docs/methods.md §3, after Klimesch 1999): the largest local maximum of the flattened spectrum
  * log10 P − (b − χ log10 f) inside `searchHz` (default 7–14 Hz), not on the window edge and at least
- * `minProminence` log10 units above the fit (default 0.1 ≈ ×1.26, METHODS §3 [from memory]), refined
+ * `minProminence` log10 units above the fit (default 0.1 ≈ ×1.26, docs/methods.md §3 [from memory]), refined
  * with a parabola through the peak bin and its neighbours. Null when no bin qualifies.
  */
 export function findAlphaPeak(
@@ -169,7 +169,7 @@ export interface SpectrumShares {
   /** Log–log OLS slope over 20 … hfTop Hz. */
   readonly highFrequencySlope: number;
   /** Σ_h BP(h f0 − 1, h f0 + 1) / BP(1, fmax). */
-  readonly lineNoiseShare: number;
+  readonly mainsShare: number;
   /** P(f0) / median P over f0 ± 5 Hz excluding ± 1 Hz; NaN if f0 ≥ fmax. */
   readonly linePeakRatio: number;
   /** BP(1, 4) / BP(1, 45). */
@@ -179,14 +179,14 @@ export interface SpectrumShares {
 }
 
 /**
- * Band-power shares of METHODS §4 (common practice): high-frequency share and slope (muscle-like),
- * line-noise share at f0 = `lineHz` and harmonics below `fmaxHz`, and the low-frequency (ocular) share.
+ * Band-power shares of docs/methods.md §4 (common practice): high-frequency share and slope (muscle-like),
+ * mains share at f0 = `lineHz` and harmonics below `fmaxHz`, and the low-frequency (ocular) share.
  */
 export function spectrumShares(frequencies: ArrayLike<number>, psd: ArrayLike<number>, lineHz: number | null, fmaxHz: number): SpectrumShares {
   const hfTop = Math.min(fmaxHz, lineHz ? lineHz - 2 : 45);
   const hf = bandPowerAt(frequencies, psd, 20, hfTop);
   const broad = bandPowerAt(frequencies, psd, 2, hfTop);
-  const slope = fitAperiodic(frequencies, psd, { rangeHz: [20, hfTop], rule: 'all' });
+  const slope = fitOneOverF(frequencies, psd, { rangeHz: [20, hfTop], rule: 'all' });
   let line = 0;
   let linePeakRatio = NaN;
   if (lineHz) {
@@ -211,7 +211,7 @@ export function spectrumShares(frequencies: ArrayLike<number>, psd: ArrayLike<nu
   return {
     highFrequencyShare: broad > 0 ? hf / broad : NaN,
     highFrequencySlope: -slope.exponent,
-    lineNoiseShare: total > 0 ? line / total : NaN,
+    mainsShare: total > 0 ? line / total : NaN,
     linePeakRatio,
     lowFrequencyShare: bandPowerAt(frequencies, psd, 1, 4) / bandPowerAt(frequencies, psd, 1, Math.min(45, fmaxHz)),
     edges: { hfTopHz: hfTop, fmaxHz },

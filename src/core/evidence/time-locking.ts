@@ -1,6 +1,6 @@
 /**
- * Event-locked evidence for one activation (METHODS §5; issue 6): the baseline-corrected average with a
- * 95 % band, the epoch image, inter-trial phase coherence at the average's dominant frequency, and the
+ * Event-locked evidence for one activation (docs/methods.md §5; issue 6): the baseline-corrected average with a
+ * 95 % band, the trial stack, inter-trial phase coherence at the average's dominant frequency, and the
  * share of single-trial variance that is phase-locked to the events, compared with shuffled event times.
  */
 import { epochMean, epochSem, extractEpochs, type Epochs } from '../signal/epochs.ts';

@@ -23,7 +23,7 @@ export interface SpectrumEvidence {
   readonly df: number;
 }
 
-export interface AperiodicFit {
+export interface OneOverFFit {
   /** χ in P ∝ f^−χ (dimensionless; positive for falling spectra). NaN when the fit is impossible. */
   readonly exponent: number;
   /** b = log10 P at 1 Hz of the fitted line, log10(µV²/Hz). */
@@ -74,7 +74,7 @@ export interface ErpEvidence {
   readonly permutationP?: number;
 }
 
-export interface EpochImage {
+export interface TrialStack {
   readonly nEpochs: number;
   readonly length: number;
   /** nEpochs × length, row-major, event order, µV at the strongest channel (baseline removed). */
@@ -89,7 +89,7 @@ export interface DipoleEvidence {
   readonly position: readonly [number, number, number];
   /** Moment (RAS), in the map's units per A·m model (relative scale; direction meaningful). */
   readonly moment: readonly [number, number, number];
-  /** Residual variance of the single-dipole fit, 0…1 (METHODS §15). */
+  /** Residual variance of the single-dipole fit, 0…1 (docs/methods.md §15). */
   readonly residualVariance: number;
   /** True when the fit stopped at the brain's boundary (an artifact sign). */
   readonly atBoundary: boolean;
@@ -108,17 +108,17 @@ export interface ComponentEvidence {
   /** Scalp map (column i of the mixing matrix, unit L2 norm, sign as stored). */
   readonly map: Float64Array;
   readonly spectrum: SpectrumEvidence;
-  readonly aperiodic: AperiodicFit;
-  /** Alpha peak frequency in Hz (7–14 Hz, above the aperiodic fit), or null if there is none. */
+  readonly oneOverF: OneOverFFit;
+  /** Alpha peak frequency in Hz (7–14 Hz, above the 1/f fit), or null if there is none. */
   readonly alphaPeakHz: number | null;
-  /** Height of the alpha peak above the aperiodic fit, log10 units (0.1 = ×1.26); 0 when none. */
+  /** Height of the alpha peak above the 1/f fit, log10 units (0.1 = ×1.26); 0 when none. */
   readonly alphaProminence: number;
   /** BP(20, line−2) / BP(2, line−2) Hz (0…1). */
   readonly highFrequencyShare: number;
   /** Log-log slope of the spectrum over 20–(line−2) Hz (≈ 0 or positive for muscle; negative for brain). */
   readonly highFrequencySlope: number;
   /** Σ_h BP(h·f0 ± 1 Hz) / BP(1, fmax) over harmonics below fmax (0…1). */
-  readonly lineNoiseShare: number;
+  readonly mainsShare: number;
   /** P(f0) over the median of P in f0 ± 5 Hz without ±1 Hz (dimensionless; ≫ 1 for line noise). */
   readonly linePeakRatio: number;
   /** BP(1, 4) / BP(1, 45) Hz (0…1). */
@@ -127,7 +127,7 @@ export interface ComponentEvidence {
   readonly kurtosis: number;
   /** Share (0…1) of the map's energy on its largest electrode, and that electrode. */
   readonly focality: { readonly share: number; readonly channel: string };
-  /** Mean |a| over frontal-pole sites ÷ mean |a| elsewhere (METHODS §14); NaN without positions. */
+  /** Mean |a| over frontal-pole sites ÷ mean |a| elsewhere (docs/methods.md §14); NaN without positions. */
   readonly frontalGradient: number;
   /** Share (0…1) of the map's energy on frontal-pole sites (front 20 % of the head); NaN without positions. */
   readonly frontalShare: number;
@@ -140,7 +140,7 @@ export interface ComponentEvidence {
   /** Phase-locked share of activity around step events (mobile recordings), or null when no step events. */
   readonly stepLocking: { readonly share: number; readonly event: string; readonly nEpochs: number } | null;
   readonly erp: ErpEvidence | null;
-  readonly epochImage: EpochImage | null;
+  readonly trialStack: TrialStack | null;
   readonly dipole: DipoleEvidence | null;
   /** The suggested verdict for each aim. */
   readonly suggestions: Record<Aim, Suggestion>;

@@ -1,5 +1,5 @@
 /**
- * BIDS sidecar files [BIDS specification v1.11, METHODS.md §12; Pernet et al. 2019 (EEG-BIDS)]:
+ * BIDS sidecar files [BIDS specification v1.11, docs/methods.md §12; Pernet et al. 2019 (EEG-BIDS)]:
  * TSV reading and writing, *_channels.tsv, *_electrodes.tsv (+ *_coordsystem.json units) and *_events.tsv.
  *
  * TSV rules: tab separators; the first line holds the column names (no blanks, no duplicates); UTF-8;

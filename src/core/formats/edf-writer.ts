@@ -1,5 +1,5 @@
 /**
- * EDF+/BDF+ writer (continuous and discontinuous) [Kemp & Olivan 2003; BioSemi BDF; layout METHODS.md §11].
+ * EDF+/BDF+ writer (continuous and discontinuous) [Kemp & Olivan 2003; BioSemi BDF; layout docs/methods.md §11].
  * Used for cleaned recordings and the simulated demo data. The output always carries one "EDF Annotations"
  * signal (last), whose first TAL in every record is the time-keeping TAL.
  *
@@ -234,7 +234,7 @@ export function* writeEdfChunks(input: EdfWriteInput): Generator<Uint8Array> {
         for (let k = 0; k < n; k++) {
           const i = r * n + k;
           const x = i < data.length ? data[i] : 0;
-          // phys = pmin + (dig − dmin)·gain  ⇒  dig = dmin + (phys − pmin)/gain  [METHODS §11]
+          // phys = pmin + (dig − dmin)·gain  ⇒  dig = dmin + (phys − pmin)/gain  [docs/methods.md §11]
           let d = Math.round(dmin + ((Number.isNaN(x) ? 0 : x) - pmin) / gain);
           if (d < dmin) d = dmin;
           else if (d > dmax) d = dmax;

@@ -1,6 +1,6 @@
 /**
  * EDF [Kemp et al. 1992], EDF+ continuous/discontinuous [Kemp & Olivan 2003] and BDF/BDF+ (24-bit, BioSemi)
- * reader over a ByteSource. Byte layout: METHODS.md §11. The file is read in slices: the header, then
+ * reader over a ByteSource. Byte layout: docs/methods.md §11. The file is read in slices: the header, then
  * batches of whole data records (about 8 MB at a time), so a 500 MB recording is never one buffer.
  *
  * Conventions of the results:
@@ -48,7 +48,7 @@ export interface EdfSignalLayout {
   readonly byteOffsetInRecord: number;
   /**
    * Physical value (normalised unit) = (physicalMin + (digital − digitalMin)·gain)·unitFactor, the spec's
-   * formula in the spec's order [METHODS §11], so values agree to the last bit with a direct evaluation.
+   * formula in the spec's order [docs/methods.md §11], so values agree to the last bit with a direct evaluation.
    */
   readonly gain: number;
   readonly physicalMin: number;
@@ -647,7 +647,7 @@ export interface EdfSignalChunk {
 
 /**
  * Decodes the samples of `sel` from the records of one batch into `write(channel, position, value)`.
- * Little-endian two's complement, 2 bytes (EDF) or 3 bytes (BDF) per sample [METHODS §11].
+ * Little-endian two's complement, 2 bytes (EDF) or 3 bytes (BDF) per sample [docs/methods.md §11].
  */
 function decodeBatch(
   layout: EdfLayout,

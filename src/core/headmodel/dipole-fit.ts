@@ -1,5 +1,5 @@
 /**
- * Equivalent current dipole fit to one scalp map (METHODS §15).
+ * Equivalent current dipole fit to one scalp map (docs/methods.md §15).
  *
  *     H = I − 11ᵀ/M (average reference, applied to model and data alike)
  *     L̃(p) = H L(p),  ṽ = H v,  q(p) = pinv(L̃) ṽ,  r(p) = ṽ − L̃ q(p),  RV = |r|² / |ṽ|²
@@ -51,7 +51,7 @@ export interface SymmetricDipoleFit {
 }
 
 export interface DipoleFitterOptions {
-  /** Coarse grid spacing in mm. Default radius / 9, i.e. 10 mm at R = 90 mm (METHODS §15: ≈ 1 cm). */
+  /** Coarse grid spacing in mm. Default radius / 9, i.e. 10 mm at R = 90 mm (docs/methods.md §15: ≈ 1 cm). */
   gridSpacingMm?: number;
   /** Largest allowed distance of the dipole from the centre, mm. Default 0.85 × radius (brain shell 0.87). */
   limitRadiusMm?: number;
@@ -285,7 +285,7 @@ export function createDipoleFitter(model: HeadModel, electrodesMm: Float64Array,
   };
 
   const runLm = (fast: LevenbergMarquardtProblem, exact: LevenbergMarquardtProblem, start: ArrayLike<number>) => {
-    // Without a polish the fast phase is the final one and runs to the tight tolerances of METHODS §15.
+    // Without a polish the fast phase is the final one and runs to the tight tolerances of docs/methods.md §15.
     const coarse = levenbergMarquardt(
       fast,
       start,

@@ -3,11 +3,11 @@
  *
  * Units throughout: positions in mm, RAS (+x right, +y nasion, +z up), origin at the sphere centre;
  * moments in nA·m; conductivities in S/m; potentials in µV against an infinitely distant reference
- * (apply the average reference to model and data alike before comparing with recorded maps: METHODS §8.1).
+ * (apply the average reference to model and data alike before comparing with recorded maps: docs/methods.md §8.1).
  *
  * Unit bookkeeping: with F in mm⁻², V[V] = q[A·m] F[m⁻²] / (4πσ) = (1e−9 q[nA·m]) (1e6 F[mm⁻²]) / (4πσ),
  * so V[µV] = 1e3 · q[nA·m] · F[mm⁻²] / (4πσ). Check: a centred radial 10 nA·m dipole, R = 90 mm,
- * σ = 0.33 S/m gives 3q/(4πσR²) = 0.8931 µV at the vertex (METHODS §8.4).
+ * σ = 0.33 S/m gives 3q/(4πσR²) = 0.8931 µV at the vertex (docs/methods.md §8.4).
  */
 import { homogeneousSeriesCoefficients, sphereLeadField } from './sphere.ts';
 import {
@@ -45,7 +45,7 @@ export interface HeadModelOptions {
   kind?: HeadModelKind;
   /** Outer radius in mm. Default 90. */
   radiusMm?: number;
-  /** Brain (= scalp) conductivity in S/m. Default 0.33 [c: METHODS §8.1]. */
+  /** Brain (= scalp) conductivity in S/m. Default 0.33 [c: docs/methods.md §8.1]. */
   conductivity?: number;
   /** Use the fast approximation in `leadField`. Default false. */
   fast?: boolean;

@@ -3,7 +3,7 @@
  * (modified Gram–Schmidt with one re-orthogonalisation pass, "twice is enough": Giraud, Langou & Rozložník
  * 2005, Comput. Math. Appl. 50:1069–1075), a pivoting solve of a small square system (LU, from linalg/lu.ts), and a
  * Levenberg–Marquardt loop with a central-difference Jacobian (Levenberg 1944, Q. Appl. Math. 2:164–168;
- * Marquardt 1963, J. SIAM 11:431–441; damping of diag(JᵀJ) and the ×10 / ÷10 schedule as in METHODS §15).
+ * Marquardt 1963, J. SIAM 11:431–441; damping of diag(JᵀJ) and the ×10 / ÷10 schedule as in docs/methods.md §15).
  *
  * Everything here works on column-major scratch buffers handed in by the caller, so the fits' inner loops
  * allocate nothing.
@@ -110,11 +110,11 @@ export interface LevenbergMarquardtProblem {
 }
 
 export interface LevenbergMarquardtOptions {
-  /** Central-difference step per parameter, in parameter units (METHODS §15: ≈ 1e-6 R). */
+  /** Central-difference step per parameter, in parameter units (docs/methods.md §15: ≈ 1e-6 R). */
   readonly step: number;
   /** Iteration limit. Default 100. */
   readonly maxIterations?: number;
-  /** Stop when the accepted relative cost decrease is below this. Default 1e-12 (METHODS §15). */
+  /** Stop when the accepted relative cost decrease is below this. Default 1e-12 (docs/methods.md §15). */
   readonly relativeCostTol?: number;
   /** Stop when the step length is below this, in parameter units. Default 1e-10 × `step` / 1e-6. */
   readonly stepTol?: number;
@@ -183,7 +183,7 @@ function sumSquares(v: Float64Array): number {
 
 /**
  * Levenberg–Marquardt minimisation of |r(p)|² from `p0`: solve (JᵀJ + λ diag(JᵀJ)) δ = −Jᵀr, accept the
- * step if the cost falls and the new point is feasible (then λ ÷ 10), else λ × 10 (METHODS §15). The
+ * step if the cost falls and the new point is feasible (then λ ÷ 10), else λ × 10 (docs/methods.md §15). The
  * Jacobian is taken by central differences with step `opts.step`.
  */
 export function levenbergMarquardt(

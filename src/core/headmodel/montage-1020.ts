@@ -1,6 +1,6 @@
 /**
  * Idealised 10-20 / 10-10 electrode directions on the unit sphere, RAS (+x right pre-auricular point,
- * +y nasion, +z vertex), built from the percentage rules exactly as METHODS.md §10 constructs them
+ * +y nasion, +z vertex), built from the percentage rules exactly as docs/methods.md §10 constructs them
  * [Jasper 1958; 10-10: Chatrian, Lettich & Nelson 1985; names: ACNS Guideline 2, Acharya et al. 2016]:
  *
  * - midline Nz→Cz→Iz in 10 % steps of 180°: (0, cos(p·180°), sin(p·180°)), Fpz .1 … Oz .9;
@@ -10,7 +10,7 @@
  *   arc X7→Xz is cut into 4 equal arcs: X7, X5, X3, X1, Xz (mirrored on the right).
  *
  * This is a definition for defaults and tests, not a measured template: real heads differ by several
- * degrees (METHODS §10, §16).
+ * degrees (docs/methods.md §10, §16).
  */
 
 type Vec3 = [number, number, number];

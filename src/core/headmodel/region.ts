@@ -2,7 +2,7 @@
  * A coarse, approximate region label for a fitted dipole position in the spherical head model.
  *
  * The rules below are our own and deliberately simple [b]: they read the direction of the position from the
- * sphere centre against the idealised 10-20 layout (METHODS §10) — the central region under the C3–Cz–C4
+ * sphere centre against the idealised 10-20 layout (docs/methods.md §10) — the central region under the C3–Cz–C4
  * arc (y ≈ 0), frontal in front of it, parietal behind it, occipital towards Oz/O1/O2, temporal low and
  * lateral under the F7–T7–P7 / F8–T8–P8 ring — and its distance from the centre for depth. A sphere is not a
  * brain, and the equivalent dipole of a spread-out source sits deeper than the source: the label is an

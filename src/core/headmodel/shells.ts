@@ -2,12 +2,12 @@
  * Concentric-shell sphere: exact Legendre series of the surface potential of a current dipole in the inner
  * shell, and a fast approximation by three dipoles in a homogeneous sphere for the dipole fit's inner loop.
  *
- * Series (METHODS §8.3; de Munck & Peters 1993, IEEE TBME 40:1166–1174; Zhang 1995, Phys. Med. Biol.
+ * Series (docs/methods.md §8.3; de Munck & Peters 1993, IEEE TBME 40:1166–1174; Zhang 1995, Phys. Med. Biol.
  * 40:335–349), in units of the outer radius R (b = |r0| / R, c = r̂ · r̂0):
  *
  *     V = 1 / (4π σ₁ R²) Σ_{n≥1} g_n b^(n−1) [ n q_r P_n(c) + t P′_n(c) ],   q_r = q · r̂0,  t = q · r̂ − q_r c
  *
- * with g_n from the stable ratio recursion of METHODS §8.3 (never propagating A_k, B_k directly: that loses
+ * with g_n from the stable ratio recursion of docs/methods.md §8.3 (never propagating A_k, B_k directly: that loses
  * all accuracy beyond n ≈ 40 for the Rush & Driscoll radii).
  */
 import { electrodeDirections, sphereLeadFieldAccumulate } from './sphere.ts';
@@ -17,7 +17,7 @@ import { createLevenbergMarquardtScratch, gramSchmidtBasis, levenbergMarquardt, 
  * Series coefficients g_n (index n − 1, n = 1 … nMax) of K concentric shells with outer radius 1.
  * `radii` are the shells' outer radii as fractions of R, innermost first, the last equal to 1; `conductivities`
  * the shells' conductivities (any unit: only ratios matter), innermost (source) shell first.
- * Ratio recursion on τ = A r^(2n+1) / B from the insulating exterior inwards (METHODS §8.3, derived there and
+ * Ratio recursion on τ = A r^(2n+1) / B from the insulating exterior inwards (docs/methods.md §8.3, derived there and
  * checked against a 50-digit solution of the full interface system). With equal conductivities it returns
  * the homogeneous g_n = (2n + 1) / n.
  */
@@ -85,7 +85,7 @@ function ensureRecurrence(nTerms: number) {
  * F (M × 3 row-major, 1/unit²) of the shell model from its series coefficients `g` (unit outer radius);
  * V = q · F / (4π σ₁). Electrodes are any non-zero vectors (projected radially onto the sphere of radius
  * `radius`); `position` in the same unit. Row m = [(S1 − c S2) r̂0 + S2 r̂] / R² with
- * S1 = Σ g_n b^(n−1) n P_n(c), S2 = Σ g_n b^(n−1) P′_n(c); Legendre recurrences of METHODS §8.3.
+ * S1 = Σ g_n b^(n−1) n P_n(c), S2 = Σ g_n b^(n−1) P′_n(c); Legendre recurrences of docs/methods.md §8.3.
  * Returns NaN rows when b ≥ 1 (the caller checks the source shell).
  */
 export function shellSeriesLeadField(

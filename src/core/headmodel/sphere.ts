@@ -3,7 +3,7 @@
  *
  * Geometry only: the functions here return the factor F (1 / length², in the length unit of the inputs) with
  * V(r) = q · F / (4πσ) for a dipole q at r0 and an electrode at r on the sphere of radius R, against an
- * infinitely distant reference (METHODS §8.2):
+ * infinitely distant reference (docs/methods.md §8.2):
  *
  *     dv = r − r0,  d = |dv|,  r̂ = r / R
  *     F  = 2 dv / d³ + (d r̂ + dv) / (d (R d + r · dv))
@@ -88,7 +88,7 @@ export function sphereLeadField(
 
 /**
  * Legendre-series coefficients g_n (n = 1 … nMax, stored at index n − 1) of the homogeneous sphere of unit
- * radius: g_n = (2n + 1) / n (METHODS §8.3). Used to check the series code against the closed form.
+ * radius: g_n = (2n + 1) / n (docs/methods.md §8.3). Used to check the series code against the closed form.
  */
 export function homogeneousSeriesCoefficients(nMax: number): Float64Array {
   const g = new Float64Array(Math.max(0, nMax));

@@ -1,6 +1,6 @@
 /**
  * Spherical spline interpolation of scalp values (Perrin, Pernier, Bertrand & Echallier 1989,
- * Electroencephalogr. Clin. Neurophysiol. 72:184–187; corrigendum 1990, 76:565), as in METHODS §9:
+ * Electroencephalogr. Clin. Neurophysiol. 72:184–187; corrigendum 1990, 76:565), as in docs/methods.md §9:
  *
  *     g_m(x) = 1/(4π) Σ_{n=1}^{N} (2n+1) / (n(n+1))^m P_n(x),   m = 4, N = 50
  *     [ G + λI  1 ] [ c  ]   [ v ]
@@ -18,7 +18,7 @@ import { electrodeDirections } from './sphere.ts';
 
 /**
  * g_m(x) of Perrin et al. (1989), 1/(4π) included; x = cos(angle) is clamped to [−1, 1].
- * Defaults m = 4 and 50 terms (truncation error 1.5e-12 against 2000 terms: METHODS §9).
+ * Defaults m = 4 and 50 terms (truncation error 1.5e-12 against 2000 terms: docs/methods.md §9).
  */
 export function sphericalSplineG(x: number, m = 4, nTerms = 50): number {
   const c = x > 1 ? 1 : x < -1 ? -1 : x;
@@ -67,7 +67,7 @@ const kernelTables = new Map<string, KernelTable>();
 /**
  * Tabulates g_m and g_m′ (P′_n by the recurrence P′_{n+1} = P′_{n−1} + (2n+1) P_n) at `intervals` + 1 nodes.
  * Cubic Hermite interpolation between nodes has error ≤ h⁴/384 · max|g⁗| (h = 2/intervals): below 1e-14 for
- * m = 4 and 2048 intervals (checked against the series in spherical-spline.test.ts). METHODS §9 [b]: a
+ * m = 4 and 2048 intervals (checked against the series in spherical-spline.test.ts). docs/methods.md §9 [b]: a
  * lookup table of g is fine for rendering.
  */
 function kernelTable(m: number, nTerms: number, intervals = 2048): KernelTable {

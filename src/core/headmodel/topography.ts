@@ -1,6 +1,6 @@
 /**
  * Scalp topography images: spherical-spline interpolation (spherical-spline.ts) of per-electrode values
- * onto a square pixel grid in the azimuthal equidistant projection from the vertex (METHODS §9):
+ * onto a square pixel grid in the azimuthal equidistant projection from the vertex (docs/methods.md §9):
  *
  *     ρ = arccos(z) / (π/2),  angle = atan2(y, x),  plane point (ρ cos angle, ρ sin angle)
  *

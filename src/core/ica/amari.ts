@@ -1,6 +1,6 @@
 /**
  * Amari separation index (Amari, Cichocki & Yang 1996, NIPS 8, "A new learning algorithm for blind signal
- * separation", performance index; METHODS §7.5). For P = W_est A_true (n × n):
+ * separation", performance index; docs/methods.md §7.5). For P = W_est A_true (n × n):
  *   E(P) = Σ_i (Σ_j |p_ij| / max_k |p_ik| − 1) + Σ_j (Σ_i |p_ij| / max_k |p_kj| − 1)
  * E = 0 iff P is a scaled permutation. Normalised: E / (2n(n−1)) ∈ [0, 1] (the form quoted in this project).
  * `squared` uses p_ij² in place of |p_ij| (a variant some authors use).

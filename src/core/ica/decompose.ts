@@ -8,7 +8,7 @@
  *   4. extended Infomax (infomax.ts) or Picard-O with the extended density (picard.ts, with its subsampled warm
  *      start and optionally a helper thread) on the whitened data;
  *   5. total unmixing W = W_ica W_white (components × channels), mixing A = E_k diag(λ)^(1/2) W_ica⁻¹
- *      (= pinv(W) at full rank; METHODS §6), ordered by variance accounted for and sign-normalised (order.ts).
+ *      (= pinv(W) at full rank; docs/methods.md §6), ordered by variance accounted for and sign-normalised (order.ts).
  * `channelMeans` are the means of the unfiltered channels, so activations of the original data are W (X − means).
  */
 import type { Decomposition } from '../decomposition.ts';

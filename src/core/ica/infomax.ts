@@ -3,10 +3,10 @@
  *
  * Source: Lee, Girolami & Sejnowski (1999), "Independent component analysis using an extended infomax
  * algorithm for mixed sub-Gaussian and super-Gaussian sources", Neural Computation 11:417–441; natural
- * gradient: Amari, Cichocki & Yang (1996), NIPS 8; Bell & Sejnowski (1995). METHODS §7.2:
+ * gradient: Amari, Cichocki & Yang (1996), NIPS 8; Bell & Sejnowski (1995). docs/methods.md §7.2:
  *   U = W X,  ΔW = η [I − K E{tanh(U) Uᵀ} − E{U Uᵀ}] W,  K = diag(k_i)
  *   k_i = sign(E{sech² u_i} E{u_i²} − E{tanh(u_i) u_i})   (+1 super-, −1 sub-Gaussian)
- * Expectations are block means. Practice followed here (METHODS §7.2, [c]: the paper gives the update, these
+ * Expectations are block means. Practice followed here (docs/methods.md §7.2, [c]: the paper gives the update, these
  * settings are ours):
  * - The samples are put in a seeded random order once (ICA ignores temporal order), so contiguous blocks of
  *   the shuffled data are random mini-batches; each pass visits the blocks in a fresh seeded order.
@@ -203,7 +203,7 @@ export function createBlockScratch(k: number, b: number): BlockScratch {
 
 /**
  * One natural-gradient block update of extended Infomax, in place on W (k × k), over samples [t0, t0 + b) of
- * Z (k × T channel-major):  U = W Z_b,  W ← W + η [I − K E{tanh(U)Uᵀ} − E{UUᵀ}] W  (METHODS §7.2).
+ * Z (k × T channel-major):  U = W Z_b,  W ← W + η [I − K E{tanh(U)Uᵀ} − E{UUᵀ}] W  (docs/methods.md §7.2).
  * Adds Σ sech²(u_i), Σ u_i², Σ tanh(u_i) u_i of the block (taken at the W before the update) to `stats`,
  * from which the switching statistic is formed.
  */

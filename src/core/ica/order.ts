@@ -1,5 +1,5 @@
 /**
- * Ordering and sign convention of components (METHODS §6 display convention [b], issue 5):
+ * Ordering and sign convention of components (docs/methods.md §6 display convention [b], issue 5):
  * - order: by the variance each component accounts for in the (preprocessed) channel data, largest first.
  *   Component i back-projects to a_i s_i, whose summed channel variance is ‖a_i‖² var(s_i), var(s_i) = (W C Wᵀ)_ii.
  *   Its "variance share" is that over trace(C). (Shares need not sum to 1: components are not orthogonal in

@@ -6,11 +6,11 @@
  * Hessian approximations", IEEE Trans. Signal Process. 66:4040–4049 (relative L-BFGS with a Hessian-
  * approximation preconditioner); Ablin, Cardoso & Gramfort (2018), "Faster ICA under orthogonal constraint",
  * ICASSP (the orthogonal variant, and density switching as in extended Infomax); Lee, Girolami & Sejnowski
- * (1999) for the switching statistic. METHODS §7.1, §7.4.
+ * (1999) for the switching statistic. docs/methods.md §7.1, §7.4.
  *
  * Model on whitened Z (k × T): Y = W Z with W orthogonal. Per-row negative log-density
  *   −ln p_i(y) = s_i·ln cosh(y) + y²/2,   score ψ_i(y) = s_i·tanh(y) + y,   s_i ∈ {+1 super, −1 sub}
- * (s = −1 is the score of ½N(1,1)+½N(−1,1), METHODS §7.2). Loss L(W) = E[Σ_i −ln p_i(y_i)] (ln|det W| = 0).
+ * (s = −1 is the score of ½N(1,1)+½N(−1,1), docs/methods.md §7.2). Loss L(W) = E[Σ_i −ln p_i(y_i)] (ln|det W| = 0).
  * Updates W ← expm(E) W with E antisymmetric. Relative gradient G = E[ψ(Y) Yᵀ]; its antisymmetric part
  * Gₛ = (G − Gᵀ)/2 is the gradient on the constraint manifold; the solver stops when max|Gₛ| < tol.
  * Hessian approximation on antisymmetric E (derived as in the ICASSP paper, assuming independent outputs):

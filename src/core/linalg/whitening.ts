@@ -1,5 +1,5 @@
 /**
- * Covariance, rank detection and PCA whitening (METHODS §6):
+ * Covariance, rank detection and PCA whitening (docs/methods.md §6):
  *   X_c = X − rowmean(X);  C = X_c X_cᵀ / (T − 1);  C = E diag(λ) Eᵀ, λ₁ ≥ … ≥ λ_n
  *   rank r = #{λ_i > τ λ₁}, and a sharp gap λ_i/λ_{i−1} < 1e-4 also ends the signal subspace
  *   PCA whitening to k ≤ r: Ww = diag(λ_1..k)^(−1/2) E_kᵀ (k × n), de-whitening E_k diag(λ_1..k)^(1/2) (n × k).
@@ -71,9 +71,9 @@ export function covariance(
   return { means, covariance: cov, count };
 }
 
-/** Default relative tolerance τ of the rank rule (METHODS §6: float64 linear dependence leaves ~1e-16 λ₁). */
+/** Default relative tolerance τ of the rank rule (docs/methods.md §6: float64 linear dependence leaves ~1e-16 λ₁). */
 export const RANK_TOLERANCE = 1e-10;
-/** Sharp-gap ratio λ_i/λ_{i−1} below which the remaining eigenvalues count as noise (METHODS §6 [b/c]). */
+/** Sharp-gap ratio λ_i/λ_{i−1} below which the remaining eigenvalues count as noise (docs/methods.md §6 [b/c]). */
 export const RANK_GAP_RATIO = 1e-4;
 
 export interface RankResult {
@@ -136,7 +136,7 @@ export interface PcaWhitening {
 /**
  * PCA whitening of a covariance (n × n) to k dimensions: k = the detected rank unless `nComponents` asks for
  * fewer (a warning says how much variance that discards); more than the rank is refused (clamped, with a warning),
- * because ICA on rank-deficient input diverges or duplicates components (METHODS §6).
+ * because ICA on rank-deficient input diverges or duplicates components (docs/methods.md §6).
  */
 export function pcaWhitening(cov: Float64Array, n: number, opts: { nComponents?: number; tol?: number } = {}): PcaWhitening {
   const { values, vectors } = symmetricEigen(cov, n);

@@ -1,5 +1,5 @@
 /**
- * Removing components (METHODS §7.6): S = W (X − m), X_clean = X − A[:,R] S[R,:] for the removed set R.
+ * Removing components (docs/methods.md §7.6): S = W (X − m), X_clean = X − A[:,R] S[R,:] for the removed set R.
  * Written as one channel × channel projector so the per-sample work is a single product:
  *
  *   P = A[:,R] W[R,:]   (n × n),   X_clean = X − P (X − m) = X − P X + P m.

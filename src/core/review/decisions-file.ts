@@ -1,16 +1,23 @@
 /**
- * The decisions file (issue 7, fixed contract): format "winnow-decisions/1", JSON with the aim, reviewer,
- * creation time, software, the SHA-256 of the recording's and the decomposition file's bytes, and one
- * entry per component (1-based index, verdict, reason, note, and the suggestion shown at the time).
- * A TSV twin with columns `index verdict reason note` is written for spreadsheets.
+ * The decisions file: format "winnow-decisions/2", JSON with the aim, reviewer, creation time, software, the
+ * SHA-256 of the recording's and the decomposition file's bytes, and one entry per component (1-based index,
+ * verdict, reason, note, and the suggestion shown at the time). A TSV twin with columns
+ * `index verdict reason note` is written for spreadsheets.
+ *
+ * Required when reading: `format`, `aim`, `recordingSha256`, `decompositionSha256`, `components` (each with
+ * `index` and `verdict`). Optional, with a warning when absent: `reviewer`, `createdAt`, `software`; per
+ * component `reason`, `note`, `suggested` are optional without a warning. `winnow-decisions/1` files still
+ * load: their reason codes are mapped to today's words (LEGACY_REASON_CODES).
  *
  * Parsing never throws: bad input gives a ParseResult error naming the file and the fault.
  */
 import { parseFail, parseOk, type ParseResult } from '../formats/parse-result.ts';
 import { formatTsv, parseTsv } from '../formats/bids.ts';
-import { AIMS, REASON_CODES, VERDICTS, type Aim, type ReasonCode, type Suggestion, type Verdict } from './vocabulary.ts';
+import { AIMS, LEGACY_REASON_CODES, REASON_CODES, VERDICTS, type Aim, type ReasonCode, type Suggestion, type Verdict } from './vocabulary.ts';
 
-export const DECISIONS_FORMAT = 'winnow-decisions/1';
+export const DECISIONS_FORMAT = 'winnow-decisions/2';
+/** Earlier major versions this reader still loads (reason codes mapped). */
+export const LEGACY_DECISIONS_FORMATS: readonly string[] = ['winnow-decisions/1'];
 
 /** One reviewer decision. A component without a decision is `undecided` with no reason and an empty note. */
 export interface ReviewDecision {
@@ -96,6 +103,9 @@ export function decisionsFromFile(file: Pick<DecisionsFile, 'components'>): Reco
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 const isVerdict = (v: unknown): v is Verdict => typeof v === 'string' && (VERDICTS as readonly string[]).includes(v);
 const isReason = (v: unknown): v is ReasonCode => typeof v === 'string' && (REASON_CODES as readonly string[]).includes(v);
+/** Today's reason code for `v`, mapping the codes of version 1 files; undefined when `v` is no reason code. */
+const reasonOf = (v: unknown, legacy: boolean): ReasonCode | undefined =>
+  isReason(v) ? v : legacy && typeof v === 'string' ? LEGACY_REASON_CODES[v] : undefined;
 const isAim = (v: unknown): v is Aim => typeof v === 'string' && (AIMS as readonly string[]).includes(v);
 
 /** Parses and validates decisions-file JSON; every fault names the file and the field. */
@@ -108,11 +118,27 @@ export function parseDecisionsJson(text: string, fileName: string): ParseResult<
     return fail(`not valid JSON (${(e as Error).message})`);
   }
   if (!isRecord(raw)) return fail('expected a JSON object');
-  if (raw.format !== DECISIONS_FORMAT) return fail(`"format" must be "${DECISIONS_FORMAT}", got ${JSON.stringify(raw.format)}`);
+  const legacy = typeof raw.format === 'string' && LEGACY_DECISIONS_FORMATS.includes(raw.format);
+  if (raw.format !== DECISIONS_FORMAT && !legacy)
+    return fail(`"format" must be "${DECISIONS_FORMAT}" (or an earlier ${LEGACY_DECISIONS_FORMATS.join(', ')}), got ${JSON.stringify(raw.format)}`);
   if (!isAim(raw.aim)) return fail(`"aim" must be one of ${AIMS.join(', ')}, got ${JSON.stringify(raw.aim)}`);
-  for (const key of ['reviewer', 'createdAt', 'software', 'recordingSha256', 'decompositionSha256'] as const) {
+  for (const key of ['recordingSha256', 'decompositionSha256'] as const) {
     if (typeof raw[key] !== 'string') return fail(`"${key}" must be a string`);
   }
+  const warnings: string[] = [];
+  const optionalText = (key: 'reviewer' | 'createdAt' | 'software'): string | ParseResult<DecisionsFile> => {
+    if (raw[key] === undefined || raw[key] === null) {
+      warnings.push(`${fileName}: no "${key}" field; read as empty`);
+      return '';
+    }
+    return typeof raw[key] === 'string' ? raw[key] : fail(`"${key}" must be a string`);
+  };
+  const reviewer = optionalText('reviewer');
+  if (typeof reviewer !== 'string') return reviewer;
+  const createdAt = optionalText('createdAt');
+  if (typeof createdAt !== 'string') return createdAt;
+  const software = optionalText('software');
+  if (typeof software !== 'string') return software;
   if (!Array.isArray(raw.components)) return fail('"components" must be an array');
   const components: DecisionsFileComponent[] = [];
   const seen = new Set<number>();
@@ -124,28 +150,30 @@ export function parseDecisionsJson(text: string, fileName: string): ParseResult<
     if (seen.has(c.index)) return fail(`${where}.index ${c.index} appears twice`);
     seen.add(c.index);
     if (!isVerdict(c.verdict)) return fail(`${where}.verdict must be keep, remove or undecided, got ${JSON.stringify(c.verdict)}`);
-    if (c.reason !== null && c.reason !== undefined && !isReason(c.reason)) return fail(`${where}.reason ${JSON.stringify(c.reason)} is not a reason code`);
+    const reason = c.reason === null || c.reason === undefined ? null : reasonOf(c.reason, legacy);
+    if (reason === undefined) return fail(`${where}.reason ${JSON.stringify(c.reason)} is not a reason code (${REASON_CODES.join(', ')})`);
     if (c.note !== undefined && typeof c.note !== 'string') return fail(`${where}.note must be text`);
     let suggested: DecisionsFileComponent['suggested'] = null;
     if (c.suggested !== null && c.suggested !== undefined) {
       const s = c.suggested;
-      if (!isRecord(s) || !isVerdict(s.verdict) || !isReason(s.reason) || !Array.isArray(s.because) || !s.because.every((b) => typeof b === 'string')) {
+      const sReason = isRecord(s) ? reasonOf(s.reason, legacy) : undefined;
+      if (!isRecord(s) || !isVerdict(s.verdict) || sReason === undefined || !Array.isArray(s.because) || !s.because.every((b) => typeof b === 'string')) {
         return fail(`${where}.suggested must be {verdict, reason, because: [text]}`);
       }
-      suggested = { verdict: s.verdict, reason: s.reason, because: s.because as string[] };
+      suggested = { verdict: s.verdict, reason: sReason, because: s.because as string[] };
     }
-    components.push({ index: c.index, verdict: c.verdict, reason: (c.reason as ReasonCode | null | undefined) ?? null, note: (c.note as string | undefined) ?? '', suggested });
+    components.push({ index: c.index, verdict: c.verdict, reason, note: (c.note as string | undefined) ?? '', suggested });
   }
   return parseOk({
     format: DECISIONS_FORMAT,
     aim: raw.aim,
-    reviewer: raw.reviewer as string,
-    createdAt: raw.createdAt as string,
-    software: raw.software as string,
+    reviewer,
+    createdAt,
+    software,
     recordingSha256: raw.recordingSha256 as string,
     decompositionSha256: raw.decompositionSha256 as string,
     components,
-  });
+  }, warnings);
 }
 
 /**
@@ -187,8 +215,8 @@ export function parseDecisionsTsv(text: string, fileName: string): ParseResult<R
     const verdict = get('verdict');
     if (!isVerdict(verdict)) return fail(`line ${line}: verdict "${verdict}" must be keep, remove or undecided`, line);
     const reasonText = get('reason');
-    const reason = reasonText === '' || reasonText === 'n/a' ? null : reasonText;
-    if (reason !== null && !isReason(reason)) return fail(`line ${line}: reason "${reasonText}" is not a reason code`, line);
+    const reason = reasonText === '' || reasonText === 'n/a' ? null : reasonOf(reasonText, true);
+    if (reason === undefined) return fail(`line ${line}: reason "${reasonText}" is not a reason code (${REASON_CODES.join(', ')})`, line);
     const note = get('note').replace(/\\([nt\\])/g, (_, c: string) => (c === 'n' ? '\n' : c === 't' ? '\t' : '\\'));
     if (verdict === 'undecided' && reason === null && note === '') continue;
     out[index] = { verdict, reason, note };

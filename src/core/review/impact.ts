@@ -13,7 +13,7 @@
  *   vanish; Share_i = w_i² P_i / Σ_j w_j² P_j.
  *
  * Only the part of the data the decomposition spans is counted (PCA-reduced decompositions leave a
- * residual that removals never touch; METHODS §7.6).
+ * residual that removals never touch; docs/methods.md §7.6).
  */
 import type { ComponentEvidence } from '../evidence/types.ts';
 

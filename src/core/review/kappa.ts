@@ -1,5 +1,5 @@
 /**
- * Agreement between two reviewers (METHODS §13): Cohen's kappa (Cohen 1960, Educ. Psychol. Meas.
+ * Agreement between two reviewers (docs/methods.md §13): Cohen's kappa (Cohen 1960, Educ. Psychol. Meas.
  * 20:37–46), its weighted form (Cohen 1968, Psychol. Bull. 70:213–220) and the verbal labels of Landis &
  * Koch 1977 (Biometrics 33:159–174). Used to tune the threshold table against reviewers' labels.
  */

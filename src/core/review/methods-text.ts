@@ -39,7 +39,7 @@ export function thresholdSentence(t: Thresholds): string {
     `|r| with the EOG ≥ ${t.eogCorrelation}`,
     `frontal-pole weight ratio ≥ ${t.blinkFrontalGradient}`,
     `power share above 20 Hz ≥ ${pct(t.muscleHighFrequencyShare)}`,
-    `line-frequency power share ≥ ${pct(t.lineNoiseShare)}`,
+    `line-frequency power share ≥ ${pct(t.mainsShare)}`,
     `single-electrode map energy share ≥ ${pct(t.electrodeFocality)}`,
     `cardiac autocorrelation peak ≥ ${t.cardiacPeak}`,
     `dipole residual variance ≤ ${pct(t.dipoleResidualVariance)} counted as dipolar`,

@@ -1,5 +1,5 @@
 /**
- * Incremental back-projection for the live before/after preview (METHODS §7.6, common practice):
+ * Incremental back-projection for the live before/after preview (docs/methods.md §7.6, common practice):
  *
  *   X_clean = X − A[:,R] S[R,:],   S = W (X − m)
  *
@@ -267,7 +267,7 @@ export interface RegionErpPlan {
 }
 
 /**
- * Epochs every decomposition channel around `onsetsS` (METHODS §5, baseline [tminS, 0]), averages them,
+ * Epochs every decomposition channel around `onsetsS` (docs/methods.md §5, baseline [tminS, 0]), averages them,
  * and derives the region's ERP and each component's ERP by linearity. `rows[c]` is the recording row of
  * decomposition channel c; `roi` holds decomposition channel indices. Returns null when no epoch fits.
  */

@@ -19,7 +19,7 @@
  * | several artifact signatures    | the most specific one names it (SIGNATURE_PRECEDENCE)   |
  * | nothing recognised (unclear)   | keep       | keep         | keep                    |
  *
- * Common practice encoded (issue 6, METHODS §14): ocular components go for every aim; muscle that is not
+ * Common practice encoded (issue 6, docs/methods.md §14): ocular components go for every aim; muscle that is not
  * time-locked averages out of ERPs (and a low-pass helps) but biases induced power above ~15 Hz; a
  * component that cannot be identified is kept (removing brain signal is the costlier mistake — our reading
  * of common practice), so "unclear" is a keep, while "mixed" (a weak artifact signature alongside strong
@@ -35,7 +35,7 @@ import type { Aim, ReasonCode, Suggestion } from './vocabulary.ts';
 /** What the rules read: the evidence without its suggestions. */
 export type SuggestionInput = Omit<ComponentEvidence, 'suggestions'>;
 
-export type Signature = 'blink' | 'eye-movement' | 'muscle' | 'cardiac' | 'line-noise' | 'electrode' | 'motion' | 'neural';
+export type Signature = 'blink' | 'gaze' | 'muscle' | 'cardiac' | 'mains' | 'contact' | 'movement' | 'neural';
 
 export interface Finding {
   readonly signature: Signature;
@@ -78,7 +78,7 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
     const rV = eog.vertical ?? 0;
     const eogHit = rV >= t.eogCorrelation;
     if (eogHit) because.push(`r = ${fix(rV)} with vertical ${src}${eog.channels.vertical ? ` (${eog.channels.vertical})` : ''}`);
-    const frontal = e.frontalGradient >= t.blinkFrontalGradient && !(e.lateralAntisymmetry >= t.eyeMovementAntisymmetry);
+    const frontal = e.frontalGradient >= t.blinkFrontalGradient && !(e.lateralAntisymmetry >= t.gazeAntisymmetry);
     if (frontal)
       because.push(
         `map ${pct(e.frontalShare)} frontal-pole, ${fix(e.frontalGradient, 1)}× the rest${e.lateralAntisymmetry < 0 ? ', symmetric left–right' : ''}, falls off posteriorly`,
@@ -96,35 +96,35 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
     const rH = eog.horizontal ?? 0;
     const eogHit = rH >= t.eogCorrelation && rH >= (eog.vertical ?? 0) - 0.1;
     if (eogHit) because.push(`r = ${fix(rH)} with horizontal ${src}${eog.channels.horizontal ? ` (${eog.channels.horizontal})` : ''}`);
-    const anti = e.lateralAntisymmetry >= t.eyeMovementAntisymmetry;
+    const anti = e.lateralAntisymmetry >= t.gazeAntisymmetry;
     if (anti) because.push(`map left–right antisymmetric (${fix(e.lateralAntisymmetry)} on a −1…1 scale)`);
     const slow = e.lowFrequencyShare >= t.ocularLowFrequencyShare;
     if (slow && (eogHit || anti)) because.push(`${pct(e.lowFrequencyShare)} of 1–45 Hz power below 4 Hz`);
-    const steps = e.stepLikeness >= t.eyeMovementStepLikeness;
+    const steps = e.stepLikeness >= t.gazeStepLikeness;
     if (steps && (eogHit || anti)) because.push(`slow jumps persist as steps (${fix(e.stepLikeness)})`);
     // Without an EOG correlation the map must also reach the front of the head: an antisymmetric slow
     // map over temporal or parietal sites is more likely a pair of brain sources merged into one component.
     const frontal = e.frontalGradient >= 1;
     if (anti && frontal && !eogHit) because.push(`frontal-pole weight ${fix(e.frontalGradient, 1)}× the rest`);
     if ((eogHit && (anti || slow || steps)) || (anti && slow && frontal))
-      findings.push({ signature: 'eye-movement', strong: eogHit || (anti && slow && frontal && steps), because });
+      findings.push({ signature: 'gaze', strong: eogHit || (anti && slow && frontal && steps), because });
   }
 
   // Single electrode
   if (e.focality.share >= t.electrodeFocality)
     findings.push({
-      signature: 'electrode',
+      signature: 'contact',
       strong: true,
       because: [`one electrode (${e.focality.channel}) carries ${pct(e.focality.share)} of the map`],
     });
 
   // Line noise
-  if (e.lineNoiseShare >= t.lineNoiseShare)
+  if (e.mainsShare >= t.mainsShare)
     findings.push({
-      signature: 'line-noise',
+      signature: 'mains',
       strong: true,
       because: [
-        `${pct(e.lineNoiseShare)} of the power within ±1 Hz of the line frequency and its harmonics${Number.isFinite(e.linePeakRatio) ? ` (peak ${fix(e.linePeakRatio, 0)}× its neighbours)` : ''}`,
+        `${pct(e.mainsShare)} of the power within ±1 Hz of the line frequency and its harmonics${Number.isFinite(e.linePeakRatio) ? ` (peak ${fix(e.linePeakRatio, 0)}× its neighbours)` : ''}`,
       ],
     });
 
@@ -137,16 +137,16 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
     });
 
   // Motion
-  if (e.stepLocking && e.stepLocking.share >= t.motionStepLocking)
+  if (e.stepLocking && e.stepLocking.share >= t.movementStepLocking)
     findings.push({
-      signature: 'motion',
+      signature: 'movement',
       strong: true,
       because: [`${pct(e.stepLocking.share)} of its activity locked to "${e.stepLocking.event}" events (${e.stepLocking.nEpochs} steps)`],
     });
 
   // Neural support
   const dipolar = e.dipole !== null && e.dipole.residualVariance <= t.dipoleResidualVariance && !e.dipole.atBoundary;
-  const oneOverF = e.aperiodic.exponent >= t.neuralExponentMin && e.aperiodic.exponent <= t.neuralExponentMax;
+  const oneOverF = e.oneOverF.exponent >= t.neuralExponentMin && e.oneOverF.exponent <= t.neuralExponentMax;
   const alpha = e.alphaPeakHz !== null && e.alphaProminence >= t.alphaProminence;
 
   // Muscle: broadband, flat or rising above 20 Hz, and not a well-fitted dipole inside the brain unless
@@ -165,7 +165,7 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
   const artifacts = findings.filter((f) => f.signature !== 'neural');
   const neuralBecause: string[] = [];
   if (dipolar && e.dipole) neuralBecause.push(`dipole fits with residual variance ${pct(e.dipole.residualVariance)} inside the brain (${e.dipole.region})`);
-  if (oneOverF) neuralBecause.push(`1/f spectrum (aperiodic exponent ${fix(e.aperiodic.exponent, 1)})`);
+  if (oneOverF) neuralBecause.push(`1/f spectrum (1/f exponent ${fix(e.oneOverF.exponent, 1)})`);
   if (alpha) neuralBecause.push(`alpha peak at ${fix(e.alphaPeakHz ?? NaN, 1)} Hz, ${fix(e.alphaProminence)} log10 above the 1/f line`);
   if (timeLocked && timeLockingSentence) neuralBecause.push(timeLockingSentence);
   const clean = artifacts.length === 0;
@@ -176,7 +176,7 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
 }
 
 /** Which artifact signature names the component when several are present (most specific first; ours). */
-export const SIGNATURE_PRECEDENCE: readonly Signature[] = ['blink', 'eye-movement', 'line-noise', 'motion', 'cardiac', 'muscle', 'electrode'];
+export const SIGNATURE_PRECEDENCE: readonly Signature[] = ['blink', 'gaze', 'mains', 'movement', 'cardiac', 'muscle', 'contact'];
 
 /**
  * The suggested verdict for one component under one aim, with the reason code and the evidence sentences.
@@ -198,7 +198,7 @@ export function suggestVerdict(e: SuggestionInput, aim: Aim, t: Thresholds = def
   }
 
   const a = artifacts[0];
-  const ocular = a.signature === 'blink' || a.signature === 'eye-movement';
+  const ocular = a.signature === 'blink' || a.signature === 'gaze';
   const others = artifacts.slice(1).map((f) => f.signature);
   const also = others.length ? [`also shows signs of ${others.join(' and ')}: ${artifacts.slice(1).flatMap((f) => f.because).join('; ')}`] : [];
 

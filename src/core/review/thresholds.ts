@@ -3,7 +3,7 @@
  * "common practice" (a fact of the trade, no single source), "from memory" (not verified here), or "ours"
  * (chosen for Winnow and tuned on our simulated recordings). All are starting points: users override any of
  * them (`{ ...defaultThresholds, muscleHighFrequencyShare: 0.5 }`), and agreement with reviewers (Cohen's
- * kappa, METHODS §13) is how to tune them.
+ * kappa, docs/methods.md §13) is how to tune them.
  */
 export interface Thresholds {
   /** |r| of the activation with the vertical or horizontal EOG (or frontal proxy) that marks an ocular component. */
@@ -13,9 +13,9 @@ export interface Thresholds {
   /** BP(1–4 Hz) / BP(1–45 Hz) at or above which the spectrum counts as ocular (slow). */
   readonly ocularLowFrequencyShare: number;
   /** Frontal left–right antisymmetry (−1…1) at or above which a map counts as horizontal-eye-like. */
-  readonly eyeMovementAntisymmetry: number;
+  readonly gazeAntisymmetry: number;
   /** Step-likeness (0…1) supporting a horizontal eye movement. */
-  readonly eyeMovementStepLikeness: number;
+  readonly gazeStepLikeness: number;
   /** Excess kurtosis supporting a blink (sparse, large deflections). */
   readonly blinkKurtosis: number;
   /** BP(20, line−2) / BP(2, line−2) at or above which a spectrum counts as muscle-like. */
@@ -24,24 +24,24 @@ export interface Thresholds {
   readonly muscleHighFrequencyShareStrong: number;
   /** Log–log slope above 20 Hz at or above which the spectrum is "flat or rising" (muscle). */
   readonly muscleSlope: number;
-  /** Share of power at the line frequency and harmonics marking a line-noise component. */
-  readonly lineNoiseShare: number;
+  /** Share of power at the line frequency and harmonics marking a mains component. */
+  readonly mainsShare: number;
   /** Map energy share on one electrode marking a single-electrode component. */
   readonly electrodeFocality: number;
   /** Autocorrelation peak (40–150 bpm) marking a cardiac component. */
   readonly cardiacPeak: number;
   /** Step-locked share marking a motion component. */
-  readonly motionStepLocking: number;
+  readonly movementStepLocking: number;
   /** Time-locking strength (locked share above chance) that counts as time-locked… */
   readonly timeLockingStrength: number;
   /** …when the permutation p-value is at or below this. */
   readonly timeLockingP: number;
   /** Dipole residual variance (0…1) at or below which the map counts as dipolar. */
   readonly dipoleResidualVariance: number;
-  /** Aperiodic exponent range counted as brain-like 1/f. */
+  /** 1/f exponent range counted as brain-like 1/f. */
   readonly neuralExponentMin: number;
   readonly neuralExponentMax: number;
-  /** Alpha peak height above the aperiodic fit (log10) counted as a real peak. */
+  /** Alpha peak height above the 1/f fit (log10) counted as a real peak. */
   readonly alphaProminence: number;
 }
 
@@ -49,49 +49,49 @@ export const defaultThresholds: Thresholds = {
   // From memory: correlation with EOG channels of ~0.7 and above is a usual cut in correlation-based ocular
   // component detection (published values range ~0.5–0.8).
   eogCorrelation: 0.7,
-  // Ours, after METHODS §14 (blink maps strongest at Fp/AF, falling off posteriorly — common practice);
+  // Ours, after docs/methods.md §14 (blink maps strongest at Fp/AF, falling off posteriorly — common practice);
   // 2× the mean elsewhere separates blink maps from broad frontal brain maps on our simulations.
   blinkFrontalGradient: 2,
-  // Ours, after METHODS §14 ("power concentrated below ~4–5 Hz" for ocular components — common practice).
+  // Ours, after docs/methods.md §14 ("power concentrated below ~4–5 Hz" for ocular components — common practice).
   ocularLowFrequencyShare: 0.5,
-  // Ours: METHODS §14 describes lateral eye movements as left–right antisymmetric at lateral frontal sites
+  // Ours: docs/methods.md §14 describes lateral eye movements as left–right antisymmetric at lateral frontal sites
   // (common practice); 0.6 on the −1…1 antisymmetry scale.
-  eyeMovementAntisymmetry: 0.6,
+  gazeAntisymmetry: 0.6,
   // Ours: median persistence of slow jumps; saccade steps persist, blinks return.
-  eyeMovementStepLikeness: 0.5,
-  // Common practice: blink activations are highly super-Gaussian ("kurtosis ≫ 3", METHODS §14, which is the
+  gazeStepLikeness: 0.5,
+  // Common practice: blink activations are highly super-Gaussian ("kurtosis ≫ 3", docs/methods.md §14, which is the
   // non-excess value; 3 here is excess kurtosis, i.e. 6 in the non-excess convention — ours).
   blinkKurtosis: 3,
-  // Ours, after METHODS §14 (muscle: broadband, flat or rising above ~20 Hz — common practice; Goncharova
+  // Ours, after docs/methods.md §14 (muscle: broadband, flat or rising above ~20 Hz — common practice; Goncharova
   // et al. 2003, Clin. Neurophysiol. 114:1580). A flat spectrum gives ≈ 0.6 over 2–48 Hz; 1/f² brain ≈ 0.02.
   // Below the strong level a well-fitted dipole inside the brain vetoes the muscle reading (sparse evoked
   // components look flat between responses).
   muscleHighFrequencyShare: 0.35,
   // Ours: unmistakable muscle (our simulated muscle components reach 0.75–0.83; brain components stay < 0.5).
   muscleHighFrequencyShareStrong: 0.6,
-  // METHODS §14: "log-log slope over 20–45 Hz near 0 or positive" (common practice); −1 allows partly mixed.
+  // docs/methods.md §14: "log-log slope over 20–45 Hz near 0 or positive" (common practice); −1 allows partly mixed.
   muscleSlope: -1,
-  // Ours: half of all 1–fmax power within ±1 Hz of the line and its harmonics (METHODS §4 definitions).
-  lineNoiseShare: 0.5,
-  // METHODS §14: "max a² / Σ a² > ~0.5–0.8" for a single electrode (common practice / from memory); 0.6.
+  // Ours: half of all 1–fmax power within ±1 Hz of the line and its harmonics (docs/methods.md §4 definitions).
+  mainsShare: 0.5,
+  // docs/methods.md §14: "max a² / Σ a² > ~0.5–0.8" for a single electrode (common practice / from memory); 0.6.
   electrodeFocality: 0.6,
   // Ours: autocorrelation of the slope energy at the beat lag; on our simulations brain, muscle and ocular
   // components stay below 0.27 and a heartbeat reaches 0.8 (cable sway at the step rate reaches 0.5: motion
   // is named before cardiac when both are present).
   cardiacPeak: 0.4,
   // Ours: a fifth of the activity phase-locked to steps.
-  motionStepLocking: 0.2,
+  movementStepLocking: 0.2,
   // Ours: 2 % of single-trial variance locked beyond chance, with a permutation p ≤ 0.05 (the usual 5 %
   // level — common practice).
   timeLockingStrength: 0.02,
   timeLockingP: 0.05,
-  // METHODS §14/§15: single-dipole RV < ~15 % is a common acceptance level (from memory there;
+  // docs/methods.md §14/§15: single-dipole RV < ~15 % is a common acceptance level (from memory there;
   // Delorme et al. 2012, PLoS ONE 7:e30135 for dipolarity of brain components).
   dipoleResidualVariance: 0.15,
-  // From memory (METHODS §2): scalp-EEG aperiodic exponents ≈ 1–2; widened to 0.5–3.5.
+  // From memory (docs/methods.md §2): scalp-EEG 1/f exponents ≈ 1–2; widened to 0.5–3.5.
   neuralExponentMin: 0.5,
   neuralExponentMax: 3.5,
-  // METHODS §3: peak ≥ ~0.1 log10 units above the aperiodic fit (from memory there).
+  // docs/methods.md §3: peak ≥ ~0.1 log10 units above the 1/f fit (from memory there).
   alphaProminence: 0.1,
 };
 

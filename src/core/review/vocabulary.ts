@@ -18,31 +18,43 @@ export type Verdict = 'keep' | 'remove' | 'undecided';
 
 export const VERDICTS: readonly Verdict[] = ['keep', 'remove', 'undecided'];
 
-/** The most likely origin of a component, as a short code. */
+/**
+ * The most likely origin of a component, as a short code, in the order the workbench shows them:
+ * blink; gaze (lateral or vertical eye movement); muscle; cardiac; contact (a poor or loose electrode contact);
+ * mains (power-line interference); movement (cable or gait motion); neural; mixed; unclear.
+ */
 export type ReasonCode =
-  | 'neural'
   | 'blink'
-  | 'eye-movement'
+  | 'gaze'
   | 'muscle'
   | 'cardiac'
-  | 'line-noise'
-  | 'electrode'
-  | 'motion'
+  | 'contact'
+  | 'mains'
+  | 'movement'
+  | 'neural'
   | 'mixed'
   | 'unclear';
 
 export const REASON_CODES: readonly ReasonCode[] = [
-  'neural',
   'blink',
-  'eye-movement',
+  'gaze',
   'muscle',
   'cardiac',
-  'line-noise',
-  'electrode',
-  'motion',
+  'contact',
+  'mains',
+  'movement',
+  'neural',
   'mixed',
   'unclear',
 ];
+
+/** Reason codes of `winnow-decisions/1` files and what they are called now. */
+export const LEGACY_REASON_CODES: Readonly<Record<string, ReasonCode>> = {
+  'eye-movement': 'gaze',
+  'line-noise': 'mains',
+  electrode: 'contact',
+  motion: 'movement',
+};
 
 /**
  * A suggested verdict with its reasoning. The suggestion never decides: `because` lists the evidence

@@ -1,13 +1,13 @@
 /**
- * Event-locked epochs, their average and standard error, and the rows of an epoch image (trials × time),
- * following METHODS §5 (common practice): event sample e = round(onset · fs); window offsets
+ * Event-locked epochs, their average and standard error, and the rows of an trial stack (trials × time),
+ * following docs/methods.md §5 (common practice): event sample e = round(onset · fs); window offsets
  * round(tmin · fs) … round(tmax · fs) inclusive; epochs that run past either end are dropped; baseline =
  * mean over offsets round(b0 · fs) … round(b1 · fs) subtracted per epoch; SEM = std(ddof 1) / √n.
  * One rounding rule everywhere: half away from zero, after adding 1e-9 to the magnitude so that
  * onset · fs landing a hair below .5 still rounds up.
  */
 
-/** Round half away from zero with the 1e-9 guard of METHODS §5. */
+/** Round half away from zero with the 1e-9 guard of docs/methods.md §5. */
 export function roundHalfAway(v: number): number {
   return Math.sign(v) * Math.floor(Math.abs(v) + 0.5 + 1e-9);
 }
@@ -108,8 +108,8 @@ export function epochSem(epochs: Float64Array, nEpochs: number, length: number, 
 }
 
 /**
- * Centred moving average over `width` rows (trials) of an epoch image; at the edges only the available
- * rows are averaged (METHODS §5; Jung et al. 2001, Hum. Brain Mapp. 14:166–185 for the display).
+ * Centred moving average over `width` rows (trials) of an trial stack; at the edges only the available
+ * rows are averaged (docs/methods.md §5; Jung et al. 2001, Hum. Brain Mapp. 14:166–185 for the display).
  * An even width w averages rows r − w/2 … r + w/2 − 1. Width ≤ 1 copies.
  */
 export function smoothEpochRows(epochs: Float64Array | Float32Array, nEpochs: number, length: number, width: number): Float64Array {
@@ -167,7 +167,7 @@ export function epochWindowMeans(ep: Epochs, t0S: number, t1S: number): Float64A
 
 /**
  * For each kept epoch, the latency (s) from its event to the first `otherOnsetsS` onset after it (within
- * `maxS`), NaN when there is none; used to sort an epoch image by another event's latency (e.g. a response).
+ * `maxS`), NaN when there is none; used to sort an trial stack by another event's latency (e.g. a response).
  */
 export function latencyToNextEvent(eventOnsetsS: readonly number[], kept: readonly number[], otherOnsetsS: readonly number[], maxS = Infinity): Float64Array {
   const other = [...otherOnsetsS].filter(Number.isFinite).sort((a, b) => a - b);

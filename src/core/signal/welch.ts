@@ -1,6 +1,6 @@
 /**
  * Welch power spectral density (Welch 1967, IEEE Trans. Audio Electroacoust. AU-15:70–73: averaged
- * modified periodograms), with the conventions of scipy.signal.welch's defaults (METHODS §1):
+ * modified periodograms), with the conventions of scipy.signal.welch's defaults (docs/methods.md §1):
  * periodic ("DFT-even") Hann taper, constant detrend per segment, one-sided density, mean over
  * segments, trailing samples that do not fill a segment dropped, FFT length = segment length.
  *
@@ -77,7 +77,7 @@ export function welchFrequencies(plan: WelchPlan, fs: number): Float64Array {
  * One-sided power spectral density of `x` sampled at `fs` Hz, in (unit of x)²/Hz (µV²/Hz for µV input),
  * at the frequencies of `welchFrequencies`:
  *   P[k] = c_k / (fs U) · (1/S) Σ_s |Σ_j w[j] (x[sD+j] − mean_s) e^{−2πikj/L}|²,  c_k = 1 at k = 0 and
- * k = L/2, else 2 (METHODS §1). Σ P[k] fs/L equals the mean over segments of the taper-weighted mean
+ * k = L/2, else 2 (docs/methods.md §1). Σ P[k] fs/L equals the mean over segments of the taper-weighted mean
  * square (Parseval). When `x` is shorter than one segment every bin is NaN (there is no estimate); a
  * segment containing NaN makes every bin NaN, as it would in scipy.
  */
@@ -114,7 +114,7 @@ export function welchPsd(
 }
 
 /**
- * Band power Σ P[k] df over bins with lo ≤ f_k ≤ hi (inclusive edges, METHODS §4), in (unit)².
+ * Band power Σ P[k] df over bins with lo ≤ f_k ≤ hi (inclusive edges, docs/methods.md §4), in (unit)².
  * `psd` holds bins k = 0… at spacing df Hz.
  */
 export function bandPower(psd: Float64Array, df: number, lo: number, hi: number): number {
@@ -127,7 +127,7 @@ export function bandPower(psd: Float64Array, df: number, lo: number, hi: number)
 
 /**
  * The power-of-two segment length nearest to `targetS` seconds at `fs` Hz (2 s by default, giving
- * ≈ 0.5 Hz resolution; common practice, METHODS §1), but never longer than `nSamples` when that is
+ * ≈ 0.5 Hz resolution; common practice, docs/methods.md §1), but never longer than `nSamples` when that is
  * at least 2 samples.
  */
 export function welchSegmentLength(fs: number, nSamples: number, targetS = 2): number {

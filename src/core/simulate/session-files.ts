@@ -1,7 +1,7 @@
 /**
  * File forms of a simulated session (pure: bytes and text, no file system): EDF+C recordings (the sensor
  * data and the neural-only back-projection), BIDS sidecars (channels, electrodes, coordinate system,
- * events, *_eeg.json; BIDS specification v1.11, METHODS.md §12) and the truth files. `winnow simulate` and
+ * events, *_eeg.json; BIDS specification v1.11, docs/methods.md §12) and the truth files. `winnow simulate` and
  * the demo-data script write these under plain or BIDS names.
  */
 import { formatTsv } from '../formats/bids.ts';

@@ -50,7 +50,7 @@ export interface SimulateOptions {
   sensorNoiseUv?: number;
 }
 
-/** Head radius of the simulation, mm (a typical adult head; METHODS §8.1 gives 85–95 mm). */
+/** Head radius of the simulation, mm (a typical adult head; docs/methods.md §8.1 gives 85–95 mm). */
 export const HEAD_RADIUS_MM = 90;
 
 /** Electrode positions (M × 3, mm on the 90 mm sphere) and unit directions for the given labels. */

@@ -11,7 +11,7 @@
  *   sphere with no skull layer is the closer of the two simple models (our approximation; a realistic head
  *   would put them outside the sphere altogether);
  * - cardiac: a uniform far field (potential linear in electrode position), the leading term of a distant
- *   dipole's potential across the head (common practice: "smooth broad gradient", METHODS §14);
+ *   dipole's potential across the head (common practice: "smooth broad gradient", docs/methods.md §14);
  * - line noise, the loose electrode and cable sway: maps written directly in sensor space.
  *
  * Every map is average-referenced (mean over channels removed) and scaled so its largest |value| is the
@@ -77,7 +77,7 @@ const unitVec = (v: Vec3): Vec3 => {
   return [v[0] / l, v[1] / l, v[2] / l];
 };
 
-/** Removes the mean over channels (average reference, H = I − 11ᵀ/M; METHODS §8.1). */
+/** Removes the mean over channels (average reference, H = I − 11ᵀ/M; docs/methods.md §8.1). */
 export function averageReference(map: Float64Array): Float64Array {
   let mean = 0;
   for (let i = 0; i < map.length; i++) mean += map[i];
@@ -280,7 +280,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
   for (const [id, where, pos, dir, chi] of background) {
     neural(
       id,
-      `Aperiodic background activity (${where}): Gaussian noise with power ∝ 1/f^${chi} above a 1 Hz knee, one of six dipoles standing in for the many background generators.`,
+      `1/f background activity (${where}): Gaussian noise with power ∝ 1/f^${chi} above a 1 Hz knee, one of six dipoles standing in for the many background generators.`,
       { positionMm: pos, direction: dir },
       4,
       shapedNoise(rng(ctx, id), n, fs, powerLawGain(chi, 1)),
@@ -324,7 +324,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     const { map, dipoles } = dipoleMap(ctx.sphere, ctx, [{ positionMm: eyes, direction: [1, 0, 0] }], 3);
     out.push({
       id: 'eye-horizontal',
-      class: 'eye-movement',
+      class: 'gaze',
       description:
         'Horizontal eye movements: step-like gaze shifts (saccades of 21 ms + 2.2 ms/°) between fixations, larger towards the turn at each lap end; left–right antisymmetric frontal map (corneo-retinal dipole rotating about the vertical axis).',
       activationUnit: 'degrees of horizontal gaze (+ = right)',
@@ -405,8 +405,8 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     }
     const w: Record<string, number> = { T8: 1, FC6: 0.5, C4: 0.3 };
     out.push({
-      id: 'line-noise',
-      class: 'line-noise',
+      id: 'mains',
+      class: 'mains',
       description: `Mains interference at ${f0} Hz (slowly varying amplitude${third ? `, weak 3rd harmonic at ${3 * f0} Hz` : ''}) picked up by three poorly shielded leads (T8, FC6, C4).`,
       activationUnit: 'relative amplitude of the mains sinusoid',
       map: sensorMap(ctx, (l) => w[l] ?? 0, 6),
@@ -424,7 +424,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     for (const p of scenario.pops) addKernel(act, fs, p.timeS, p.height, 0, 8 * p.tauS, (t) => Math.exp(-t / p.tauS));
     out.push({
       id: 'electrode-P7',
-      class: 'electrode',
+      class: 'contact',
       description: 'Loose electrode at P7: slow drifts of the contact potential and sudden pops that recover over 0.3–1.5 s.',
       activationUnit: 'electrode offset (pops 1.5–4)',
       map: sensorMap(ctx, (l) => (l === 'P7' ? 1 : 0), 20),
@@ -448,7 +448,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     const map = sensorMap(ctx, (l, c) => (ctx.directions[3 * c + 1] < -0.75 ? 0.6 + 0.4 * labelHash01(l) : 0), 15);
     out.push({
       id: 'motion-cable',
-      class: 'motion',
+      class: 'movement',
       description: 'Cable sway: a damped ~2.5 Hz swing of the posterior lead bundle after each heel strike (~1.8 steps/s), opposite sign for left and right steps.',
       activationUnit: 'sway amplitude',
       map,

@@ -66,7 +66,7 @@ export function shapedNoise(rng: Rng, n: number, fs: number, gain: (fHz: number)
 /**
  * Amplitude gain of "1/f^χ" background noise with a knee: |H(f)| = (f² + fKnee²)^(−χ/4), so the PSD
  * falls as f^−χ above the knee and is flat below it (a real amplifier's high-pass keeps the spectrum from
- * diverging at 0 Hz). Scalp EEG aperiodic exponents are typically 1–2 [METHODS.md §2, from memory there].
+ * diverging at 0 Hz). Scalp EEG 1/f exponents are typically 1–2 [docs/methods.md §2, from memory there].
  */
 export function powerLawGain(chi: number, fKneeHz: number): (fHz: number) => number {
   const k2 = fKneeHz * fKneeHz;
@@ -168,7 +168,7 @@ export function gaussianBump(tS: number, sigmaS: number): number {
 
 /**
  * Blink waveform, peak 1 at `riseS`: a half raised-cosine rise over `riseS` and a raised-cosine fall
- * over `fallS` (total ≈ 0.2–0.4 s; blink duration ~300 ms is common practice, METHODS.md §14; the
+ * over `fallS` (total ≈ 0.2–0.4 s; blink duration ~300 ms is common practice, docs/methods.md §14; the
  * asymmetric rise/fall is our approximation of the lid closing faster than it reopens).
  */
 export function blinkKernel(tS: number, riseS: number, fallS: number): number {

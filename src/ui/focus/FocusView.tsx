@@ -5,7 +5,7 @@
  * data-testid hooks for the end-to-end tests:
  *   focus-view          the whole view (section)
  *   focus-topography    scalp map panel
- *   focus-epoch-image   epoch image + average panel
+ *   focus-trial-stack   trial stack + average panel
  *   focus-spectrum      spectrum panel
  *   focus-previous, focus-next   navigation buttons
  *   decision-keep, decision-remove, decision-undecided   verdict buttons (aria-pressed shows the current one)
@@ -22,7 +22,7 @@ import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { ActivationPanel, type ActivationSettings } from './ActivationPanel.tsx';
 import { DecisionControls } from './DecisionControls.tsx';
 import { DipolePanel } from './DipolePanel.tsx';
-import { EpochPanel, type EpochSettings } from './EpochPanel.tsx';
+import { TrialStackPanel, type EpochSettings } from './TrialStackPanel.tsx';
 import { MapPanel } from './MapPanel.tsx';
 import { SpectrumPanel } from './SpectrumPanel.tsx';
 import { SuggestionReasons } from './SuggestionReasons.tsx';
@@ -105,7 +105,7 @@ export function FocusView() {
             />
           ) : null}
           {evidence ? (
-            <EpochPanel evidence={evidence} settings={epochSettings} onSettings={(p) => setEpochSettings((s) => ({ ...s, ...p }))} context={context} />
+            <TrialStackPanel evidence={evidence} settings={epochSettings} onSettings={(p) => setEpochSettings((s) => ({ ...s, ...p }))} context={context} />
           ) : null}
         </div>
         <div className="focus-column">

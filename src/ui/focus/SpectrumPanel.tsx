@@ -1,16 +1,16 @@
-/** Spectrum of the component at its strongest channel, with the aperiodic fit and the alpha peak. */
+/** Spectrum of the component at its strongest channel, with the 1/f fit and the alpha peak. */
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { SpectrumPlot } from '../plots/SpectrumPlot.tsx';
 
 export function SpectrumPanel({ evidence, context }: { evidence: ComponentEvidence; context: string }) {
-  const { spectrum, aperiodic, alphaPeakHz, strongestChannel } = evidence;
+  const { spectrum, oneOverF, alphaPeakHz, strongestChannel } = evidence;
   const top = spectrum.frequencies.length ? spectrum.frequencies[spectrum.frequencies.length - 1] : 45;
   return (
     <ExportablePanel title="Spectrum" context={context} testId="focus-spectrum" className="panel-spectrum">
       <SpectrumPlot
         series={[{ frequencies: spectrum.frequencies, power: spectrum.power, label: `at ${strongestChannel.label}` }]}
-        aperiodic={aperiodic}
+        oneOverF={oneOverF}
         alphaPeakHz={alphaPeakHz}
         rangeHz={[1, Math.min(60, top)]}
         width={380}
@@ -18,8 +18,8 @@ export function SpectrumPanel({ evidence, context }: { evidence: ComponentEviden
         title={`Power spectral density at ${strongestChannel.label}`}
       />
       <p className="note">
-        Welch PSD at {strongestChannel.label} (back-projected, µV²/Hz, {spectrum.df.toFixed(2)} Hz bins). Aperiodic exponent{' '}
-        {Number.isFinite(aperiodic.exponent) ? aperiodic.exponent.toFixed(2) : 'n/a'} over {aperiodic.rangeHz[0]}–{aperiodic.rangeHz[1]} Hz;{' '}
+        Welch PSD at {strongestChannel.label} (back-projected, µV²/Hz, {spectrum.df.toFixed(2)} Hz bins). 1/f exponent{' '}
+        {Number.isFinite(oneOverF.exponent) ? oneOverF.exponent.toFixed(2) : 'n/a'} over {oneOverF.rangeHz[0]}–{oneOverF.rangeHz[1]} Hz;{' '}
         {alphaPeakHz === null ? 'no alpha peak.' : `alpha peak ${alphaPeakHz.toFixed(1)} Hz.`}
       </p>
     </ExportablePanel>

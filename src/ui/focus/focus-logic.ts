@@ -24,7 +24,7 @@ export function strongestChannels(mixing: Float64Array, n: number, k: number, i:
 
 /**
  * Activation of component i (0-based) over a channel-major window (n × L), back-projected to channel c:
- * A[c, i] · s_i(t), in µV — the same convention as the evidence (spectra, epoch image at the strongest
+ * A[c, i] · s_i(t), in µV — the same convention as the evidence (spectra, trial stack at the strongest
  * channel), so it shares the sensor traces' unit.
  */
 export function backProjectedActivation(

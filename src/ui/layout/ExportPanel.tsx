@@ -61,7 +61,7 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
           <button type="button" data-testid="export-decomposition" onClick={() => saveText(decompositionJson, '_decomposition.json', 'application/json')}>
             Save decomposition (JSON)
           </button>
-          <span className="hint">needed with the decisions file by <code>winnow apply</code></span>
+          <span className="hint">needed with the decisions file by <code>winnow clean</code></span>
         </div>
       )}
       <div className="export-group" role="group" aria-label="Methods paragraph">

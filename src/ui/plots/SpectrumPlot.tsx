@@ -1,10 +1,10 @@
 /**
- * Power spectral density at a useful size: log10 power against frequency with axes, the aperiodic fit
+ * Power spectral density at a useful size: log10 power against frequency with axes, the 1/f fit
  * (dashed) and the alpha peak (labelled tick). Several series (before/after) share the axes and differ
  * in dash pattern as well as colour.
  */
 import { Axis } from './Axis.tsx';
-import { spectrumGeometry, type AperiodicLine, type SpectrumSeries } from './spectrum-geometry.ts';
+import { spectrumGeometry, type OneOverFLine, type SpectrumSeries } from './spectrum-geometry.ts';
 
 export interface LabelledSpectrum extends SpectrumSeries {
   readonly label: string;
@@ -12,7 +12,7 @@ export interface LabelledSpectrum extends SpectrumSeries {
 
 export interface SpectrumPlotProps {
   readonly series: readonly LabelledSpectrum[];
-  readonly aperiodic?: AperiodicLine | null;
+  readonly oneOverF?: OneOverFLine | null;
   readonly alphaPeakHz?: number | null;
   /** Frequency range in Hz (default 1–45 Hz or the highest bin). */
   readonly rangeHz?: readonly [number, number];
@@ -29,10 +29,10 @@ const STYLES = [
 ];
 
 export function SpectrumPlot({
-  series, aperiodic = null, alphaPeakHz = null, rangeHz, width = 360, height = 170, unit = 'µV²/Hz', title,
+  series, oneOverF = null, alphaPeakHz = null, rangeHz, width = 360, height = 170, unit = 'µV²/Hz', title,
 }: SpectrumPlotProps) {
   const margin = { top: 10, right: 10, bottom: 28, left: 42 };
-  const g = spectrumGeometry(series, { width, height, margin, rangeHz }, aperiodic, alphaPeakHz);
+  const g = spectrumGeometry(series, { width, height, margin, rangeHz }, oneOverF, alphaPeakHz);
   const [y0, y1] = g.y.range();
   return (
     <svg className="spectrum-plot" width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label={title ?? 'power spectrum'}>
@@ -61,7 +61,7 @@ export function SpectrumPlot({
         {g.fit ? (
           <g transform={`translate(0,${(series.length > 1 ? series.length : 0) * 12})`}>
             <line x2={18} y1={4} y2={4} stroke="#8a6d00" strokeDasharray="2 3" strokeWidth={1.2} />
-            <text x={22} y={7}>aperiodic fit</text>
+            <text x={22} y={7}>1/f fit</text>
           </g>
         ) : null}
       </g>

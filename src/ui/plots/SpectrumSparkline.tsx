@@ -1,6 +1,6 @@
 /**
  * A small spectrum for a board tile: log10 power 1–45 Hz at the component's strongest channel, the
- * aperiodic fit as a dashed line and the alpha peak as a short tick with a dot. No axes; the tooltip gives
+ * 1/f fit as a dashed line and the alpha peak as a short tick with a dot. No axes; the tooltip gives
  * the numbers so the sparkline stays readable without colour.
  */
 import { useMemo } from 'react';
@@ -16,17 +16,17 @@ export interface SpectrumSparklineProps {
 }
 
 /** Tooltip text for the sparkline: exponent and alpha peak, with units. */
-export function sparklineSummary(e: Pick<ComponentEvidence, 'aperiodic' | 'alphaPeakHz'>): string {
-  const chi = Number.isFinite(e.aperiodic.exponent) ? `aperiodic exponent ${e.aperiodic.exponent.toFixed(2)}` : 'no aperiodic fit';
+export function sparklineSummary(e: Pick<ComponentEvidence, 'oneOverF' | 'alphaPeakHz'>): string {
+  const chi = Number.isFinite(e.oneOverF.exponent) ? `1/f exponent ${e.oneOverF.exponent.toFixed(2)}` : 'no 1/f fit';
   const alpha = e.alphaPeakHz === null ? 'no alpha peak' : `alpha peak ${e.alphaPeakHz.toFixed(1)} Hz`;
   return `Spectrum 1–45 Hz (log power): ${chi}; ${alpha}`;
 }
 
 export function SpectrumSparkline({ evidence, width = 120, height = 40 }: SpectrumSparklineProps) {
-  const { spectrum, aperiodic, alphaPeakHz } = evidence;
+  const { spectrum, oneOverF, alphaPeakHz } = evidence;
   const g = useMemo(
-    () => spectrumGeometry([spectrum], { width, height }, aperiodic, alphaPeakHz),
-    [spectrum, aperiodic, alphaPeakHz, width, height],
+    () => spectrumGeometry([spectrum], { width, height }, oneOverF, alphaPeakHz),
+    [spectrum, oneOverF, alphaPeakHz, width, height],
   );
   const summary = sparklineSummary(evidence);
   return (

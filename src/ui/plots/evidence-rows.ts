@@ -40,57 +40,57 @@ export function evidenceRows(e: ComponentEvidence, t: Thresholds = defaultThresh
   add({ key: 'variance', label: 'Variance share', value: pct(e.varianceShare), unit: '%', threshold: '', source: 'Σ_c A[c,i]² var(s_i) / Σ_c var(x_c)', flagged: false });
   add({
     key: 'strongest', label: 'Strongest channel', value: e.strongestChannel.label, unit: '', threshold: '',
-    source: 'largest |A[c,i]|; spectra, averages and epoch image are in µV there', flagged: false,
+    source: 'largest |A[c,i]|; spectra, averages and trial stack are in µV there', flagged: false,
   });
   add({
-    key: 'exponent', label: 'Aperiodic exponent', value: num(e.aperiodic.exponent), unit: '',
+    key: 'exponent', label: '1/f exponent', value: num(e.oneOverF.exponent), unit: '',
     threshold: `${t.neuralExponentMin}–${t.neuralExponentMax} brain-like`,
-    source: `log–log fit ${e.aperiodic.rangeHz[0]}–${e.aperiodic.rangeHz[1]} Hz (METHODS §2); range from memory`,
+    source: `log–log fit ${e.oneOverF.rangeHz[0]}–${e.oneOverF.rangeHz[1]} Hz (docs/methods.md §2); range from memory`,
     flagged: false,
   });
   add({
     key: 'alpha', label: 'Alpha peak', value: e.alphaPeakHz === null ? 'none' : num(e.alphaPeakHz, 1), unit: e.alphaPeakHz === null ? '' : 'Hz',
-    threshold: `prominence ≥ ${t.alphaProminence} log₁₀`, source: '7–14 Hz above the aperiodic fit (METHODS §3)', flagged: false,
+    threshold: `prominence ≥ ${t.alphaProminence} log₁₀`, source: '7–14 Hz above the 1/f fit (docs/methods.md §3)', flagged: false,
   });
-  add({ key: 'alphaProminence', label: 'Alpha prominence', value: num(e.alphaProminence, 3), unit: 'log₁₀', threshold: `≥ ${t.alphaProminence}`, source: 'height above the aperiodic fit (METHODS §3)', flagged: false });
+  add({ key: 'alphaProminence', label: 'Alpha prominence', value: num(e.alphaProminence, 3), unit: 'log₁₀', threshold: `≥ ${t.alphaProminence}`, source: 'height above the 1/f fit (docs/methods.md §3)', flagged: false });
   add({
     key: 'hf', label: 'High-frequency share', value: pct(e.highFrequencyShare), unit: '%',
     threshold: `≥ ${pctU(t.muscleHighFrequencyShare)} muscle-like (≥ ${pctU(t.muscleHighFrequencyShareStrong)} strong)`,
-    source: 'BP(20, line−2) / BP(2, line−2) Hz (METHODS §4); threshold ours', flagged: ge(e.highFrequencyShare, t.muscleHighFrequencyShare),
+    source: 'BP(20, line−2) / BP(2, line−2) Hz (docs/methods.md §4); threshold ours', flagged: ge(e.highFrequencyShare, t.muscleHighFrequencyShare),
   });
   add({
     key: 'hfSlope', label: 'Slope above 20 Hz', value: num(e.highFrequencySlope), unit: 'log–log',
-    threshold: `≥ ${t.muscleSlope} flat or rising`, source: 'METHODS §14, common practice', flagged: ge(e.highFrequencySlope, t.muscleSlope),
+    threshold: `≥ ${t.muscleSlope} flat or rising`, source: 'docs/methods.md §14, common practice', flagged: ge(e.highFrequencySlope, t.muscleSlope),
   });
   add({
-    key: 'line', label: 'Line-noise share', value: pct(e.lineNoiseShare), unit: '%', threshold: `≥ ${pctU(t.lineNoiseShare)}`,
-    source: 'Σ_h BP(h·f0 ± 1 Hz) / BP(1, fmax) (METHODS §4); threshold ours', flagged: ge(e.lineNoiseShare, t.lineNoiseShare),
+    key: 'line', label: 'Mains share', value: pct(e.mainsShare), unit: '%', threshold: `≥ ${pctU(t.mainsShare)}`,
+    source: 'Σ_h BP(h·f0 ± 1 Hz) / BP(1, fmax) (docs/methods.md §4); threshold ours', flagged: ge(e.mainsShare, t.mainsShare),
   });
-  add({ key: 'linePeak', label: 'Line peak ratio', value: num(e.linePeakRatio, 1), unit: '×', threshold: '', source: 'P(f0) / median P in f0 ± 5 Hz (METHODS §4)', flagged: false });
+  add({ key: 'linePeak', label: 'Line peak ratio', value: num(e.linePeakRatio, 1), unit: '×', threshold: '', source: 'P(f0) / median P in f0 ± 5 Hz (docs/methods.md §4)', flagged: false });
   add({
     key: 'lf', label: 'Low-frequency share', value: pct(e.lowFrequencyShare), unit: '%', threshold: `≥ ${pctU(t.ocularLowFrequencyShare)} ocular-like`,
-    source: 'BP(1, 4) / BP(1, 45) Hz (METHODS §4); threshold ours', flagged: ge(e.lowFrequencyShare, t.ocularLowFrequencyShare),
+    source: 'BP(1, 4) / BP(1, 45) Hz (docs/methods.md §4); threshold ours', flagged: ge(e.lowFrequencyShare, t.ocularLowFrequencyShare),
   });
   add({
     key: 'frontal', label: 'Frontal gradient', value: num(e.frontalGradient), unit: '×', threshold: `≥ ${t.blinkFrontalGradient} blink-like`,
-    source: 'mean |a| at Fp/AF ÷ elsewhere (METHODS §14); threshold ours', flagged: ge(e.frontalGradient, t.blinkFrontalGradient),
+    source: 'mean |a| at Fp/AF ÷ elsewhere (docs/methods.md §14); threshold ours', flagged: ge(e.frontalGradient, t.blinkFrontalGradient),
   });
   add({ key: 'frontalShare', label: 'Frontal share of map', value: pct(e.frontalShare), unit: '%', threshold: '', source: 'map energy in the front 20 % of the head', flagged: false });
   add({
-    key: 'antisym', label: 'Left–right antisymmetry', value: num(e.lateralAntisymmetry), unit: '', threshold: `≥ ${t.eyeMovementAntisymmetry} eye-movement-like`,
-    source: 'mirror pairs, +1 antisymmetric (METHODS §14); threshold ours', flagged: ge(e.lateralAntisymmetry, t.eyeMovementAntisymmetry),
+    key: 'antisym', label: 'Left–right antisymmetry', value: num(e.lateralAntisymmetry), unit: '', threshold: `≥ ${t.gazeAntisymmetry} gaze-like`,
+    source: 'mirror pairs, +1 antisymmetric (docs/methods.md §14); threshold ours', flagged: ge(e.lateralAntisymmetry, t.gazeAntisymmetry),
   });
   add({
     key: 'focality', label: `Focality (${e.focality.channel})`, value: pct(e.focality.share), unit: '%', threshold: `≥ ${pctU(t.electrodeFocality)} single electrode`,
-    source: 'max a² / Σ a² (METHODS §14, common practice)', flagged: ge(e.focality.share, t.electrodeFocality),
+    source: 'max a² / Σ a² (docs/methods.md §14, common practice)', flagged: ge(e.focality.share, t.electrodeFocality),
   });
   add({
     key: 'kurtosis', label: 'Excess kurtosis', value: num(e.kurtosis, 1), unit: '', threshold: `≥ ${t.blinkKurtosis} blink-like`,
     source: 'E[(s−μ)⁴]/σ⁴ − 3 of the activation', flagged: ge(e.kurtosis, t.blinkKurtosis),
   });
   add({
-    key: 'steps', label: 'Step-likeness', value: num(e.stepLikeness), unit: '', threshold: `≥ ${t.eyeMovementStepLikeness} supports eye movement`,
-    source: 'persistence of slow jumps (ours)', flagged: ge(e.stepLikeness, t.eyeMovementStepLikeness),
+    key: 'steps', label: 'Step-likeness', value: num(e.stepLikeness), unit: '', threshold: `≥ ${t.gazeStepLikeness} supports eye movement`,
+    source: 'persistence of slow jumps (ours)', flagged: ge(e.stepLikeness, t.gazeStepLikeness),
   });
   const eogSrc = `${e.eogCorrelation.source}`;
   add({
@@ -107,8 +107,8 @@ export function evidenceRows(e: ComponentEvidence, t: Thresholds = defaultThresh
   });
   if (e.stepLocking) {
     add({
-      key: 'motion', label: `Step locking (${e.stepLocking.event})`, value: pct(e.stepLocking.share), unit: '%', threshold: `≥ ${pctU(t.motionStepLocking)}`,
-      source: `${e.stepLocking.nEpochs} step epochs (ours)`, flagged: ge(e.stepLocking.share, t.motionStepLocking),
+      key: 'movement', label: `Step locking (${e.stepLocking.event})`, value: pct(e.stepLocking.share), unit: '%', threshold: `≥ ${pctU(t.movementStepLocking)}`,
+      source: `${e.stepLocking.nEpochs} step epochs (ours)`, flagged: ge(e.stepLocking.share, t.movementStepLocking),
     });
   }
   if (e.erp) {
@@ -123,7 +123,7 @@ export function evidenceRows(e: ComponentEvidence, t: Thresholds = defaultThresh
   if (e.dipole) {
     add({
       key: 'rv', label: 'Dipole residual variance', value: pct(e.dipole.residualVariance), unit: '%', threshold: `≤ ${pctU(t.dipoleResidualVariance)} dipolar`,
-      source: 'single equivalent dipole, spherical model (METHODS §15); level from memory', flagged: !(e.dipole.residualVariance <= t.dipoleResidualVariance),
+      source: 'single equivalent dipole, spherical model (docs/methods.md §15); level from memory', flagged: !(e.dipole.residualVariance <= t.dipoleResidualVariance),
     });
     add({ key: 'region', label: 'Approximate region', value: e.dipole.region, unit: '', threshold: '', source: 'from the dipole position; a model estimate', flagged: false });
   }

@@ -1,5 +1,5 @@
 /**
- * Head outline for a scalp map drawn in the azimuthal equidistant projection (METHODS §9): the vertex at
+ * Head outline for a scalp map drawn in the azimuthal equidistant projection (docs/methods.md §9): the vertex at
  * the centre, the equator (z = 0) on the unit circle, the nasion (+y) at the top of the picture and the
  * right ear (+x) on the right. Returns SVG path data in the caller's pixel frame; React renders it.
  */

@@ -1,6 +1,6 @@
 /**
- * Geometry of a power-spectrum plot: log10 power against frequency, with the aperiodic fit
- * `log10 P = offset − exponent · log10 f` (METHODS §2) and the alpha peak marked. Pure: d3 computes the
+ * Geometry of a power-spectrum plot: log10 power against frequency, with the 1/f fit
+ * `log10 P = offset − exponent · log10 f` (docs/methods.md §2) and the alpha peak marked. Pure: d3 computes the
  * scales and path strings, React renders them.
  */
 import { line, scaleLinear, type ScaleLinear } from 'd3';
@@ -12,7 +12,7 @@ export interface SpectrumSeries {
   readonly power: ArrayLike<number>;
 }
 
-export interface AperiodicLine {
+export interface OneOverFLine {
   /** χ in log10 P = b − χ log10 f (dimensionless, positive for falling spectra). */
   readonly exponent: number;
   /** b in log10(µV²/Hz). */
@@ -32,7 +32,7 @@ export interface SpectrumGeometry {
   readonly y: ScaleLinear<number, number>;
   /** One path per series, in the order given (NaN / non-positive bins break the line). */
   readonly lines: string[];
-  /** The aperiodic fit over the drawn range, or null. */
+  /** The 1/f fit over the drawn range, or null. */
   readonly fit: string | null;
   /** x pixel of the alpha peak, or null when there is none or it is out of range. */
   readonly alphaX: number | null;
@@ -68,7 +68,7 @@ export function interpolateAt(xs: ArrayLike<number>, ys: ArrayLike<number>, x: n
 export function spectrumGeometry(
   series: readonly SpectrumSeries[],
   frame: SpectrumFrame,
-  aperiodic: AperiodicLine | null = null,
+  oneOverF: OneOverFLine | null = null,
   alphaPeakHz: number | null = null,
 ): SpectrumGeometry {
   const m = frame.margin ?? { top: 2, right: 2, bottom: 2, left: 2 };
@@ -107,13 +107,13 @@ export function spectrumGeometry(
   });
 
   let fit: string | null = null;
-  if (aperiodic && Number.isFinite(aperiodic.exponent) && Number.isFinite(aperiodic.offset)) {
+  if (oneOverF && Number.isFinite(oneOverF.exponent) && Number.isFinite(oneOverF.offset)) {
     const steps = 40;
     const pts: [number, number][] = [];
     for (let k = 0; k <= steps; k++) {
       const f = f0 + ((f1 - f0) * k) / steps;
       if (f <= 0) continue;
-      pts.push([x(f), y(aperiodic.offset - aperiodic.exponent * Math.log10(f))]);
+      pts.push([x(f), y(oneOverF.offset - oneOverF.exponent * Math.log10(f))]);
     }
     fit = line()(pts);
   }

@@ -7,7 +7,7 @@
 import { createTopographyPlan, type TopographyPlan as CorePlan } from '../../core/headmodel/topography.ts';
 
 /**
- * Radius of the drawn picture in projection units (ρ = 1 is the equator, METHODS §9): a little below the
+ * Radius of the drawn picture in projection units (ρ = 1 is the equator, docs/methods.md §9): a little below the
  * 10-20 ring so occipital and temporal electrodes at ρ ≈ 1.0–1.1 stay inside the coloured area.
  */
 export const MAP_EXTENT = 1.15;

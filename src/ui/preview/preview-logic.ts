@@ -21,7 +21,7 @@ export function removedSetFromDecisions(decisions: Readonly<Record<number, Revie
 /**
  * Region-of-interest channel candidates per aim, first match wins in each group (common practice: ERP
  * components such as the P300 are measured over centro-parietal midline sites; posterior alpha over
- * parieto-occipital sites; METHODS §3 and §5 name these sites as typical). Up to three channels are taken.
+ * parieto-occipital sites; docs/methods.md §3 and §5 name these sites as typical). Up to three channels are taken.
  */
 const ROI_CANDIDATES: Record<Aim, readonly string[]> = {
   erp: ['Pz', 'CPz', 'Cz', 'P3', 'P4', 'POz'],
@@ -85,7 +85,7 @@ export function regionSpectra(before: Float64Array, after: Float64Array, sampleR
   };
 }
 
-/** Band power (µV²) in [lo, hi] Hz of both spectra (inclusive edges, METHODS §4). */
+/** Band power (µV²) in [lo, hi] Hz of both spectra (inclusive edges, docs/methods.md §4). */
 export function regionBandPower(s: RegionSpectra, bandHz: readonly [number, number]): { before: number; after: number } {
   return { before: bandPower(s.before, s.df, bandHz[0], bandHz[1]), after: bandPower(s.after, s.df, bandHz[0], bandHz[1]) };
 }

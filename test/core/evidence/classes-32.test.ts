@@ -10,7 +10,7 @@ describe('suggestions on simulated 32-channel sessions with a perfect unmixing',
       const s = simulateSession({ seed, channels: 32, minutes: 2 });
       const dec = perfectDecomposition(s);
       const checked = expectClassVerdicts(s, dec, evidenceFor(s, dec));
-      expect(checked).toMatchObject({ blink: 1, 'eye-movement': 1, rhythm: 3, electrode: 1 });
+      expect(checked).toMatchObject({ blink: 1, gaze: 1, rhythm: 3, contact: 1 });
       expect(checked['event-locked']).toBeGreaterThanOrEqual(1);
       expect(checked.muscle).toBeGreaterThanOrEqual(2);
     });

@@ -21,7 +21,7 @@ describe('suggestions after extended Infomax on a simulated 32-channel session',
 
   it('removes blink and eye movement, keeps alpha, mu and event-locked brain, keeps muscle for ERPs only, finds the loose electrode', () => {
     const checked = expectClassVerdicts(s, dec, result, 0.85);
-    expect(checked).toMatchObject({ blink: 1, 'eye-movement': 1, electrode: 1 });
+    expect(checked).toMatchObject({ blink: 1, gaze: 1, contact: 1 });
     expect(checked.rhythm).toBeGreaterThanOrEqual(2);
     expect(checked['event-locked']).toBeGreaterThanOrEqual(1);
     expect(checked.muscle).toBeGreaterThanOrEqual(2);

@@ -32,7 +32,7 @@ describe('computeEvidence', () => {
   const { data, decomposition, labels, types, s2 } = setup();
   const r = computeEvidence({ data, nChannels: 4, nSamples: n, sampleRate: fs, labels, types, decomposition, dipoleFit: null });
 
-  it('gives the back-projected sinusoid A²/2 µV² at its strongest channel (Welch closed form, METHODS §1)', () => {
+  it('gives the back-projected sinusoid A²/2 µV² at its strongest channel (Welch closed form, docs/methods.md §1)', () => {
     const c = r.components[0];
     expect(c.strongestChannel).toEqual({ index: 0, label: 'Cz', weight: 2 });
     const { frequencies, power, df } = c.spectrum;
@@ -83,6 +83,6 @@ describe('computeEvidence', () => {
     const withEvents = computeEvidence({ data, nChannels: 4, nSamples: n, sampleRate: fs, labels, types, decomposition, dipoleFit: null, events, permutations: 5 });
     expect(withEvents.epochEvent).toBe('tone');
     expect(withEvents.components[0].erp?.nEpochs).toBe(2);
-    expect(withEvents.components[0].epochImage?.data.length).toBe(2 * withEvents.components[0].epochImage!.length);
+    expect(withEvents.components[0].trialStack?.data.length).toBe(2 * withEvents.components[0].trialStack!.length);
   });
 });

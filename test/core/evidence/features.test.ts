@@ -30,7 +30,7 @@ describe('activations', () => {
     expect(Array.from(second)).toEqual([-1.75, -1.25, 1.25, 1.75]);
   });
 
-  it('gives excess kurtosis −2 for a ±1 square wave and about 0 for Gaussian noise (definition, METHODS §14)', () => {
+  it('gives excess kurtosis −2 for a ±1 square wave and about 0 for Gaussian noise (definition, docs/methods.md §14)', () => {
     expect(signalMoments([1, -1, 1, -1]).kurtosis).toBeCloseTo(-2, 12);
     expect(Math.abs(signalMoments(gaussian(3, 200_000)).kurtosis)).toBeLessThan(0.05);
   });
@@ -54,7 +54,7 @@ describe('map evidence', () => {
     ]);
   });
 
-  it('scores an antisymmetric map +1 and a symmetric map −1 (METHODS §14 definition, pooled over pairs)', () => {
+  it('scores an antisymmetric map +1 and a symmetric map −1 (docs/methods.md §14 definition, pooled over pairs)', () => {
     const pairs = mirrorPairs(positions, 6);
     expect(mapGeometry([1, -1, 0.5, -0.5, 0, 0], positions, pairs).lateralAntisymmetry).toBeCloseTo(1, 12);
     expect(mapGeometry([1, 1, 0.5, 0.5, 0, 0], positions, pairs).lateralAntisymmetry).toBeCloseTo(-1, 12);

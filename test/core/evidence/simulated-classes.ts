@@ -99,9 +99,9 @@ export function expectClassVerdicts(s: SimulatedSession, dec: Decomposition, res
     const e = result.components[component];
     const where = `seed ${s.seed}, ${s.labels.length} ch, source ${src.id} → component ${component + 1} (map r = ${r.toFixed(2)})`;
     const say = (aim: string) => `${where}, ${aim}: ${JSON.stringify(e.suggestions[aim as 'erp'])}`;
-    if (src.class === 'blink' || src.class === 'eye-movement') {
+    if (src.class === 'blink' || src.class === 'gaze') {
       for (const aim of AIMS) expect(e.suggestions[aim].verdict, say(aim)).toBe('remove');
-      for (const aim of AIMS) expect(['blink', 'eye-movement'], say(aim)).toContain(e.suggestions[aim].reason);
+      for (const aim of AIMS) expect(['blink', 'gaze'], say(aim)).toContain(e.suggestions[aim].reason);
       count(src.class);
     } else if (src.class === 'neural' && (/^(alpha|mu)-/.test(src.id) || eventLockedNeural(s, src))) {
       for (const aim of AIMS) expect(e.suggestions[aim].verdict, say(aim)).toBe('keep');
@@ -112,9 +112,9 @@ export function expectClassVerdicts(s: SimulatedSession, dec: Decomposition, res
       expect(e.suggestions.oscillations.verdict, say('oscillations')).toBe('remove');
       expect(e.suggestions.oscillations.reason, say('oscillations')).toBe('muscle');
       count('muscle');
-    } else if (src.class === 'electrode') {
-      for (const aim of AIMS) expect(e.suggestions[aim], say(aim)).toMatchObject({ verdict: 'remove', reason: 'electrode' });
-      count('electrode');
+    } else if (src.class === 'contact') {
+      for (const aim of AIMS) expect(e.suggestions[aim], say(aim)).toMatchObject({ verdict: 'remove', reason: 'contact' });
+      count('contact');
     }
   }
   return checked;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { bandPowerAt, findAlphaPeak, fitAperiodic, percentile, spectrumShares } from '../../../src/core/evidence/spectrum-shape.ts';
-// Synthetic Donoghue-style spectrum and numpy.polyfit / closed-form fits by test/fixtures/evidence/aperiodic_alpha.py.
-import fixture from '../../fixtures/evidence/aperiodic_alpha.json';
+import { bandPowerAt, findAlphaPeak, fitOneOverF, percentile, spectrumShares } from '../../../src/core/evidence/spectrum-shape.ts';
+// Synthetic Donoghue-style spectrum and numpy.polyfit / closed-form fits by test/fixtures/evidence/one_over_f_alpha.py.
+import fixture from '../../fixtures/evidence/one_over_f_alpha.json';
 
 function grid(): Float64Array {
   const f = new Float64Array(89);
@@ -18,33 +18,33 @@ function modelSpectrum(f: Float64Array, peaks: number[][]): Float64Array {
   });
 }
 
-describe('fitAperiodic', () => {
+describe('fitOneOverF', () => {
   const f = grid();
   const p = modelSpectrum(f, fixture.model.peaks_a_c_w);
 
   it('recovers χ = 1.8 and b = 1.5 exactly from a pure power law', () => {
-    const fit = fitAperiodic(f, modelSpectrum(f, []));
+    const fit = fitOneOverF(f, modelSpectrum(f, []));
     expect(fit.exponent).toBeCloseTo(1.8, 12);
     expect(fit.offset).toBeCloseTo(1.5, 12);
   });
 
-  it('matches numpy.polyfit on all bins of the peaked spectrum (aperiodic_alpha.json)', () => {
-    const fit = fitAperiodic(f, p, { rule: 'all' });
-    expect(fit.exponent).toBeCloseTo(fixture.aperiodic_A_polyfit.fit_all.chi, 10);
-    expect(fit.offset).toBeCloseTo(fixture.aperiodic_A_polyfit.fit_all.b, 10);
+  it('matches numpy.polyfit on all bins of the peaked spectrum (one_over_f_alpha.json)', () => {
+    const fit = fitOneOverF(f, p, { rule: 'all' });
+    expect(fit.exponent).toBeCloseTo(fixture.one_over_f_A_polyfit.fit_all.chi, 10);
+    expect(fit.offset).toBeCloseTo(fixture.one_over_f_A_polyfit.fit_all.b, 10);
   });
 
   it('matches the band-excluded fit when 7–14 and 15–30 Hz are left out', () => {
-    const fit = fitAperiodic(f, p, { rule: 'all', excludeHz: [[7, 14], [15, 30]] });
-    expect(fit.exponent).toBeCloseTo(fixture.aperiodic_A_polyfit.fit_excl.chi, 10);
+    const fit = fitOneOverF(f, p, { rule: 'all', excludeHz: [[7, 14], [15, 30]] });
+    expect(fit.exponent).toBeCloseTo(fixture.one_over_f_A_polyfit.fit_excl.chi, 10);
   });
 
-  it('matches the robust two-pass fit, keeping 53 of 77 bins (METHODS §2)', () => {
-    const fit = fitAperiodic(f, p);
-    expect(fit.exponent).toBeCloseTo(fixture.aperiodic_A_polyfit.fit_robust.chi, 10);
-    expect(fit.offset).toBeCloseTo(fixture.aperiodic_A_polyfit.fit_robust.b, 10);
-    expect(fit.nKept).toBe(fixture.aperiodic_A_polyfit.fit_robust.n_kept);
-    expect(fit.nBins).toBe(fixture.aperiodic_A_polyfit.fit_robust.n_range);
+  it('matches the robust two-pass fit, keeping 53 of 77 bins (docs/methods.md §2)', () => {
+    const fit = fitOneOverF(f, p);
+    expect(fit.exponent).toBeCloseTo(fixture.one_over_f_A_polyfit.fit_robust.chi, 10);
+    expect(fit.offset).toBeCloseTo(fixture.one_over_f_A_polyfit.fit_robust.b, 10);
+    expect(fit.nKept).toBe(fixture.one_over_f_A_polyfit.fit_robust.n_kept);
+    expect(fit.nBins).toBe(fixture.one_over_f_A_polyfit.fit_robust.n_range);
   });
 
   it('computes percentiles with numpy’s linear interpolation', () => {
@@ -57,8 +57,8 @@ describe('findAlphaPeak', () => {
   const f = grid();
   const p = modelSpectrum(f, fixture.model.peaks_a_c_w);
 
-  it('finds 10.3038 Hz on the flattened spectrum (true centre 10.3; aperiodic_alpha.json)', () => {
-    const fit = fitAperiodic(f, p);
+  it('finds 10.3038 Hz on the flattened spectrum (true centre 10.3; one_over_f_alpha.json)', () => {
+    const fit = fitOneOverF(f, p);
     const peak = findAlphaPeak(f, p, fit);
     expect(peak.frequencyHz).toBeCloseTo(fixture.alpha.flattened_parabolic_Hz, 8);
     expect(peak.prominence).toBeGreaterThan(0.5);
@@ -66,7 +66,7 @@ describe('findAlphaPeak', () => {
 
   it('reports no alpha peak for a pure power law', () => {
     const pure = modelSpectrum(f, []);
-    expect(findAlphaPeak(f, pure, fitAperiodic(f, pure)).frequencyHz).toBeNull();
+    expect(findAlphaPeak(f, pure, fitOneOverF(f, pure)).frequencyHz).toBeNull();
   });
 });
 
@@ -75,7 +75,7 @@ describe('spectrumShares', () => {
     const f = grid().map((x) => x + 20); // 21 … 65 Hz
     const p = f.map((x) => (Math.abs(x - 50) < 0.1 ? 100 : 1e-6));
     const s = spectrumShares(f, p, 50, 65);
-    expect(s.lineNoiseShare).toBeGreaterThan(0.99);
+    expect(s.mainsShare).toBeGreaterThan(0.99);
     expect(s.linePeakRatio).toBeGreaterThan(1e6);
   });
 

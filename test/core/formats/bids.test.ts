@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { formatTsv, parseChannelsTsv, parseElectrodesTsv, parseEventsTsv, parseTsv } from '../../../src/core/formats/bids.ts';
 
-describe('parseTsv (BIDS TSV rules, METHODS §12)', () => {
+describe('parseTsv (BIDS TSV rules, docs/methods.md §12)', () => {
   it('reads columns and rows, keeps n/a as written, accepts CRLF, a BOM and a trailing newline', () => {
     const r = parseTsv('\ufeffname\ttype\r\nFp1\tEEG\r\nVEOG\tn/a\r\n', 'x_channels.tsv');
     expect(r.ok && r.value).toEqual({ columns: ['name', 'type'], rows: [['Fp1', 'EEG'], ['VEOG', 'n/a']] });
@@ -25,7 +25,7 @@ describe('parseTsv (BIDS TSV rules, METHODS §12)', () => {
 });
 
 describe('parseChannelsTsv', () => {
-  it('reads the METHODS §12 example: name, type, units, status', () => {
+  it('reads the docs/methods.md §12 example: name, type, units, status', () => {
     const r = parseChannelsTsv('name\ttype\tunits\tstatus\tstatus_description\nFp1\tEEG\tuV\tgood\tn/a\nVEOG\tVEOG\tuV\tbad\tflat\n', 'sub-01_channels.tsv');
     expect(r.ok && r.value).toEqual([
       { name: 'Fp1', type: 'EEG', units: 'uV', status: 'good' },

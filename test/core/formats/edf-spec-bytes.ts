@@ -1,6 +1,6 @@
 /**
  * Test-only EDF/BDF byte builder written straight from the specification's offset tables (Kemp et al. 1992
- * §2 main header; EDF+ Kemp & Olivan 2003; BioSemi BDF; METHODS.md §11): every field is placed at its
+ * §2 main header; EDF+ Kemp & Olivan 2003; BioSemi BDF; docs/methods.md §11): every field is placed at its
  * documented offset, ASCII, left-justified and space-padded. It shares no code with src/core/formats so that
  * reader tests do not check the reader against our own writer.
  */

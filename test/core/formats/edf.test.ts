@@ -41,7 +41,7 @@ const eeg = (label: string, spr: number, extra: Partial<SpecSignal> = {}): SpecS
   prefilter: 'HP:0.1Hz', spr: String(spr), ...extra,
 });
 
-describe('readEdfInfo on the reference files (checks/edf_layout.py, METHODS §11)', () => {
+describe('readEdfInfo on the reference files (checks/edf_layout.py, docs/methods.md §11)', () => {
   it('reads the EDF+C example header, channel and TAL events exactly as edf_layout.json lists them', async () => {
     const i = await info(fixture('edf_example.edf'), 'edf_example.edf');
     expect(i.format).toBe('EDF+C');
@@ -57,7 +57,7 @@ describe('readEdfInfo on the reference files (checks/edf_layout.py, METHODS §11
       prefilter: s.prefiltering, physicalMin: -3200, physicalMax: 3200, digitalMin: -32768, digitalMax: 32767,
       type: 'EEG', status: 'good',
     });
-    // METHODS §11: TALs (0, –, [""]), (0.5, 0.2, ["Blink"]), (1, –, [""]), (1.25, –, ["Stim A"])
+    // docs/methods.md §11: TALs (0, –, [""]), (0.5, 0.2, ["Blink"]), (1, –, [""]), (1.25, –, ["Stim A"])
     expect(i.events).toEqual([
       { onset: 0.5, duration: 0.2, label: 'Blink', source: 'annotation' },
       { onset: 1.25, duration: 0, label: 'Stim A', source: 'annotation' },
@@ -85,8 +85,8 @@ describe('readEdfInfo on the reference files (checks/edf_layout.py, METHODS §11
     expect(b.vals).toEqual(a.vals);
   });
 
-  it('gives the METHODS §11 scaling check values for −3200…3200 µV over −32768…32767', async () => {
-    // METHODS §11: 0 → +0.0488288701 (not 0); 1 → 0.1464866102; 12345 → 1205.6336309; −32768 → −3200; 32767 → 3200
+  it('gives the docs/methods.md §11 scaling check values for −3200…3200 µV over −32768…32767', async () => {
+    // docs/methods.md §11: 0 → +0.0488288701 (not 0); 1 → 0.1464866102; 12345 → 1205.6336309; −32768 → −3200; 32767 → 3200
     const digital = [0, 1, 12345, -32768, 32767];
     const bytes = specFile({ records: '1', duration: '1', signals: [eeg('Fz', 5)], data: new Uint8Array(le16(digital)) });
     const { vals } = await samples64(bytes);
@@ -101,7 +101,7 @@ describe('readEdfInfo on the reference files (checks/edf_layout.py, METHODS §11
     expect(i.channels[0]).toMatchObject({ label: 'A1', sampleRate: 8, digitalMin: -8388608, digitalMax: 8388607 });
     const { vals } = await samples64(bytes);
     expect(vals[0]).toEqual(layout.bdf.physical_uV);
-    // METHODS §11: BDF digital 0 → −0.4843750289 µV, gain 524287/16777215
+    // docs/methods.md §11: BDF digital 0 → −0.4843750289 µV, gain 524287/16777215
     expect(vals[0][0]).toBeCloseTo(-0.4843750289, 9);
   });
 });

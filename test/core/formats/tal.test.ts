@@ -9,7 +9,7 @@ describe('parseTals', () => {
     expect(r.ok && r.value).toEqual([{ onset: 1800.2, duration: 25.5, annotations: ['Apnea'] }]);
   });
 
-  it('parses the record-0 annotation bytes of checks/edf_layout.json (METHODS §11)', () => {
+  it('parses the record-0 annotation bytes of checks/edf_layout.json (docs/methods.md §11)', () => {
     const hex = '2b301414002b302e3515302e3214426c696e6b1400000000000000000000000000000000000000000000000000000000000000000000000000000000';
     const raw = new Uint8Array(hex.match(/../g)!.map((h) => parseInt(h, 16)));
     const r = parseTals(raw, 0);

@@ -61,7 +61,7 @@ describe('createDipoleFitter on a 64-electrode, 90 mm three-shell head', () => {
     }
   });
 
-  it('leaves a high residual variance (> 15 %, the "not dipolar" level of METHODS §15 [c]) for a map made by two distant dipoles', () => {
+  it('leaves a high residual variance (> 15 %, the "not dipolar" level of docs/methods.md §15 [c]) for a map made by two distant dipoles', () => {
     // left frontal and right parieto-occipital radial sources ~120 mm apart (our fit gives RV ≈ 0.23)
     const a = dipolePotentials(model, cap64, [-50, 30, 30], [0, 0, 10]);
     const b = dipolePotentials(model, cap64, [40, -45, 25], [0, 0, 10]);
@@ -121,7 +121,7 @@ describe('fitDipole against dipole_fit.json (own LM vs scipy.optimize.least_squa
     expect(Math.abs(fit.residualVariance - ref.RV)).toBeLessThan(1e-9);
   });
 
-  it('matches the homogeneous-model fit to three-shell data, which lands too deep (METHODS §15 case 3)', () => {
+  it('matches the homogeneous-model fit to three-shell data, which lands too deep (docs/methods.md §15 case 3)', () => {
     const fit = fitDipole(createHeadModel({ kind: 'sphere', radiusMm: 1, conductivity: 1 }), unit69, clean);
     const ref = reference.cases['3shell_data_homogeneous_model'].scipy_lm;
     expect(distance(fit.position, ref.p)).toBeLessThan(1e-6);

@@ -31,7 +31,7 @@ describe('createHeadModel', () => {
 });
 
 describe('dipolePotentials (mm, nA·m → µV)', () => {
-  it('gives 0.8931 µV at Cz for a centred radial 10 nA·m dipole in a 90 mm, 0.33 S/m sphere (3q/(4πσR²), METHODS §8.4)', () => {
+  it('gives 0.8931 µV at Cz for a centred radial 10 nA·m dipole in a 90 mm, 0.33 S/m sphere (3q/(4πσR²), docs/methods.md §8.4)', () => {
     const m = createHeadModel({ kind: 'sphere' });
     const v = dipolePotentials(m, electrodes90, [0, 0, 0], [0, 0, 10]);
     const ref = fixture.homogeneous_centred_radial_physical.values.Cz.V_3qcos_over_4pisigmaR2 * 1e6;
@@ -65,7 +65,7 @@ describe('dipolePotentials (mm, nA·m → µV)', () => {
 });
 
 describe('leadField invariants', () => {
-  it('matches the homogeneous sphere when the skull conducts like brain and scalp (STYLE.md invariant; METHODS §8.3)', () => {
+  it('matches the homogeneous sphere when the skull conducts like brain and scalp (STYLE.md invariant; docs/methods.md §8.3)', () => {
     const shells = createHeadModel({ skullRatio: 1 });
     const sphere = createHeadModel({ kind: 'sphere' });
     for (const p of [[0, 0, 0], [10, -20, 30], [-40, 35, 45], [0, 0, 75]]) {

@@ -3,7 +3,7 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { electrodeNameFromLabel, matchMontage, standardPositions } from '../../../src/core/headmodel/montage-1020.ts';
 
-// checks/electrodes_1020.json (METHODS §10), copied to test/fixtures/formats with its README entry
+// checks/electrodes_1020.json (docs/methods.md §10), copied to test/fixtures/formats with its README entry
 const ref = JSON.parse(readFileSync(fileURLToPath(new URL('../../fixtures/formats/electrodes_1020.json', import.meta.url)), 'utf8'));
 const P = standardPositions();
 const deg = (a: number[], b: number[]) => (Math.acos(Math.min(1, a[0] * b[0] + a[1] * b[1] + a[2] * b[2])) * 180) / Math.PI;
@@ -29,7 +29,7 @@ describe('standardPositions (idealised 10-20/10-10 on the unit sphere, RAS)', ()
     expect(deg(P.get('Iz')!, P.get('Oz')!)).toBeCloseTo(18, 10);
   });
 
-  it('keeps the 20 % steps of the midline and coronal arcs (36° each) and the METHODS §10 angle table', () => {
+  it('keeps the 20 % steps of the midline and coronal arcs (36° each) and the docs/methods.md §10 angle table', () => {
     for (const [a, b] of [['Fpz', 'Fz'], ['Fz', 'Cz'], ['Cz', 'Pz'], ['Pz', 'Oz'], ['T7', 'C3'], ['C3', 'Cz'], ['Cz', 'C4'], ['C4', 'T8']])
       expect(deg(P.get(a)!, P.get(b)!)).toBeCloseTo(36, 10);
     for (const [pair, angle] of Object.entries(ref.angles_between_deg as Record<string, number>)) {

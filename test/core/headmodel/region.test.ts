@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { approximateRegion } from '../../../src/core/headmodel/region.ts';
 
-// Directions of idealised 10-20 electrodes (METHODS §10), scaled to 65 mm (superficial) or 30 mm (deep).
+// Directions of idealised 10-20 electrodes (docs/methods.md §10), scaled to 65 mm (superficial) or 30 mm (deep).
 const dir = {
   Fz: [0, 0.587785, 0.809017],
   C3: [-0.587785, 0, 0.809017],

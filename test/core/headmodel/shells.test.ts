@@ -29,12 +29,12 @@ describe('shellSeriesCoefficients', () => {
     }
   });
 
-  it('returns the homogeneous (2n+1)/n when all conductivities are equal (invariant, METHODS §8.3)', () => {
+  it('returns the homogeneous (2n+1)/n when all conductivities are equal (invariant, docs/methods.md §8.3)', () => {
     const g = shellSeriesCoefficients(radii, [1, 1, 1], 500);
     for (let n = 1; n <= 500; n++) expect(Math.abs(g[n - 1] - (2 * n + 1) / n) / ((2 * n + 1) / n)).toBeLessThan(1e-13);
   });
 
-  it('stays finite and tends to ≈ 0.0977 at high degree (skull suppresses high spatial frequencies, METHODS §8.3)', () => {
+  it('stays finite and tends to ≈ 0.0977 at high degree (skull suppresses high spatial frequencies, docs/methods.md §8.3)', () => {
     const g = shellSeriesCoefficients(radii, sigmas, 2000);
     for (const v of g) expect(Number.isFinite(v)).toBe(true);
     expect(g[1999]).toBeGreaterThan(0.09);

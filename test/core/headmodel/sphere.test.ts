@@ -15,7 +15,7 @@ function potentials(f: Float64Array, q: number[]): number[] {
 }
 
 describe('sphereLeadField (homogeneous sphere, closed form)', () => {
-  it('gives V = 3 q cosθ / (4πσR²) for a radial dipole at the centre (closed form, METHODS §8.2)', () => {
+  it('gives V = 3 q cosθ / (4πσR²) for a radial dipole at the centre (closed form, docs/methods.md §8.2)', () => {
     const radius = 0.09;
     const sigma = 0.33;
     const q = 1e-8;
@@ -41,7 +41,7 @@ describe('sphereLeadField (homogeneous sphere, closed form)', () => {
     }
   });
 
-  it('agrees with the Legendre series (g_n = (2n+1)/n) to 1e-9 relative for off-centre dipoles (METHODS §8.3)', () => {
+  it('agrees with the Legendre series (g_n = (2n+1)/n) to 1e-9 relative for off-centre dipoles (docs/methods.md §8.3)', () => {
     const g = homogeneousSeriesCoefficients(2000);
     // deterministic off-centre positions up to 0.85 R, arbitrary moments
     let seed = 7;

@@ -8,7 +8,7 @@ const names = positions.ten_twenty_order as string[];
 const electrodes = Float64Array.from(names.flatMap((n) => positions.positions_unit_sphere[n] as number[]));
 
 describe('projectAzimuthalEquidistant', () => {
-  it('puts Cz at the centre and Fpz, T8, Oz at ρ = 0.8 on their axes (METHODS §9)', () => {
+  it('puts Cz at the centre and Fpz, T8, Oz at ρ = 0.8 on their axes (docs/methods.md §9)', () => {
     const pick = (n: string) => Float64Array.from(positions.positions_unit_sphere[n] as number[]);
     const close = (a: Float64Array, b: number[]) => b.forEach((v, i) => expect(a[i]).toBeCloseTo(v, 12));
     close(projectAzimuthalEquidistant(pick('Cz')), [0, 0]);

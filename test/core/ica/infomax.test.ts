@@ -13,7 +13,7 @@ function whitened(k: number, T: number, seed: number) {
   return { m, pw, Z: applyWhitening(pw.whitening, pw.k, k, cv.means, m.X, T) };
 }
 
-describe('extended Infomax block step (Lee, Girolami & Sejnowski 1999; pca_ica.json, METHODS §7.2)', () => {
+describe('extended Infomax block step (Lee, Girolami & Sejnowski 1999; pca_ica.json, docs/methods.md §7.2)', () => {
   const ref = fixture.part2_ica_steps.extended_infomax;
   const X2 = fixture.part2_ica_steps.X2_centred;
   it('reproduces the switching statistics and k of the reference batch', () => {

@@ -1,5 +1,5 @@
 /**
- * Known-source mixtures for the ICA tests (Amari index checks, METHODS §7.5): seeded Laplace (super-Gaussian),
+ * Known-source mixtures for the ICA tests (Amari index checks, docs/methods.md §7.5): seeded Laplace (super-Gaussian),
  * uniform (sub-Gaussian) and sinusoid (sub-Gaussian, bimodal) sources, unit variance, mixed by a seeded
  * random matrix with entries N(0, 1).
  */

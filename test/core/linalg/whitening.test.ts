@@ -3,7 +3,7 @@ import { applyWhitening, covariance, detectRank, pcaWhitening } from '../../../s
 import { createPrng } from '../../../src/core/ica/prng.ts';
 import fixture from '../../fixtures/ica/pca_ica.json' with { type: 'json' };
 
-/** The sources of pca_ica.py (project reference checks, METHODS §6), rebuilt exactly: T = 1000, t = n/100. */
+/** The sources of pca_ica.py (project reference checks, docs/methods.md §6), rebuilt exactly: T = 1000, t = n/100. */
 function pcaIcaSources(): Float64Array[] {
   const T = 1000;
   const lcg = new Float64Array(T);
@@ -111,7 +111,7 @@ describe('rank detection on re-referenced and interpolated recordings (common pr
       for (let c = 0; c < m; c++) X[c * T + t] = Math.round((X[c * T + t] - s / m) / lsb) * lsb;
     }
     const pw = pcaWhitening(covariance(Float32Array.from(X), m, T).covariance, m);
-    // The residual eigenvalue is of the order of LSB²/12 ≈ 8e-4 µV² (METHODS §6), far above 1e-10 λ₁.
+    // The residual eigenvalue is of the order of LSB²/12 ≈ 8e-4 µV² (docs/methods.md §6), far above 1e-10 λ₁.
     expect(pw.values[m - 1]).toBeGreaterThan(1e-10 * pw.values[0]);
     expect(pw.rank).toBe(m - 1);
     expect(pw.rankReason).toMatch(/sharp gap/);

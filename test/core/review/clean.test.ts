@@ -14,7 +14,7 @@ function decomposition(channels: string[], mixing: number[], unmixing: number[],
   };
 }
 
-// Hand-computed example (METHODS §7.6: X_clean = X − A[:,R] S[R,:], S = W (X − m)):
+// Hand-computed example (docs/methods.md §7.6: X_clean = X − A[:,R] S[R,:], S = W (X − m)):
 // A = [[1, 0.5], [0, 1]], W = A⁻¹ = [[1, −0.5], [0, 1]], m = [1, 2], X = [[3, 5], [4, 2]]
 // X − m = [[2, 4], [2, 0]]  ⇒  S = [[1, 4], [2, 0]].
 const small = decomposition(['Fz', 'Cz'], [1, 0.5, 0, 1], [1, -0.5, 0, 1], [1, 2]);

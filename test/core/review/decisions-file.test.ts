@@ -22,7 +22,7 @@ describe('decisions file (issue 7 contract)', () => {
   it('lists every component 1…n with the contract fields in order', () => {
     const json = JSON.parse(formatDecisionsJson(file));
     expect(Object.keys(json)).toEqual(['format', 'aim', 'reviewer', 'createdAt', 'software', 'recordingSha256', 'decompositionSha256', 'components']);
-    expect(json.format).toBe('winnow-decisions/1');
+    expect(json.format).toBe('winnow-decisions/2');
     expect(json.components.map((c: { index: number }) => c.index)).toEqual([1, 2, 3, 4, 5]);
     expect(json.components[0]).toEqual({
       index: 1, verdict: 'remove', reason: 'blink', note: decisions[1].note,
@@ -66,5 +66,38 @@ describe('decisions file (issue 7 contract)', () => {
   it('rejects a TSV without the contract columns', () => {
     const r = parseDecisionsTsv('index\tverdict\n1\tkeep\n', 'z.tsv');
     expect(!r.ok && r.error.code).toBe('missing-column');
+  });
+
+  it('loads a winnow-decisions/1 file, mapping its reason codes to today\'s words', () => {
+    const v1 = {
+      format: 'winnow-decisions/1', aim: 'erp', reviewer: 'B', createdAt: '2026-01-01T00:00:00Z', software: 'winnow 0.1.0',
+      recordingSha256: 'a'.repeat(64), decompositionSha256: 'b'.repeat(64),
+      components: [
+        { index: 1, verdict: 'remove', reason: 'eye-movement', note: '', suggested: { verdict: 'remove', reason: 'line-noise', because: [] } },
+        { index: 2, verdict: 'remove', reason: 'electrode', note: '', suggested: null },
+        { index: 3, verdict: 'remove', reason: 'motion', note: '', suggested: null },
+      ],
+    };
+    const r = parseDecisionsJson(JSON.stringify(v1), 'old.json');
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.value.format).toBe('winnow-decisions/2');
+    expect(r.value.components.map((c) => c.reason)).toEqual(['gaze', 'contact', 'movement']);
+    expect(r.value.components[0].suggested?.reason).toBe('mains');
+    // A version 2 file must use today's words: the old codes are refused there.
+    expect(parseDecisionsJson(JSON.stringify({ ...v1, format: 'winnow-decisions/2' }), 'new.json').ok).toBe(false);
+  });
+
+  it('loads a file written by a script with only the required fields, warning about the optional ones', () => {
+    const minimal = { format: 'winnow-decisions/2', aim: 'oscillations', recordingSha256: 'a'.repeat(64), decompositionSha256: 'b'.repeat(64),
+      components: [{ index: 2, verdict: 'remove', reason: 'muscle' }, { index: 1, verdict: 'keep' }] };
+    const r = parseDecisionsJson(JSON.stringify(minimal), 'script.json');
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.warnings.join('\n')).toMatch(/script\.json: no "reviewer"/);
+    expect(r.warnings).toHaveLength(3);
+    expect(decisionsFromFile(r.value)).toEqual({ 1: { verdict: 'keep', reason: null, note: '' }, 2: { verdict: 'remove', reason: 'muscle', note: '' } });
+    const noHash = parseDecisionsJson(JSON.stringify({ ...minimal, recordingSha256: undefined }), 'script.json');
+    expect(!noHash.ok && noHash.error.message).toMatch(/"recordingSha256"/);
   });
 });

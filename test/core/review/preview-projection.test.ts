@@ -47,7 +47,7 @@ describe('windowActivations and the cleaned window', () => {
     fixture.S.forEach((v, j) => expect(S[j]).toBeCloseTo(v, 9));
   });
 
-  it('matches numpy X − A[:,R] W (X − m) after removing components 1 and 3 incrementally (METHODS §7.6)', () => {
+  it('matches numpy X − A[:,R] W (X − m) after removing components 1 and 3 incrementally (docs/methods.md §7.6)', () => {
     const S = windowActivations(W, k, n, X, L, m);
     const win = createPreviewWindow(X, n, L, S, k);
     applyRemovedSet(win, A, new Set(fixture.removed));

@@ -13,12 +13,12 @@ function evidence(over: Partial<SuggestionInput> = {}): SuggestionInput {
     strongestChannel: { index: 0, label: 'Cz', weight: 1 },
     map: new Float64Array(4),
     spectrum: { frequencies: f, power: f, powerDb: f, nfft: 512, df: 0.5 },
-    aperiodic: { exponent: 0.2, offset: 1, rangeHz: [2, 40] },
+    oneOverF: { exponent: 0.2, offset: 1, rangeHz: [2, 40] },
     alphaPeakHz: null,
     alphaProminence: 0,
     highFrequencyShare: 0.1,
     highFrequencySlope: -2,
-    lineNoiseShare: 0.01,
+    mainsShare: 0.01,
     linePeakRatio: 1,
     lowFrequencyShare: 0.2,
     kurtosis: 0.1,
@@ -31,7 +31,7 @@ function evidence(over: Partial<SuggestionInput> = {}): SuggestionInput {
     cardiac: { bpm: null, peak: 0 },
     stepLocking: null,
     erp: null,
-    epochImage: null,
+    trialStack: null,
     dipole: null,
     ...over,
   };
@@ -57,12 +57,12 @@ const blink = evidence({
   lateralAntisymmetry: -0.95,
   lowFrequencyShare: 0.9,
   kurtosis: 20,
-  aperiodic: { exponent: 2.4, offset: 1, rangeHz: [2, 40] },
+  oneOverF: { exponent: 2.4, offset: 1, rangeHz: [2, 40] },
 });
-const saccade = evidence({ lateralAntisymmetry: 0.97, lowFrequencyShare: 0.8, stepLikeness: 0.95, frontalGradient: 2.5, aperiodic: { exponent: 3, offset: 1, rangeHz: [2, 40] } });
-const muscle = evidence({ highFrequencyShare: 0.8, highFrequencySlope: 0, kurtosis: 30, aperiodic: { exponent: -1.5, offset: 1, rangeHz: [2, 40] } });
+const saccade = evidence({ lateralAntisymmetry: 0.97, lowFrequencyShare: 0.8, stepLikeness: 0.95, frontalGradient: 2.5, oneOverF: { exponent: 3, offset: 1, rangeHz: [2, 40] } });
+const muscle = evidence({ highFrequencyShare: 0.8, highFrequencySlope: 0, kurtosis: 30, oneOverF: { exponent: -1.5, offset: 1, rangeHz: [2, 40] } });
 const alpha = evidence({
-  aperiodic: { exponent: 1.2, offset: 1, rangeHz: [2, 40] },
+  oneOverF: { exponent: 1.2, offset: 1, rangeHz: [2, 40] },
   alphaPeakHz: 10.2,
   alphaProminence: 0.8,
   dipole: { position: [0, -60, 20], moment: [0, 1, 0], residualVariance: 0.04, atBoundary: false, region: 'midline occipital, superficial' },
@@ -79,12 +79,12 @@ describe('suggestVerdict', () => {
   });
 
   it('removes a horizontal eye movement (antisymmetric, slow, step-like) for every aim, even without EOG', () => {
-    for (const aim of AIMS) expect(suggestVerdict(saccade, aim)).toMatchObject({ verdict: 'remove', reason: 'eye-movement' });
+    for (const aim of AIMS) expect(suggestVerdict(saccade, aim)).toMatchObject({ verdict: 'remove', reason: 'gaze' });
     expect(suggestVerdict(saccade, 'erp').because.join(' ')).toMatch(/antisymmetric \(0\.97/);
   });
 
   it('does not call an antisymmetric slow map an eye movement when it does not reach the front of the head', () => {
-    const temporalPair = evidence({ lateralAntisymmetry: 0.98, lowFrequencyShare: 0.55, stepLikeness: 0.8, frontalGradient: 0.1, aperiodic: { exponent: 1.6, offset: 1, rangeHz: [2, 40] }, dipole: alpha.dipole });
+    const temporalPair = evidence({ lateralAntisymmetry: 0.98, lowFrequencyShare: 0.55, stepLikeness: 0.8, frontalGradient: 0.1, oneOverF: { exponent: 1.6, offset: 1, rangeHz: [2, 40] }, dipole: alpha.dipole });
     expect(suggestVerdict(temporalPair, 'erp')).toMatchObject({ verdict: 'keep', reason: 'neural' });
   });
 
@@ -125,13 +125,13 @@ describe('suggestVerdict', () => {
 
   it('removes a single-electrode component and names the electrode', () => {
     const s = suggestVerdict(evidence({ focality: { share: 0.91, channel: 'P7' } }), 'conservative');
-    expect(s).toEqual({ verdict: 'remove', reason: 'electrode', because: ['one electrode (P7) carries 91 % of the map'] });
+    expect(s).toEqual({ verdict: 'remove', reason: 'contact', because: ['one electrode (P7) carries 91 % of the map'] });
   });
 
   it('names line noise before the muscle and electrode signs it also shows', () => {
-    const s = suggestVerdict(evidence({ lineNoiseShare: 0.86, linePeakRatio: 700, highFrequencyShare: 0.6, highFrequencySlope: 0, focality: { share: 0.7, channel: 'T8' } }), 'erp');
-    expect(s.reason).toBe('line-noise');
-    expect(s.because[1]).toMatch(/^also shows signs of muscle and electrode/);
+    const s = suggestVerdict(evidence({ mainsShare: 0.86, linePeakRatio: 700, highFrequencyShare: 0.6, highFrequencySlope: 0, focality: { share: 0.7, channel: 'T8' } }), 'erp');
+    expect(s.reason).toBe('mains');
+    expect(s.because[1]).toMatch(/^also shows signs of muscle and contact/);
   });
 
   it('suggests cardiac and motion removal from beat periodicity and step locking', () => {
@@ -140,7 +140,7 @@ describe('suggestVerdict', () => {
       reason: 'cardiac',
       because: ['periodic at 72 beats per minute (autocorrelation 0.80)'],
     });
-    expect(suggestVerdict(evidence({ stepLocking: { share: 0.9, event: 'step/left', nEpochs: 120 } }), 'oscillations').reason).toBe('motion');
+    expect(suggestVerdict(evidence({ stepLocking: { share: 0.9, event: 'step/left', nEpochs: 120 } }), 'oscillations').reason).toBe('movement');
   });
 
   it('leaves brain-like components with a weak muscle sign to the reviewer ("mixed"), kept under conservative', () => {
@@ -152,7 +152,7 @@ describe('suggestVerdict', () => {
 
   it('follows the user’s thresholds when they override the defaults', () => {
     const e = evidence({ focality: { share: 0.65, channel: 'O1' } });
-    expect(suggestVerdict(e, 'erp').reason).toBe('electrode');
+    expect(suggestVerdict(e, 'erp').reason).toBe('contact');
     expect(suggestVerdict(e, 'erp', resolveThresholds({ electrodeFocality: 0.8 })).reason).toBe('unclear');
     expect(resolveThresholds({ electrodeFocality: NaN }).electrodeFocality).toBe(defaultThresholds.electrodeFocality);
   });

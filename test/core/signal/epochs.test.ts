@@ -48,15 +48,15 @@ describe('extractEpochs', () => {
     expect(mean[45]).toBeCloseTo(fixture['average_at_t0.25'], 12);
   });
 
-  it('smooths the epoch image over 3 trials, averaging only available rows at the edges (epochs.json)', () => {
+  it('smooths the trial stack over 3 trials, averaging only available rows at the edges (epochs.json)', () => {
     const img = smoothEpochRows(ep.epochs, ep.nEpochs, ep.length, 3);
-    fixture.epoch_image_smoothed_w3_row0_first5.forEach((v, j) => expect(img[j]).toBeCloseTo(v, 12));
+    fixture.trial_stack_smoothed_w3_row0_first5.forEach((v, j) => expect(img[j]).toBeCloseTo(v, 12));
     // middle row is the mean of all three rows
     const mean = epochMean(ep.epochs, ep.nEpochs, ep.length);
     expect(img[ep.length + 7]).toBeCloseTo(mean[7], 12);
   });
 
-  it('rounds half away from zero with a 1e-9 guard (METHODS §5)', () => {
+  it('rounds half away from zero with a 1e-9 guard (docs/methods.md §5)', () => {
     expect(roundHalfAway(2.5)).toBe(3);
     expect(roundHalfAway(-2.5)).toBe(-3);
     expect(roundHalfAway(0.285 * 100)).toBe(29); // 28.499999999999996 in binary
@@ -75,7 +75,7 @@ describe('extractEpochs', () => {
   });
 });
 
-describe('epoch image sorting', () => {
+describe('trial stack sorting', () => {
   it('orders by a key ascending with NaN last and ties in event order', () => {
     expect(sortOrderByKey([3, NaN, 1, 3, 0])).toEqual([4, 2, 0, 3, 1]);
   });

@@ -49,7 +49,7 @@ describe('welchPsd', () => {
     expect(p32[20]).toBeCloseTo(fixture.psd_noisy_selected['10'], 4);
   });
 
-  it('integrates to the mean taper-weighted mean square of the segments (Parseval, METHODS §1)', () => {
+  it('integrates to the mean taper-weighted mean square of the segments (Parseval, docs/methods.md §1)', () => {
     const p = welchPsd(plan, testSignal(true), FS);
     let sum = 0;
     for (let k = 0; k < p.length; k++) sum += p[k];
@@ -58,7 +58,7 @@ describe('welchPsd', () => {
     expect(Math.abs(sum * (FS / 512) - fixture.signal.sample_variance_ddof0)).toBeLessThan(0.01 * fixture.signal.sample_variance_ddof0);
   });
 
-  it('gives a bin-centred sinusoid of amplitude A the power A²/2 over its three bins (closed form, METHODS §1)', () => {
+  it('gives a bin-centred sinusoid of amplitude A the power A²/2 over its three bins (closed form, docs/methods.md §1)', () => {
     const p = welchPsd(plan, testSignal(false), FS);
     const df = FS / 512;
     for (const [A, fk] of [
@@ -74,7 +74,7 @@ describe('welchPsd', () => {
     }
   });
 
-  it('gives the band shares of welch_psd.json with inclusive band edges (METHODS §4)', () => {
+  it('gives the band shares of welch_psd.json with inclusive band edges (docs/methods.md §4)', () => {
     const p = welchPsd(plan, testSignal(true), FS);
     const df = FS / 512;
     expect(bandPower(p, df, 20, 45) / bandPower(p, df, 1, 45)).toBeCloseTo(fixture.band_shares_noisy.hf_share_20_45_over_1_45, 10);

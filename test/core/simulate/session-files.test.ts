@@ -32,7 +32,7 @@ async function readBack(bytes: Uint8Array, name: string) {
 }
 
 describe('simulated session files', () => {
-  it('writes an EDF+C whose samples read back within half a digital step (EDF scaling, METHODS §11)', async () => {
+  it('writes an EDF+C whose samples read back within half a digital step (EDF scaling, docs/methods.md §11)', async () => {
     const { info, signals } = await readBack(sessionEdf(s, 'data'), 'recording.edf');
     expect(info.format).toBe('EDF+C');
     expect(signals.labels).toEqual(s.labels);

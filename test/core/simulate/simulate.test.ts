@@ -23,7 +23,7 @@ function psd(x: Float32Array | Float64Array, fs: number) {
   return { p: welchPsd(plan, x, fs), f: welchFrequencies(plan, fs), df: fs / 512 };
 }
 
-/** Parabolic interpolation of a peak in log power (METHODS §3). */
+/** Parabolic interpolation of a peak in log power (docs/methods.md §3). */
 function peakHz(p: Float64Array, f: Float64Array, lo: number, hi: number): number {
   let k = -1;
   for (let i = 1; i < p.length - 1; i++) if (f[i] >= lo && f[i] <= hi && (k < 0 || p[i] > p[k])) k = i;
@@ -34,7 +34,7 @@ function peakHz(p: Float64Array, f: Float64Array, lo: number, hi: number): numbe
   return f[k] + delta * (f[1] - f[0]);
 }
 
-/** OLS slope of log10 P on log10 f over [lo, hi] Hz (METHODS §2; chi = −slope). */
+/** OLS slope of log10 P on log10 f over [lo, hi] Hz (docs/methods.md §2; chi = −slope). */
 function logLogSlope(p: Float64Array, f: Float64Array, lo: number, hi: number): number {
   const xs: number[] = [];
   const ys: number[] = [];
@@ -82,7 +82,7 @@ describe('simulateSession', () => {
   it('has fewer sources with fixed maps than the 31 dimensions left by average referencing 32 channels', () => {
     expect(s.sources.length).toBeLessThanOrEqual(31);
     const classes = new Set(s.sources.map((x) => x.class));
-    for (const c of ['neural', 'blink', 'eye-movement', 'muscle', 'cardiac', 'line-noise', 'electrode', 'motion']) expect(classes.has(c as never)).toBe(true);
+    for (const c of ['neural', 'blink', 'gaze', 'muscle', 'cardiac', 'mains', 'contact', 'movement']) expect(classes.has(c as never)).toBe(true);
   });
 
   it('gives every map zero mean over channels (average reference) and the mixing matrix its columns', () => {
@@ -156,13 +156,13 @@ describe('simulateSession', () => {
   });
 
   it('makes muscle activity flat above 20 Hz (log-log slope over 20–95 Hz near 0) and mostly high-frequency', () => {
-    // METHODS §2/§14 (common practice): muscle components are flat or rising above ~20 Hz. One minute holds
+    // docs/methods.md §2/§14 (common practice): muscle components are flat or rising above ~20 Hz. One minute holds
     // only a few jaw bursts, so a single estimate over the narrow 20–45 Hz band scatters by ±0.5; the
     // 20–95 Hz fit is steadier (we saw |slope| < 0.35 for seeds 1–12).
     for (const id of ['muscle-temporal-left', 'muscle-temporal-right', 'muscle-neck']) {
       const { p, f, df } = psd(source(id).activation, s.sampleRate);
       expect(Math.abs(logLogSlope(p, f, 20, 95))).toBeLessThan(0.4);
-      // High-frequency share BP(20, 45) / BP(1, 45) (METHODS §4).
+      // High-frequency share BP(20, 45) / BP(1, 45) (docs/methods.md §4).
       expect(bandPower(p, df, 20, 45) / bandPower(p, df, 1, 45)).toBeGreaterThan(0.7);
     }
   });
@@ -176,13 +176,13 @@ describe('simulateSession', () => {
     }
   });
 
-  it('puts the line-noise peak at 50 Hz (or 60 Hz when asked) with most power within ±1 Hz', () => {
-    const { p, f, df } = psd(source('line-noise').activation, s.sampleRate);
+  it('puts the mains peak at 50 Hz (or 60 Hz when asked) with most power within ±1 Hz', () => {
+    const { p, f, df } = psd(source('mains').activation, s.sampleRate);
     expect(Math.abs(peakHz(p, f, 30, 70) - 50)).toBeLessThan(0.1);
-    // Line share (METHODS §4) on the line channel's own activation.
+    // Line share (docs/methods.md §4) on the line channel's own activation.
     expect(bandPower(p, df, 49, 51) / bandPower(p, df, 1, 120)).toBeGreaterThan(0.9);
     const us = simulateSession({ seed: 11, minutes: 0.25, lineHz: 60 });
-    const line60 = us.sources.find((x) => x.class === 'line-noise')!;
+    const line60 = us.sources.find((x) => x.class === 'mains')!;
     const q = psd(line60.activation, us.sampleRate);
     expect(Math.abs(peakHz(q.p, q.f, 30, 70) - 60)).toBeLessThan(0.1);
   });
@@ -203,7 +203,7 @@ describe('simulateSession', () => {
   });
 
   it('makes the blink map strongest at the most frontal sites, same sign, falling off posteriorly', () => {
-    // METHODS §14 (common practice): frontal dominance = mean |a| over Fp/AF ÷ mean |a| elsewhere.
+    // docs/methods.md §14 (common practice): frontal dominance = mean |a| over Fp/AF ÷ mean |a| elsewhere.
     const m = source('blink').map;
     const frontal = s.labels.map((l, i) => [l, i] as const).filter(([l]) => /^(Fp|AF)/.test(l));
     const rest = s.labels.map((l, i) => [l, i] as const).filter(([l]) => !/^(Fp|AF)/.test(l));
@@ -217,7 +217,7 @@ describe('simulateSession', () => {
   });
 
   it('makes the horizontal eye-movement map left–right antisymmetric with opposite signs at F7 and F8', () => {
-    // METHODS §14 (common practice): lateral antisymmetry (a_L − a_R)/(|a_L| + |a_R|) = ±1 for mirror pairs.
+    // docs/methods.md §14 (common practice): lateral antisymmetry (a_L − a_R)/(|a_L| + |a_R|) = ±1 for mirror pairs.
     const m = source('eye-horizontal').map;
     const pairs: [string, string][] = [['Fp1', 'Fp2'], ['F7', 'F8'], ['AF3', 'AF4'], ['T7', 'T8'], ['F3', 'F4'], ['O1', 'O2']];
     for (const [l, r] of pairs) expect(Math.abs((m[ch(l)] - m[ch(r)]) / (Math.abs(m[ch(l)]) + Math.abs(m[ch(r)])))).toBeCloseTo(1, 9);

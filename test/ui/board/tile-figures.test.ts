@@ -3,9 +3,9 @@ import { tileFigures } from '../../../src/ui/board/tile-figures.ts';
 import type { ComponentEvidence } from '../../../src/core/evidence/types.ts';
 
 const evidence = {
-  index: 1, varianceShare: 0.2, highFrequencyShare: 0.004, lineNoiseShare: 0.01, kurtosis: 12.34, frontalGradient: 4.56,
+  index: 1, varianceShare: 0.2, highFrequencyShare: 0.004, mainsShare: 0.01, kurtosis: 12.34, frontalGradient: 4.56,
   focality: { share: 0.3, channel: 'Fp1' }, cardiac: { bpm: 72.4, peak: 0.5 }, erp: null, dipole: { residualVariance: 0.052 },
-  alphaPeakHz: null, aperiodic: { exponent: 1.5 }, stepLocking: null,
+  alphaPeakHz: null, oneOverF: { exponent: 1.5 }, stepLocking: null,
   eogCorrelation: { vertical: 0.91, horizontal: 0.2, source: 'EOG channels', channels: { vertical: 'VEOG', horizontal: 'HEOG' } },
   suggestions: {
     erp: { verdict: 'remove', reason: 'blink', because: [] },

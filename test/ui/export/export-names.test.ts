@@ -3,7 +3,7 @@ import { componentContext, panelFileName, slugify } from '../../../src/ui/export
 
 describe('panel file names', () => {
   it('are lower-case words joined by hyphens', () => {
-    expect(panelFileName('Epoch image', 'svg', componentContext(7))).toBe('winnow-component-07-epoch-image.svg');
+    expect(panelFileName('Trial stack', 'svg', componentContext(7))).toBe('winnow-component-07-trial-stack.svg');
     expect(panelFileName('Spectra before / after', 'png', 'preview')).toBe('winnow-preview-spectra-before-after.png');
   });
   it('drop path separators and markup from text that came from a file', () => {

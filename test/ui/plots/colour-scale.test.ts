@@ -3,7 +3,7 @@ import { colourTicks, finiteExtent, gridToRgba, symmetricLimit } from '../../../
 
 describe('symmetricLimit', () => {
   it('takes the largest absolute value so the diverging scale is centred on zero', () => {
-    // A diverging palette symmetric about zero is common practice for scalp maps (METHODS §9, issue 3).
+    // A diverging palette symmetric about zero is common practice for scalp maps (docs/methods.md §9, issue 3).
     expect(symmetricLimit(new Float32Array([0.2, -3, 1.5]))).toBe(3);
   });
   it('skips NaN (outside the head) instead of counting it as zero', () => {

@@ -12,7 +12,7 @@ import { DipoleViews } from '../../../src/ui/plots/DipoleViews.tsx';
 import { ErpPlot } from '../../../src/ui/plots/ErpPlot.tsx';
 import { syntheticEvidence } from './synthetic-evidence.ts';
 
-// Idealised 10-20 directions (METHODS §10): Fpz, Oz, T7, T8, Cz, plus one channel without a position.
+// Idealised 10-20 directions (docs/methods.md §10): Fpz, Oz, T7, T8, Cz, plus one channel without a position.
 const positions = Float64Array.from([0, 0.951057, 0.309017, 0, -0.951057, 0.309017, -0.951057, 0, 0.309017, 0.951057, 0, 0.309017, 0, 0, 1, NaN, NaN, NaN]);
 
 describe('TopographyMap', () => {
@@ -31,12 +31,12 @@ describe('TopographyMap', () => {
 });
 
 describe('SpectrumSparkline', () => {
-  it('marks the alpha peak and the aperiodic fit and says so in words', () => {
+  it('marks the alpha peak and the 1/f fit and says so in words', () => {
     const html = renderToStaticMarkup(<SpectrumSparkline evidence={syntheticEvidence()} />);
     expect(html).toContain('stroke-dasharray="3 2"');
     expect(html).toContain('<circle');
     expect(html).toContain('alpha peak 10.0 Hz');
-    expect(html).toContain('aperiodic exponent 2.00');
+    expect(html).toContain('1/f exponent 2.00');
   });
   it('draws no alpha marker without a peak', () => {
     const html = renderToStaticMarkup(<SpectrumSparkline evidence={syntheticEvidence(1, { alphaPeakHz: null })} />);

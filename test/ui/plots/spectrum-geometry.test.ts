@@ -1,15 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { interpolateAt, logPower, spectrumGeometry } from '../../../src/ui/plots/spectrum-geometry.ts';
 
-// A pure power law P = 10^1.5 · f^-1.8 is the no-peak case of METHODS §2 (checks/aperiodic_alpha.json):
-// its aperiodic fit is exactly exponent 1.8, offset 1.5, so the drawn fit must lie on the data.
+// A pure power law P = 10^1.5 · f^-1.8 is the no-peak case of docs/methods.md §2 (checks/one_over_f_alpha.json):
+// its 1/f fit is exactly exponent 1.8, offset 1.5, so the drawn fit must lie on the data.
 const freqs = Float64Array.from({ length: 89 }, (_, i) => 1 + i * 0.5);
 const power = Float64Array.from(freqs, (f) => 10 ** 1.5 * f ** -1.8);
 
 describe('spectrumGeometry', () => {
   const g = spectrumGeometry([{ frequencies: freqs, power }], { width: 200, height: 100 }, { exponent: 1.8, offset: 1.5 }, 10);
 
-  it('draws the aperiodic fit on top of a pure power-law spectrum', () => {
+  it('draws the 1/f fit on top of a pure power-law spectrum', () => {
     for (const f of [2, 10, 30]) {
       const py = g.y(logPower(10 ** 1.5 * f ** -1.8));
       const fy = g.y(1.5 - 1.8 * Math.log10(f));

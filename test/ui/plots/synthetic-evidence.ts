@@ -16,12 +16,12 @@ export function syntheticEvidence(index = 1, patch: Partial<ComponentEvidence> =
     strongestChannel: { index: 2, label: 'Oz', weight: 1.5 },
     map: Float64Array.from([0.2, -0.4, 0.89]),
     spectrum: { frequencies, power, powerDb: Float64Array.from(power, (p) => 10 * Math.log10(p)), nfft: 512, df: 0.5 },
-    aperiodic: { exponent: 2, offset: 2, rangeHz: [2, 40] },
+    oneOverF: { exponent: 2, offset: 2, rangeHz: [2, 40] },
     alphaPeakHz: 10,
     alphaProminence: 0.3,
     highFrequencyShare: 0.05,
     highFrequencySlope: -2,
-    lineNoiseShare: 0.01,
+    mainsShare: 0.01,
     linePeakRatio: 1.1,
     lowFrequencyShare: 0.4,
     kurtosis: 0.5,
@@ -39,7 +39,7 @@ export function syntheticEvidence(index = 1, patch: Partial<ComponentEvidence> =
       band: { lower: Float64Array.from(times, (t) => (t > 0 ? 1 : -1)), upper: Float64Array.from(times, (t) => (t > 0 ? 3 : 1)) },
       itc: 0.4, itcFrequencyHz: 3, timeLockingStrength: 0.2, lockedShare: 0.25, permutationP: 0.01,
     },
-    epochImage: {
+    trialStack: {
       nEpochs: 4, length: 8, times,
       data: Float32Array.from({ length: 32 }, (_, i) => (Math.floor(i / 8) + 1) * ((i % 8) - 2)),
       responseTimes: Float64Array.from([0.5, 0.2, NaN, 0.3]),

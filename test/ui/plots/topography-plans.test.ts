@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { knownPositionIndices, MAP_EXTENT, topographyPlanFor } from '../../../src/ui/plots/topography-plans.ts';
 
-// Idealised 10-20 positions from METHODS §10 (checks/electrodes_1020.json): Fpz, Oz, T7, T8, Cz, C3, C4,
+// Idealised 10-20 positions from docs/methods.md §10 (checks/electrodes_1020.json): Fpz, Oz, T7, T8, Cz, C3, C4,
 // plus one channel without a position.
 const positions = Float64Array.from([
   0, 0.951057, 0.309017,
@@ -21,7 +21,7 @@ describe('topographyPlanFor', () => {
     expect(topographyPlanFor(positions, 40)).toBe(plan);
     expect(topographyPlanFor(positions, 41)).not.toBe(plan);
   });
-  it('puts Cz at the centre and Fpz above it at ρ = 0.8 (azimuthal equidistant projection, METHODS §9)', () => {
+  it('puts Cz at the centre and Fpz above it at ρ = 0.8 (azimuthal equidistant projection, docs/methods.md §9)', () => {
     expect(plan.electrodePx[8]).toBeCloseTo(20, 6);
     expect(plan.electrodePx[9]).toBeCloseTo(20, 6);
     expect(plan.electrodePx[0]).toBeCloseTo(20, 6);

@@ -56,7 +56,7 @@ describe('events', () => {
 });
 
 describe('regionSpectra', () => {
-  it('finds a 10 Hz sine of amplitude 2 µV as power A²/2 = 2 µV² in the alpha band (Parseval, METHODS §1)', () => {
+  it('finds a 10 Hz sine of amplitude 2 µV as power A²/2 = 2 µV² in the alpha band (Parseval, docs/methods.md §1)', () => {
     const fs = 256;
     const x = Float64Array.from({ length: 10 * fs }, (_, j) => 2 * Math.sin((2 * Math.PI * 10 * j) / fs));
     const half = x.map((v) => v / 2);

@@ -3,7 +3,7 @@ import { mkdtemp, readFile, rm, writeFile } from 'node:fs/promises';
 import { createHash } from 'node:crypto';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { run } from '../../src/cli/apply.ts';
+import { run } from '../../src/cli/clean.ts';
 import { memoryIo, CliError } from '../../src/cli/cli-support.ts';
 import { writeEdf } from '../../src/core/formats/edf-writer.ts';
 import { readEdfInfo, readEdfSignals } from '../../src/core/formats/edf.ts';
@@ -66,10 +66,10 @@ async function readBack(path: string) {
   return { info: info.value, main: main.value, other: other.value };
 }
 
-beforeAll(async () => { dir = await mkdtemp(join(tmpdir(), 'winnow-apply-')); });
+beforeAll(async () => { dir = await mkdtemp(join(tmpdir(), 'winnow-clean-')); });
 afterAll(async () => { await rm(dir, { recursive: true, force: true }); });
 
-describe('winnow apply', () => {
+describe('winnow clean', () => {
   it('subtracts the removed components and keeps channels, rates, annotations; identity blanked', async () => {
     await setup([1, 3]);
     const io = memoryIo();

@@ -5,7 +5,7 @@ import { join } from 'node:path';
 import { main } from '../../src/cli/winnow.ts';
 import { memoryIo } from '../../src/cli/cli-support.ts';
 
-const dir = mkdtempSync(join(tmpdir(), 'winnow-fit-dipole-'));
+const dir = mkdtempSync(join(tmpdir(), 'winnow-dipole-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
 const reference = JSON.parse(readFileSync(new URL('../fixtures/headmodel/dipole_fit.json', import.meta.url), 'utf8'));
@@ -28,12 +28,12 @@ async function run(command: string, ...args: string[]) {
   return { code, out: io.out, err: io.err };
 }
 
-describe('winnow fit-dipole (issue 3 contract)', () => {
+describe('winnow dipole (issue 3 contract)', () => {
   it('recovers the dipole that winnow forward simulated (round trip through the CLI, three-shell default)', async () => {
     const fwd = await run('forward', '--positions', positions, '--dipole', '-30,25,45,4,-2,7');
     expect(fwd.code).toBe(0);
     const map = file('map.tsv', fwd.out.replace(/^name\tpotential/, 'name\tvalue'));
-    const r = await run('fit-dipole', '--positions', positions, '--map', map);
+    const r = await run('dipole', '--positions', positions, '--map', map);
     expect(r.code).toBe(0);
     const json = JSON.parse(r.out);
     expect(Math.hypot(json.position[0] + 30, json.position[1] - 25, json.position[2] - 45)).toBeLessThan(0.01);
@@ -45,7 +45,7 @@ describe('winnow fit-dipole (issue 3 contract)', () => {
   it('matches the scipy least-squares fit of dipole_fit.json for the noisy map (positions scale with R = 90 mm)', async () => {
     const values = (reference.data_noise_free_avgref as number[]).map((v, i) => v + reference.noise_added[i]);
     const map = file('noisy.tsv', mapTsv(names.map((n, i) => [n, values[i]])));
-    const r = await run('fit-dipole', '--positions', positions, '--map', map);
+    const r = await run('dipole', '--positions', positions, '--map', map);
     expect(r.code).toBe(0);
     const json = JSON.parse(r.out);
     const ref = (reference.cases.noisy_3shell.scipy_lm.p as number[]).map((v) => v * 90);
@@ -55,27 +55,27 @@ describe('winnow fit-dipole (issue 3 contract)', () => {
 
   it('exits 2 for a map naming an unknown electrode', async () => {
     const map = file('unknown.tsv', mapTsv([...names.slice(0, 10).map((n): [string, number] => [n, 1]), ['Xy9', 2]]));
-    const r = await run('fit-dipole', '--positions', positions, '--map', map);
+    const r = await run('dipole', '--positions', positions, '--map', map);
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/^error: .*"Xy9" is not in/m);
     expect(r.out).toBe('');
   });
 
   it('exits 2 for fewer than 8 values, a NaN value, and a flat map', async () => {
-    const few = await run('fit-dipole', '--positions', positions, '--map', file('few.tsv', mapTsv(names.slice(0, 7).map((n, i) => [n, i]))));
+    const few = await run('dipole', '--positions', positions, '--map', file('few.tsv', mapTsv(names.slice(0, 7).map((n, i) => [n, i]))));
     expect(few.code).toBe(2);
     expect(few.err).toMatch(/7 electrode values; at least 8/);
-    const nan = await run('fit-dipole', '--positions', positions, '--map', file('nan.tsv', mapTsv(names.slice(0, 12).map((n, i) => [n, i === 3 ? 'NaN' : i]))));
+    const nan = await run('dipole', '--positions', positions, '--map', file('nan.tsv', mapTsv(names.slice(0, 12).map((n, i) => [n, i === 3 ? 'NaN' : i]))));
     expect(nan.code).toBe(2);
     expect(nan.err).toMatch(/not a finite number/);
-    const flat = await run('fit-dipole', '--positions', positions, '--map', file('flat.tsv', mapTsv(names.slice(0, 12).map((n) => [n, 4]))));
+    const flat = await run('dipole', '--positions', positions, '--map', file('flat.tsv', mapTsv(names.slice(0, 12).map((n) => [n, 4]))));
     expect(flat.code).toBe(2);
     expect(flat.err).toMatch(/flat/);
   });
 
   it('exits 2 without --map, and for a map without a value column', async () => {
-    expect((await run('fit-dipole', '--positions', positions)).code).toBe(2);
-    const r = await run('fit-dipole', '--positions', positions, '--map', file('cols.tsv', 'name\tamp\nCz\t1\n'));
+    expect((await run('dipole', '--positions', positions)).code).toBe(2);
+    const r = await run('dipole', '--positions', positions, '--map', file('cols.tsv', 'name\tamp\nCz\t1\n'));
     expect(r.code).toBe(2);
     expect(r.err).toMatch(/"value"/);
   });

@@ -1,5 +1,5 @@
 /**
- * Row order, smoothing and colour limits of an epoch image (trials × time, METHODS §5; the sorted,
+ * Row order, smoothing and colour limits of an trial stack (trials × time, docs/methods.md §5; the sorted,
  * vertically smoothed display follows Jung et al. 2001, Hum. Brain Mapp. 14:166–185). The arithmetic is
  * the evidence core's (src/core/signal/epochs.ts); this file only chooses what to call.
  */
@@ -8,7 +8,7 @@ import { reorderEpochRows, smoothEpochRows, sortOrderByKey } from '../../core/si
 /** How the trials are ordered top to bottom. */
 export type EpochSort = 'order' | 'response-time' | 'amplitude';
 
-export interface EpochImageInput {
+export interface TrialStackInput {
   readonly nEpochs: number;
   readonly length: number;
   /** nEpochs × length, row-major, event order. */
@@ -19,7 +19,7 @@ export interface EpochImageInput {
   readonly responseTimes: Float64Array | null;
 }
 
-export interface EpochImageRows {
+export interface TrialStackRows {
   /** Sorted, smoothed rows (nEpochs × length). */
   readonly rows: Float64Array;
   /** Event-order index of each displayed row. */
@@ -31,7 +31,7 @@ export interface EpochImageRows {
 }
 
 /** Per-row mean over columns whose time lies in [t0S, t1S]; NaN when the window holds no column. */
-export function rowWindowMeans(input: EpochImageInput, t0S: number, t1S: number): Float64Array {
+export function rowWindowMeans(input: TrialStackInput, t0S: number, t1S: number): Float64Array {
   const { nEpochs, length, data, times } = input;
   const out = new Float64Array(nEpochs);
   const cols: number[] = [];
@@ -49,12 +49,12 @@ export function rowWindowMeans(input: EpochImageInput, t0S: number, t1S: number)
  * amplitude in `amplitudeWindowS` ascending); `smoothing` is the width of the centred moving average over
  * trials (1 = none). Sorting comes first so smoothing mixes neighbours in the displayed order.
  */
-export function epochImageRows(
-  input: EpochImageInput,
+export function trialStackRows(
+  input: TrialStackInput,
   sort: EpochSort,
   smoothing: number,
   amplitudeWindowS: readonly [number, number] = [0, 0.5],
-): EpochImageRows {
+): TrialStackRows {
   const n = input.nEpochs;
   let keys: Float64Array = new Float64Array(n).fill(NaN);
   let applied: EpochSort = sort;
@@ -69,7 +69,7 @@ export function epochImageRows(
 }
 
 /**
- * Colour limit for an epoch image: the `q` quantile of |value| (default 0.98), so a few extreme trials
+ * Colour limit for an trial stack: the `q` quantile of |value| (default 0.98), so a few extreme trials
  * do not wash the picture out. NaN skipped; 1 when nothing finite and non-zero.
  */
 export function robustLimit(values: ArrayLike<number>, q = 0.98): number {

@@ -1,13 +1,13 @@
 /**
- * The epoch image (sortable by event order, response time or amplitude in a window; smoothing over
+ * The trial stack (sortable by event order, response time or amplitude in a window; smoothing over
  * trials; colour bar) with the event-locked average and its 95 % band beneath, on the same time axis.
  */
 import { useMemo } from 'react';
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
-import { EpochImage } from '../plots/EpochImage.tsx';
+import { TrialStack } from '../plots/TrialStack.tsx';
 import { ErpPlot } from '../plots/ErpPlot.tsx';
-import { epochImageRows, robustLimit, type EpochSort } from '../plots/epoch-image-rows.ts';
+import { trialStackRows, robustLimit, type EpochSort } from '../plots/trial-stack-rows.ts';
 
 export interface EpochSettings {
   readonly sort: EpochSort;
@@ -17,7 +17,7 @@ export interface EpochSettings {
   readonly amplitudeWindowS: readonly [number, number];
 }
 
-export interface EpochPanelProps {
+export interface TrialStackPanelProps {
   readonly evidence: ComponentEvidence;
   readonly settings: EpochSettings;
   readonly onSettings: (patch: Partial<EpochSettings>) => void;
@@ -26,11 +26,11 @@ export interface EpochPanelProps {
 
 const WIDTH = 400;
 
-export function EpochPanel({ evidence, settings, onSettings, context }: EpochPanelProps) {
-  const img = evidence.epochImage;
+export function TrialStackPanel({ evidence, settings, onSettings, context }: TrialStackPanelProps) {
+  const img = evidence.trialStack;
   const erp = evidence.erp;
   const rows = useMemo(
-    () => (img ? epochImageRows(img, settings.sort, settings.smoothing, settings.amplitudeWindowS) : null),
+    () => (img ? trialStackRows(img, settings.sort, settings.smoothing, settings.amplitudeWindowS) : null),
     [img, settings.sort, settings.smoothing, settings.amplitudeWindowS],
   );
   const limit = useMemo(() => (rows ? robustLimit(rows.rows) : 1), [rows]);
@@ -70,10 +70,10 @@ export function EpochPanel({ evidence, settings, onSettings, context }: EpochPan
     </>
   ) : null;
   return (
-    <ExportablePanel title="Epoch image and average" context={context} testId="focus-epoch-image" className="panel-epochs" controls={controls}>
+    <ExportablePanel title="Trial stack and average" context={context} testId="focus-trial-stack" className="panel-epochs" controls={controls}>
       {img && rows ? (
         <>
-          <EpochImage rows={rows} nEpochs={img.nEpochs} length={img.length} times={img.times} maxAbs={limit} width={WIDTH} height={230} />
+          <TrialStack rows={rows} nEpochs={img.nEpochs} length={img.length} times={img.times} maxAbs={limit} width={WIDTH} height={230} />
           {rows.sortApplied !== settings.sort ? <p className="note">No response times in this recording; shown in event order.</p> : null}
         </>
       ) : (

@@ -1,7 +1,7 @@
 /**
- * `winnow apply <recording> <decomposition.json> <decisions.json> --out cleaned.edf [--keep-identity]
+ * `winnow clean <recording> <decomposition.json> <decisions.json> --out cleaned.edf [--keep-identity]
  * [--ignore-hashes]`: writes the cleaned recording from a decisions file (issue 7). The components marked
- * `remove` are subtracted from the channels of the decomposition (METHODS §7.6, src/core/review/clean.ts);
+ * `remove` are subtracted from the channels of the decomposition (docs/methods.md §7.6, src/core/review/clean.ts);
  * every other channel, every rate, the record layout and the annotations are kept. The output is EDF+ for an
  * EDF input and BDF+ for a BDF input (discontinuous stays discontinuous); identifying header fields become
  * the EDF+ anonymous forms unless --keep-identity. The file is written atomically.
@@ -24,7 +24,7 @@ import { parseDecisionsJson } from '../core/review/decisions-file.ts';
 import { cleanSignalRange, cleanedEdfInput, createCleaningPlan } from '../core/review/clean.ts';
 import type { SignalBlock } from '../core/recording.ts';
 
-const USAGE = 'usage: winnow apply <recording> <decomposition.json> <decisions.json> --out cleaned.edf [--keep-identity] [--ignore-hashes]';
+const USAGE = 'usage: winnow clean <recording> <decomposition.json> <decisions.json> --out cleaned.edf [--keep-identity] [--ignore-hashes]';
 
 /** SHA-256 of a file, streamed (a large recording is never held whole). */
 function sha256OfFile(path: string): Promise<string> {
@@ -47,14 +47,14 @@ async function readInput(path: string): Promise<Uint8Array> {
 }
 
 export async function run(args: string[], io: CliIo): Promise<number> {
-  const { positionals, values } = parseCommandArgs('apply', args, {
+  const { positionals, values } = parseCommandArgs('clean', args, {
     out: { type: 'string' },
     'keep-identity': { type: 'boolean' },
     'ignore-hashes': { type: 'boolean' },
   });
-  if (positionals.length !== 3) throw new CliError(`winnow apply: give a recording, a decomposition and a decisions file (${USAGE})`);
+  if (positionals.length !== 3) throw new CliError(`winnow clean: give a recording, a decomposition and a decisions file (${USAGE})`);
   const out = values.out;
-  if (typeof out !== 'string' || out.trim() === '') throw new CliError(`winnow apply: --out is required (${USAGE})`);
+  if (typeof out !== 'string' || out.trim() === '') throw new CliError(`winnow clean: --out is required (${USAGE})`);
   const [recordingPath, decompositionPath, decisionsPath] = positionals;
 
   const decompositionBytes = await readInput(decompositionPath);

@@ -1,5 +1,5 @@
 /**
- * The epoch image: one row per trial, time left to right, amplitude as colour (diverging, symmetric about
+ * The trial stack: one row per trial, time left to right, amplitude as colour (diverging, symmetric about
  * zero) with its colour bar. When rows are sorted by response time the response of each trial is marked.
  * Rendered as a PNG inside an SVG so the panel exports as one SVG.
  */
@@ -9,11 +9,11 @@ import { divergingColor } from '../../core/headmodel/palette.ts';
 import { Axis } from './Axis.tsx';
 import { ColourScale } from './ColourScale.tsx';
 import { gridToRgba } from './colour-scale.ts';
-import type { EpochImageRows } from './epoch-image-rows.ts';
+import type { TrialStackRows } from './trial-stack-rows.ts';
 import { rgbaToDataUrl } from './raster-image.ts';
 
-export interface EpochImageProps {
-  readonly rows: EpochImageRows;
+export interface TrialStackProps {
+  readonly rows: TrialStackRows;
   readonly nEpochs: number;
   readonly length: number;
   readonly times: Float64Array;
@@ -24,7 +24,7 @@ export interface EpochImageProps {
   readonly unit?: string;
 }
 
-export function EpochImage({ rows, nEpochs, length, times, maxAbs, width = 380, height = 220, unit = 'µV' }: EpochImageProps) {
+export function TrialStack({ rows, nEpochs, length, times, maxAbs, width = 380, height = 220, unit = 'µV' }: TrialStackProps) {
   const margin = { top: 6, right: 58, bottom: 28, left: 42 };
   const href = useMemo(() => rgbaToDataUrl(gridToRgba(rows.rows, maxAbs, divergingColor), length, nEpochs), [rows, maxAbs, length, nEpochs]);
   const t0 = times.length ? times[0] : 0;
@@ -34,7 +34,7 @@ export function EpochImage({ rows, nEpochs, length, times, maxAbs, width = 380, 
   const plotH = height - margin.top - margin.bottom;
   const showRt = rows.sortApplied === 'response-time';
   return (
-    <svg className="epoch-image" width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label={`epoch image, ${nEpochs} trials`}>
+    <svg className="trial-stack" width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label={`trial stack, ${nEpochs} trials`}>
       <image href={href} x={x(t0)} y={margin.top} width={x(t1) - x(t0)} height={plotH} preserveAspectRatio="none" style={{ imageRendering: 'pixelated' }} />
       <line x1={x(0)} x2={x(0)} y1={margin.top} y2={margin.top + plotH} stroke="#000" strokeDasharray="2 2" />
       {showRt

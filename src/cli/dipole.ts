@@ -1,5 +1,5 @@
 /**
- * `winnow fit-dipole --positions electrodes.tsv --map map.tsv [--model sphere|three-shell] [--radius MM|fit]`:
+ * `winnow dipole --positions electrodes.tsv --map map.tsv [--model sphere|three-shell] [--radius MM|fit]`:
  * fits one equivalent current dipole to a scalp map and prints JSON (contract of issue 3):
  *
  *     { "position": [x, y, z] (mm), "moment": [mx, my, mz] (nA·m for a map in µV),
@@ -39,15 +39,15 @@ function readMap(text: string, path: string): MapEntry[] {
 }
 
 export async function run(args: string[], io: CliIo): Promise<number> {
-  const { values, positionals } = parseCommandArgs('fit-dipole', args, {
+  const { values, positionals } = parseCommandArgs('dipole', args, {
     positions: { type: 'string' },
     map: { type: 'string' },
     model: { type: 'string' },
     radius: { type: 'string' },
   });
-  if (positionals.length > 0) throw new CliError(`winnow fit-dipole: unexpected argument "${positionals[0]}"`, 2);
-  if (!values.positions) throw new CliError('winnow fit-dipole: --positions electrodes.tsv is required', 2);
-  if (!values.map) throw new CliError('winnow fit-dipole: --map map.tsv is required', 2);
+  if (positionals.length > 0) throw new CliError(`winnow dipole: unexpected argument "${positionals[0]}"`, 2);
+  if (!values.positions) throw new CliError('winnow dipole: --positions electrodes.tsv is required', 2);
+  if (!values.map) throw new CliError('winnow dipole: --map map.tsv is required', 2);
 
   const electrodes = await loadElectrodes(values.positions, io);
   const entries = readMap(await readTextFile(values.map), values.map);
@@ -71,7 +71,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   if (index.length < MIN_ELECTRODES)
     throw new CliError(`${values.map}: ${index.length} electrode value${index.length === 1 ? '' : 's'}; at least ${MIN_ELECTRODES} are needed`, 2);
 
-  const { model, centre } = chooseModel('fit-dipole', values.model, values.radius, electrodes.positionsMm);
+  const { model, centre } = chooseModel('dipole', values.model, values.radius, electrodes.positionsMm);
   const all = centred(electrodes.positionsMm, centre);
   const positions = new Float64Array(3 * index.length);
   const map = new Float64Array(index.length);
