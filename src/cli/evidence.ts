@@ -46,6 +46,7 @@ import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { openFileByteSource } from './node-byte-source.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import { computeEvidence, DEFAULT_EPOCH_WINDOW_S, type EvidenceEvent } from '../core/evidence/compute-evidence.ts';
+import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
 import type { ComponentEvidence } from '../core/evidence/types.ts';
 import { parseElectrodesTsv, parseEventsTsv } from '../core/formats/bids.ts';
 import { matchDecompositionToRecording, parseDecompositionJson } from '../core/formats/decomposition-file.ts';
@@ -251,6 +252,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
       lineHz: lineHz as 50 | 60,
       aim,
       thresholds,
+      // Sequential time-locking test up to 999 shuffles, so permutationP can reach 1/1000 (time-locking.ts).
+      permutations: LOCKING_MAX_SHUFFLES,
     });
     for (const w of result.warnings) io.stderr(`warning: ${w}\n`);
     const json = {

@@ -13,6 +13,7 @@ import { sortDecompositionFiles, sortParticipantFiles } from './participant-file
 import type { WorkbenchServices } from './services.ts';
 import { runDecomposition } from '../bridge/decomposition-client.ts';
 import { computeEvidenceInWorker } from '../bridge/evidence-client.ts';
+import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
 import type { DecomposeInput } from '../core/ica/decompose.ts';
 import type { LoadedRecording } from '../core/recording.ts';
 
@@ -103,6 +104,8 @@ export const browserServices: WorkbenchServices = {
         decomposition,
         events: recording.events.filter((e) => e.source !== 'boundary').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label, ...(e.responseTime !== undefined ? { responseTime: e.responseTime } : {}) })),
         aim,
+        // Sequential test up to 999 shuffles (p can reach 1/1000); unlocked components stop after ~tens.
+        permutations: LOCKING_MAX_SHUFFLES,
       },
       signal,
       (f) => onProgress(f),

@@ -62,41 +62,60 @@ export function mulberry32(seed: number): () => number {
   };
 }
 
+/**
+ * Defaults of the sequential permutation test (our choice after Besag & Clifford 1991, Biometrika 78:301–304):
+ * at most 999 shuffles, so the smallest attainable p is 1 / 1000, and a stop after 10 shuffles reach the
+ * observed share, so an unlocked component costs about 10 / p shuffles (≈ 20 at p = 0.5).
+ */
+export const LOCKING_MAX_SHUFFLES = 999;
+export const LOCKING_STOP_AFTER = 10;
+
 export interface LockingTest {
   readonly observed: number;
   /** Mean locked share over the shuffled event times that were drawn. */
   readonly chance: number;
-  /** Sequential Monte Carlo p-value (Besag & Clifford 1991, Biometrika 78:301–304): h / m when the run
-   * stopped after h = `stopAfter` shuffles reached the observed share in m draws, else (1 + #≥) / (1 + n). */
+  /**
+   * Sequential Monte Carlo p-value (Besag & Clifford 1991, Biometrika 78:301–304): h / L when the run
+   * stopped after h = `stopAfter` shuffles reached the observed share in L draws, else (1 + #≥) / (1 + n)
+   * with n = all shuffles drawn (Phipson & Smyth 2010, Stat. Appl. Genet. Mol. Biol. 9:39 — never 0).
+   * Valid: P(p ≤ α) ≤ α for unlocked activity. Smallest value 1 / (1 + nPermutations).
+   */
   readonly p: number;
-  /** Shuffles actually drawn. */
+  /** Shuffles actually drawn (L when stopped early, else nPermutations). */
   readonly permutations: number;
+  /** Shuffles whose locked share reached the observed one. */
+  readonly exceedances: number;
+  /** True when the run stopped at `stopAfter` exceedances before `nPermutations`. */
+  readonly stoppedEarly: boolean;
 }
 
 /**
  * Permutation test of the locked share: the same number of events placed uniformly at random (seeded)
- * wherever a whole epoch fits, up to `nPermutations` times. Sequential (Besag & Clifford 1991): the run
- * stops once `stopAfter` shuffles (default 3) reach the observed share, because the p-value can then no
- * longer fall below 3 / nPermutations — most components, which are not locked, need only a few shuffles.
- * `stride` evaluates every stride-th sample of the epochs (observed and shuffled alike).
+ * wherever a whole epoch fits, up to `nPermutations` times (default 999). Sequential (Besag & Clifford
+ * 1991): the run stops once `stopAfter` shuffles (default 10) reach the observed share — most components,
+ * which are not locked, need only a few tens of shuffles, while a locked one can reach p = 1 / 1000.
+ * `stride` evaluates every stride-th sample of the epochs (observed and shuffled alike). Deterministic
+ * for a given `seed` (mulberry32).
  */
 export function lockingPermutationTest(
   x: ArrayLike<number>,
   eventSamples: readonly number[],
   firstOffset: number,
   length: number,
-  nPermutations = 49,
+  nPermutations = LOCKING_MAX_SHUFFLES,
   seed = 1,
-  stopAfter = 3,
+  stopAfter = LOCKING_STOP_AFTER,
   stride = 1,
 ): LockingTest {
   const scratch = new Float64Array(length);
   const observed = lockedShare(x, eventSamples, firstOffset, length, scratch, stride);
   const lo = -firstOffset;
   const hi = x.length - length - firstOffset; // last valid event sample + 1
-  if (!Number.isFinite(observed) || hi <= lo || nPermutations < 1) return { observed, chance: NaN, p: NaN, permutations: 0 };
+  if (!Number.isFinite(observed) || hi <= lo || nPermutations < 1)
+    return { observed, chance: NaN, p: NaN, permutations: 0, exceedances: 0, stoppedEarly: false };
   const rand = mulberry32(seed);
   const fake = new Int32Array(eventSamples.length);
+  const h = Math.max(1, Math.floor(stopAfter));
   let sum = 0;
   let atLeast = 0;
   let drawn = 0;
@@ -106,9 +125,10 @@ export function lockingPermutationTest(
     drawn++;
     sum += v;
     if (v >= observed) atLeast++;
-    if (atLeast >= stopAfter) return { observed, chance: sum / drawn, p: atLeast / drawn, permutations: drawn };
+    if (atLeast >= h && drawn < nPermutations)
+      return { observed, chance: sum / drawn, p: atLeast / drawn, permutations: drawn, exceedances: atLeast, stoppedEarly: true };
   }
-  return { observed, chance: sum / drawn, p: (1 + atLeast) / (1 + drawn), permutations: drawn };
+  return { observed, chance: sum / drawn, p: (1 + atLeast) / (1 + drawn), permutations: drawn, exceedances: atLeast, stoppedEarly: false };
 }
 
 /**
@@ -187,14 +207,14 @@ export interface EventLockedResult {
 /**
  * All event-locked numbers of one activation (already scaled to µV at its strongest channel when the
  * caller wants µV): epochs with baseline [tmin, 0], average, 95 % band (± 1.96 SEM), ITC and the
- * permutation test. Null when fewer than 2 epochs fit.
+ * sequential permutation test (at most `nPermutations` shuffles, stop after LOCKING_STOP_AFTER exceedances). Null when fewer than 2 epochs fit.
  */
 export function eventLocked(
   x: Float32Array | Float64Array,
   fs: number,
   onsetsS: readonly number[],
   windowS: readonly [number, number],
-  nPermutations = 49,
+  nPermutations = LOCKING_MAX_SHUFFLES,
   seed = 1,
 ): EventLockedResult | null {
   const epochs = extractEpochs(x, fs, onsetsS, windowS[0], windowS[1], [windowS[0], 0]);
@@ -212,6 +232,6 @@ export function eventLocked(
   // The share is a ratio of smooth (≲ 40 Hz) evoked power to total power; a ~125 Hz grid estimates it as
   // well as the full rate at a fraction of the cost (our choice).
   const stride = Math.max(1, Math.floor(fs / 125));
-  const test = lockingPermutationTest(x, epochs.eventSamples, epochs.firstOffset, epochs.length, nPermutations, seed, 3, stride);
+  const test = lockingPermutationTest(x, epochs.eventSamples, epochs.firstOffset, epochs.length, nPermutations, seed, LOCKING_STOP_AFTER, stride);
   return { epochs, mean, lower, upper, itc, itcFrequencyHz, test };
 }
