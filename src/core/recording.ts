@@ -81,8 +81,18 @@ export interface SignalBlock {
   readonly sampleTimes?: Float64Array;
 }
 
+/** Mains (power-line) frequency as the recording's *_eeg.json states it (BIDS PowerLineFrequency). */
+export interface PowerLine {
+  /** Hz (50 or 60); null when no sidecar was paired or it gave none ("n/a", missing, or another value). */
+  readonly hz: 50 | 60 | null;
+  /** Base name of the *_eeg.json read, or null when none was paired. */
+  readonly sidecar: string | null;
+}
+
 /** A recording ready for review: info plus the samples of its main-rate channels (µV). */
 export interface LoadedRecording extends RecordingInfo {
+  /** From the paired *_eeg.json (recording-loader.ts); absent when the recording was read without sidecars. */
+  readonly powerLine?: PowerLine;
   readonly signals: SignalBlock;
   /** Electrode positions (unit vectors on the sphere, RAS) for the channels in `signals`, NaN when unknown. */
   readonly positions?: Float64Array;

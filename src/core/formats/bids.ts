@@ -1,6 +1,7 @@
 /**
  * BIDS sidecar files [BIDS specification v1.11, docs/methods.md §12; Pernet et al. 2019 (EEG-BIDS)]:
- * TSV reading and writing, *_channels.tsv, *_electrodes.tsv (+ *_coordsystem.json units) and *_events.tsv.
+ * TSV reading and writing, *_channels.tsv, *_electrodes.tsv (+ *_coordsystem.json units), *_events.tsv and
+ * the PowerLineFrequency of *_eeg.json.
  *
  * TSV rules: tab separators; the first line holds the column names (no blanks, no duplicates); UTF-8;
  * 'n/a' for missing values; strings containing tabs are double-quoted.
@@ -247,6 +248,39 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
   }
   if (skipped > 0) warnings.push(`${fileName}: ${skipped} row${skipped > 1 ? 's' : ''} with onset n/a skipped`);
   return parseOk(out, warnings);
+}
+
+/**
+ * The fields Winnow reads from a *_eeg.json recording sidecar. BIDS specification v1.11, EEG section
+ * ("Sidecar JSON"): PowerLineFrequency is REQUIRED, the mains frequency in Hz (50 or 60) at the place of
+ * recording, or "n/a" when unknown.
+ */
+export interface EegSidecar {
+  /** Hz; null when the field is absent or "n/a". */
+  readonly powerLineFrequency: number | null;
+}
+
+/**
+ * Parses a *_eeg.json. Fails (code 'bad-value') when the text is not a JSON object; a PowerLineFrequency
+ * that is missing, "n/a", or not a positive number gives null (with a warning for anything other than "n/a").
+ */
+export function parseEegJson(text: string, fileName: string): ParseResult<EegSidecar> {
+  let json: unknown;
+  try {
+    json = JSON.parse(text.charCodeAt(0) === 0xfeff ? text.slice(1) : text);
+  } catch (e) {
+    return parseFail({ code: 'bad-value', message: `${fileName}: not valid JSON (${(e as Error).message})`, file: fileName });
+  }
+  if (!json || typeof json !== 'object' || Array.isArray(json))
+    return parseFail({ code: 'bad-value', message: `${fileName}: not a JSON object`, file: fileName });
+  const v = (json as Record<string, unknown>).PowerLineFrequency;
+  const warnings: string[] = [];
+  let powerLineFrequency: number | null = null;
+  if (v === undefined) warnings.push(`${fileName}: no PowerLineFrequency (REQUIRED by BIDS)`);
+  else if (v === 'n/a') powerLineFrequency = null;
+  else if (typeof v === 'number' && Number.isFinite(v) && v > 0) powerLineFrequency = v;
+  else warnings.push(`${fileName}: PowerLineFrequency is ${JSON.stringify(v)}, not a frequency in Hz or "n/a"`);
+  return parseOk({ powerLineFrequency }, warnings);
 }
 
 const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;

@@ -20,12 +20,15 @@
  *   rates stay listed in `channels` and a warning names them.
  * - Positions: electrodes.tsv when given (projected onto a sphere fitted to them, as unit vectors), else the
  *   idealised 10-20/10-10 set. Only EEG-typed channels get positions; unmatched EEG channels are warned about.
+ * - Mains: PowerLineFrequency of the paired `*_eeg.json` (plain `eeg.json` beside `recording.edf`) becomes
+ *   `powerLine` when it is 50 or 60 Hz. A sidecar that is not valid JSON, or any other value, is warned about
+ *   (the load goes on); the evidence then assumes 50 Hz and says so (`mainsFrequency`, power-line.ts).
  */
 import { byteSourceBaseName, type ByteSource } from './byte-source.ts';
-import { parseChannelsTsv, parseElectrodesTsv, parseEventsTsv } from './bids.ts';
+import { parseChannelsTsv, parseEegJson, parseElectrodesTsv, parseEventsTsv } from './bids.ts';
 import { readEdfInfo, readEdfSignals } from './edf.ts';
 import { parseFail, parseOk, type ParseResult } from './parse-result.ts';
-import type { ChannelInfo, LoadedRecording, RecordingEvent } from '../recording.ts';
+import type { ChannelInfo, LoadedRecording, PowerLine, RecordingEvent } from '../recording.ts';
 import { matchMontage, electrodeNameFromLabel } from '../headmodel/montage-1020.ts';
 
 export interface LoadRecordingOptions {
@@ -78,6 +81,22 @@ function pickSidecar(files: ByteSource[], recEntities: Record<string, string>, s
     }
   }
   return best;
+}
+
+/**
+ * The mains frequency stated by the *_eeg.json paired with `recordingName` among `files` (same pairing as the
+ * other sidecars). Parse faults become warnings: the mains frequency only tunes the spectrum measures.
+ */
+export async function readPowerLine(files: ByteSource[], recordingName: string): Promise<{ powerLine: PowerLine; warnings: string[] }> {
+  const side = pickSidecar(files, bidsNameParts(recordingName).entities, 'eeg', '.json');
+  if (!side) return { powerLine: { hz: null, sidecar: null }, warnings: [] };
+  const name = byteSourceBaseName(side.name);
+  const parsed = parseEegJson(await readText(side), name);
+  if (!parsed.ok) return { powerLine: { hz: null, sidecar: name }, warnings: [`${parsed.error.message}; mains frequency not read`] };
+  const warnings = [...parsed.warnings];
+  const v = parsed.value.powerLineFrequency;
+  if (v !== null && v !== 50 && v !== 60) warnings.push(`${name}: PowerLineFrequency ${v} Hz is neither 50 nor 60; not used`);
+  return { powerLine: { hz: v === 50 || v === 60 ? v : null, sidecar: name }, warnings };
 }
 
 async function readText(source: ByteSource): Promise<string> {
@@ -282,6 +301,10 @@ export async function loadRecording(files: ByteSource[], opts: LoadRecordingOpti
       `${recName}: no electrode position for ${unmatched.join(', ')} (${elSide ? `not in ${byteSourceBaseName(elSide.name)}` : 'not a 10-20/10-10 name'})`,
     );
 
-  const loaded: LoadedRecording = { ...info, channels, events, signals, positions, warnings };
+  // mains frequency from *_eeg.json
+  const mains = await readPowerLine(files, rec.name);
+  warnings.push(...mains.warnings);
+
+  const loaded: LoadedRecording = { ...info, channels, events, signals, positions, powerLine: mains.powerLine, warnings };
   return parseOk(loaded, warnings);
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatTsv, parseChannelsTsv, parseElectrodesTsv, parseEventsTsv, parseTsv } from '../../../src/core/formats/bids.ts';
+import { formatTsv, parseChannelsTsv, parseEegJson, parseElectrodesTsv, parseEventsTsv, parseTsv } from '../../../src/core/formats/bids.ts';
 
 describe('parseTsv (BIDS TSV rules, docs/methods.md §12)', () => {
   it('reads columns and rows, keeps n/a as written, accepts CRLF, a BOM and a trailing newline', () => {
@@ -109,5 +109,20 @@ describe('formatTsv', () => {
     const rows = [['tab\there', 'say "hi"', 'n/a']];
     const back = parseTsv(formatTsv(['x', 'y', 'z'], rows), 'r.tsv');
     expect(back.ok && back.value.rows).toEqual(rows);
+  });
+});
+
+describe('parseEegJson (BIDS v1.11 EEG sidecar: PowerLineFrequency REQUIRED, Hz or "n/a")', () => {
+  it('reads PowerLineFrequency in Hz, "n/a" as unknown, and warns when it is missing or not a frequency', () => {
+    expect(parseEegJson('{"TaskName":"x","PowerLineFrequency":60}', 'sub-01_task-x_eeg.json')).toEqual({ ok: true, value: { powerLineFrequency: 60 }, warnings: [] });
+    expect(parseEegJson('{"PowerLineFrequency":"n/a"}', 'a_eeg.json')).toEqual({ ok: true, value: { powerLineFrequency: null }, warnings: [] });
+    const missing = parseEegJson('{"TaskName":"x"}', 'a_eeg.json');
+    expect(missing.ok && missing.value.powerLineFrequency).toBeNull();
+    expect(missing.ok && missing.warnings).toEqual(['a_eeg.json: no PowerLineFrequency (REQUIRED by BIDS)']);
+    const text = parseEegJson('{"PowerLineFrequency":"60 Hz"}', 'a_eeg.json');
+    expect(text.ok && text.warnings[0]).toMatch(/^a_eeg\.json: PowerLineFrequency is "60 Hz"/);
+    const bad = parseEegJson('{', 'a_eeg.json');
+    expect(!bad.ok && bad.error.message).toMatch(/^a_eeg\.json: not valid JSON/);
+    expect(parseEegJson('[60]', 'a_eeg.json').ok).toBe(false);
   });
 });

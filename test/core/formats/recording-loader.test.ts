@@ -3,6 +3,9 @@ import { bytesByteSource, type ByteSource } from '../../../src/core/formats/byte
 import { writeEdf } from '../../../src/core/formats/edf-writer.ts';
 import { bidsNameParts, loadRecording } from '../../../src/core/formats/recording-loader.ts';
 import { standardPositions } from '../../../src/core/headmodel/montage-1020.ts';
+import { mainsFrequency } from '../../../src/core/formats/power-line.ts';
+import { simulateSession } from '../../../src/core/simulate/simulate.ts';
+import { eegJson, sessionEdf } from '../../../src/core/simulate/session-files.ts';
 
 const text = (s: string, name: string): ByteSource => bytesByteSource(new TextEncoder().encode(s), name);
 
@@ -105,5 +108,37 @@ describe('loadRecording', () => {
     expect(sim.ok && sim.warnings).toContain('recording.edf: loaded; neural.edf ignored (one recording at a time)');
     const none = await loadRecording([text('x', 'notes.txt')]);
     expect(!none.ok && none.error.message).toBe('notes.txt: no .edf or .bdf recording among the files');
+  });
+});
+
+describe('loadRecording: mains frequency from *_eeg.json (BIDS v1.11 EEG: PowerLineFrequency, Hz)', () => {
+  it('reads 60 Hz from the simulator\'s sidecar of a 60 Hz session, paired by entities', async () => {
+    const session = simulateSession({ seed: 3, channels: 32, minutes: 0.05, rate: 250, lineHz: 60 });
+    const files = [
+      bytesByteSource(sessionEdf(session, 'data'), 'sub-01_task-x_eeg.edf'),
+      text(eegJson(session), 'sub-01_task-x_eeg.json'),
+      text('{"PowerLineFrequency":50}', 'sub-02_task-x_eeg.json'), // another participant: ignored
+    ];
+    const r = await loadRecording(files);
+    if (!r.ok) throw new Error(r.error.message);
+    expect(r.value.powerLine).toEqual({ hz: 60, sidecar: 'sub-01_task-x_eeg.json' });
+    expect(mainsFrequency(r.value.powerLine)).toMatchObject({ hz: 60, origin: 'sidecar', text: 'mains 60 Hz (from sub-01_task-x_eeg.json)' });
+    expect(mainsFrequency(r.value.powerLine, 50)).toMatchObject({ hz: 50, origin: 'option' });
+  });
+
+  it('pairs plain eeg.json beside recording.edf; without a usable value mains is 50 Hz, assumed, with a warning', async () => {
+    const plain = await loadRecording([recording('recording.edf'), text('{"PowerLineFrequency":50}', 'eeg.json')]);
+    expect(plain.ok && plain.value.powerLine).toEqual({ hz: 50, sidecar: 'eeg.json' });
+    const none = await loadRecording([recording('recording.edf')]);
+    expect(none.ok && none.value.powerLine).toEqual({ hz: null, sidecar: null });
+    expect(none.ok && mainsFrequency(none.value.powerLine).text).toBe('mains 50 Hz (assumed; no PowerLineFrequency)');
+    const na = await loadRecording([recording('sub-01_eeg.edf'), text('{"PowerLineFrequency":"n/a"}', 'sub-01_eeg.json')]);
+    expect(na.ok && mainsFrequency(na.value.powerLine)).toMatchObject({ hz: 50, origin: 'assumed' });
+    const odd = await loadRecording([recording('sub-01_eeg.edf'), text('{"PowerLineFrequency":400}', 'sub-01_eeg.json')]);
+    expect(odd.ok && odd.value.powerLine?.hz).toBeNull();
+    expect(odd.ok && odd.warnings).toContain('sub-01_eeg.json: PowerLineFrequency 400 Hz is neither 50 nor 60; not used');
+    const broken = await loadRecording([recording('sub-01_eeg.edf'), text('{', 'sub-01_eeg.json')]);
+    expect(broken.ok).toBe(true); // a broken sidecar does not stop the load
+    expect(broken.ok && broken.warnings.some((w) => /^sub-01_eeg\.json: not valid JSON .*; mains frequency not read$/.test(w))).toBe(true);
   });
 });
