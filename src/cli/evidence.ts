@@ -1,8 +1,12 @@
 /**
  * `winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv]
- * [--aim erp|oscillations|conservative] [--out FILE] [--line 50|60] [--epoch-event LABEL]
+ * [--aim erp|oscillations|conservative] [--out FILE] [--line-frequency 50|60] [--epoch-event LABEL]
  * [--window TMIN,TMAX]` (issue 6 contract): computes every component's evidence and suggested verdict and
  * writes JSON (to --out atomically, else to stdout).
+ *
+ * Mains frequency: --line-frequency (alias --line) when given; else PowerLineFrequency of the recording's
+ * BIDS *_eeg.json in the recording's folder, paired as the workbench pairs it (recording-loader.ts; plain
+ * eeg.json beside recording.edf); else 50 Hz with a warning that it was assumed.
  *
  * Inputs: the recording's channels at the decomposition channels' sampling rate are read (EOG channels at
  * that rate serve as eye references). Electrode positions come from --positions (BIDS electrodes.tsv,
@@ -13,6 +17,7 @@
  *   format, recording, decomposition   file names as given
  *   aim                                the aim whose suggestion is in `suggestion`
  *   lineHz, epochEvent, epochWindowS   settings used (epochEvent null when no events were epoched)
+ *   lineHzSource                       where lineHz came from: "option", "sidecar" or "assumed"
  *   thresholds                         the threshold table used (src/core/review/thresholds.ts)
  *   warnings                           strings
  *   components: one object per component, in decomposition order —
@@ -40,7 +45,8 @@
  *   Trial stacks (trials × time) are not written; the workbench computes them.
  *   NaN and infinite numbers are written as null.
  */
-import { readFile } from 'node:fs/promises';
+import { readdir, readFile } from 'node:fs/promises';
+import { basename, dirname, join } from 'node:path';
 import { writeFileAtomic } from './atomic-write.ts';
 import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { openFileByteSource } from './node-byte-source.ts';
@@ -49,6 +55,9 @@ import { computeEvidence, DEFAULT_EPOCH_WINDOW_S, type EvidenceEvent } from '../
 import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
 import type { ComponentEvidence } from '../core/evidence/types.ts';
 import { parseElectrodesTsv, parseEventsTsv } from '../core/formats/bids.ts';
+import { bytesByteSource, type ByteSource } from '../core/formats/byte-source.ts';
+import { mainsFrequency } from '../core/formats/power-line.ts';
+import { readPowerLine } from '../core/formats/recording-loader.ts';
 import { matchDecompositionToRecording, parseDecompositionJson } from '../core/formats/decomposition-file.ts';
 import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
 import { electrodeNameFromLabel, matchMontage } from '../core/headmodel/montage-1020.ts';
@@ -57,7 +66,7 @@ import { resolveThresholds } from '../core/review/thresholds.ts';
 import { AIMS, type Aim } from '../core/review/vocabulary.ts';
 
 const USAGE =
-  'usage: winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv] [--aim erp|oscillations|conservative] [--out FILE] [--line 50|60] [--epoch-event LABEL] [--window TMIN,TMAX]';
+  'usage: winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv] [--aim erp|oscillations|conservative] [--out FILE] [--line-frequency 50|60] [--epoch-event LABEL] [--window TMIN,TMAX]';
 
 async function readTextFile(path: string): Promise<string> {
   try {
@@ -66,6 +75,26 @@ async function readTextFile(path: string): Promise<string> {
     const code = (e as NodeJS.ErrnoException).code;
     throw new CliError(`${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : (e as Error).message}`);
   }
+}
+
+/** The *_eeg.json / eeg.json files in the recording's folder, for pairing by BIDS entities (none when unreadable). */
+async function eegSidecarsBeside(recordingPath: string): Promise<ByteSource[]> {
+  const folder = dirname(recordingPath);
+  let names: string[];
+  try {
+    names = await readdir(folder);
+  } catch {
+    return [];
+  }
+  const out: ByteSource[] = [];
+  for (const name of names.filter((n) => /(^|_)eeg\.json$/i.test(n))) {
+    try {
+      out.push(bytesByteSource(await readFile(join(folder, name)), name));
+    } catch {
+      // unreadable sidecar: skipped, as if absent
+    }
+  }
+  return out;
 }
 
 /** Unit directions for `labels` from electrodes.tsv positions (mm) projected onto their fitted sphere. */
@@ -161,6 +190,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     aim: { type: 'string' },
     out: { type: 'string' },
     line: { type: 'string' },
+    'line-frequency': { type: 'string' },
     'epoch-event': { type: 'string' },
     window: { type: 'string' },
   });
@@ -168,8 +198,11 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   const [recordingPath, decompositionPath] = positionals;
   const aim = (values.aim ?? 'erp') as Aim;
   if (!AIMS.includes(aim)) throw new CliError(`winnow evidence: --aim must be erp, oscillations or conservative, got "${values.aim}"`);
-  const lineHz = values.line === undefined ? 50 : Number(values.line);
-  if (lineHz !== 50 && lineHz !== 60) throw new CliError(`winnow evidence: --line must be 50 or 60, got "${values.line}"`);
+  const lineOption = values['line-frequency'] !== undefined ? '--line-frequency' : '--line';
+  const lineText = values['line-frequency'] ?? values.line;
+  const lineOverride = lineText === undefined ? undefined : Number(lineText);
+  if (lineOverride !== undefined && lineOverride !== 50 && lineOverride !== 60)
+    throw new CliError(`winnow evidence: ${lineOption} must be 50 or 60 (Hz), got "${lineText}"`);
   let epochWindow: [number, number] = [DEFAULT_EPOCH_WINDOW_S[0], DEFAULT_EPOCH_WINDOW_S[1]];
   if (values.window !== undefined) {
     const parts = values.window.split(',').map((s) => Number(s.trim()));
@@ -236,6 +269,14 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     if (values['epoch-event'] !== undefined && !events.some((e) => e.label === values['epoch-event'] || e.label.split('/')[0] === values['epoch-event']))
       throw new CliError(`winnow evidence: --epoch-event "${values['epoch-event']}" matches no event`);
 
+    // mains frequency: option, else the recording's *_eeg.json, else 50 Hz assumed
+    const sidecar = lineOverride === undefined ? await readPowerLine(await eegSidecarsBeside(recordingPath), basename(recordingPath)) : null;
+    for (const w of sidecar?.warnings ?? []) io.stderr(`warning: ${w}\n`);
+    const mains = mainsFrequency(sidecar?.powerLine, lineOverride as 50 | 60 | undefined);
+    if (mains.origin === 'assumed')
+      io.stderr(`warning: ${basename(recordingPath)}: no PowerLineFrequency in a paired *_eeg.json and no --line-frequency; mains assumed to be 50 Hz\n`);
+    const lineHz = mains.hz;
+
     const thresholds = resolveThresholds();
     const result = computeEvidence({
       data: block.data,
@@ -249,7 +290,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
       events,
       epochEvent: values['epoch-event'],
       window: epochWindow,
-      lineHz: lineHz as 50 | 60,
+      lineHz,
       aim,
       thresholds,
       // Sequential time-locking test up to 999 shuffles, so permutationP can reach 1/1000 (time-locking.ts).
@@ -262,6 +303,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
       decomposition: decompositionPath,
       aim,
       lineHz,
+      lineHzSource: mains.origin,
       epochEvent: result.epochEvent,
       epochWindowS: epochWindow,
       thresholds,

@@ -14,6 +14,7 @@ import type { WorkbenchServices } from './services.ts';
 import { runDecomposition } from '../bridge/decomposition-client.ts';
 import { computeEvidenceInWorker } from '../bridge/evidence-client.ts';
 import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
+import { mainsFrequency } from '../core/formats/power-line.ts';
 import type { DecomposeInput } from '../core/ica/decompose.ts';
 import type { LoadedRecording } from '../core/recording.ts';
 
@@ -104,6 +105,8 @@ export const browserServices: WorkbenchServices = {
         decomposition,
         events: recording.events.filter((e) => e.source !== 'boundary').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label, ...(e.responseTime !== undefined ? { responseTime: e.responseTime } : {}) })),
         aim,
+        // PowerLineFrequency of the paired *_eeg.json, else 50 Hz (the recording summary says which).
+        lineHz: mainsFrequency(recording.powerLine).hz,
         // Sequential test up to 999 shuffles (p can reach 1/1000); unlocked components stop after ~tens.
         permutations: LOCKING_MAX_SHUFFLES,
       },

@@ -153,3 +153,43 @@ describe('winnow evidence (issue 6 contract)', () => {
     expect((await evidence(recording)).code).toBe(2);
   });
 });
+
+describe('winnow evidence: mains frequency (BIDS PowerLineFrequency, --line-frequency)', () => {
+  // A simulated 60 Hz session (mains on T8, FC6 and C4; src/core/simulate), read through an identity
+  // decomposition of four channels so each component is one channel.
+  const simDir = join(dir, 'sim60');
+  const picked = ['T8', 'FC6', 'C4', 'Cz'];
+  const identity = new Float64Array(16);
+  for (let i = 0; i < 4; i++) identity[i * 4 + i] = 1;
+  const simDec = join(dir, 'sim-dec.json');
+  writeFileSync(simDec, serializeDecomposition({ ...dec, channels: picked, nChannels: 4, nComponents: 4, mixing: identity, unmixing: identity, rank: 4, preprocessing: { ...dec.preprocessing, excludedChannels: [] } }));
+
+  it('uses 60 Hz from the simulator\'s eeg.json, lets --line-frequency override it, and warns when it assumes 50 Hz', async () => {
+    const sim = memoryIo();
+    expect(await main(['simulate', '--out', simDir, '--seed', '2', '--minutes', '0.5', '--line', '60'], sim)).toBe(0);
+    expect(JSON.parse(readFileSync(join(simDir, 'eeg.json'), 'utf8')).PowerLineFrequency).toBe(60);
+    const rec = join(simDir, 'recording.edf');
+
+    const fromSidecar = await evidence(rec, simDec);
+    expect(fromSidecar.code).toBe(0);
+    expect(fromSidecar.err).not.toMatch(/assumed/);
+    const o60 = JSON.parse(fromSidecar.out);
+    expect(o60.lineHz).toBe(60);
+    expect(o60.lineHzSource).toBe('sidecar');
+
+    const forced = await evidence(rec, simDec, '--line-frequency', '50');
+    const o50 = JSON.parse(forced.out);
+    expect(o50.lineHz).toBe(50);
+    expect(o50.lineHzSource).toBe('option');
+    // T8 carries the 60 Hz mains: its mains share is large at 60 Hz and small when 50 Hz is looked at
+    const t8 = (o: { components: { strongestChannel: { label: string }; mainsShare: number }[] }) => o.components.find((c) => c.strongestChannel.label === 'T8')!.mainsShare;
+    expect(t8(o60)).toBeGreaterThan(5 * t8(o50));
+
+    rmSync(join(simDir, 'eeg.json'));
+    const assumed = await evidence(rec, simDec);
+    expect(JSON.parse(assumed.out)).toMatchObject({ lineHz: 50, lineHzSource: 'assumed' });
+    expect(assumed.err).toMatch(/warning: recording\.edf: no PowerLineFrequency .*mains assumed to be 50 Hz/);
+
+    expect(await evidence(rec, simDec, '--line-frequency', '55')).toMatchObject({ code: 2, err: expect.stringMatching(/--line-frequency must be 50 or 60 \(Hz\), got "55"/) });
+  });
+});

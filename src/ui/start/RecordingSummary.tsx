@@ -1,5 +1,6 @@
 /** What was read from a recording: format, duration, rates, every channel and the events (plain text). */
 import { useMemo } from 'react';
+import { mainsFrequency } from '../../core/formats/power-line.ts';
 import type { LoadedRecording } from '../../core/recording.ts';
 
 /** Event labels with their counts, most frequent first. */
@@ -32,6 +33,7 @@ export function RecordingSummary({ recording }: { recording: LoadedRecording }) 
         <dt>Sample rates</dt><dd data-testid="recording-rates">{rates.map((r) => `${r} Hz`).join(', ')}</dd>
         <dt>Channels</dt><dd>{recording.channels.length} ({recording.signals.labels.length} at {recording.signals.sampleRate} Hz read for review)</dd>
         <dt>Start</dt><dd>{recording.header.start}</dd>
+        <dt>Mains</dt><dd data-testid="recording-mains">{mainsFrequency(recording.powerLine).text}</dd>
       </dl>
       {recording.warnings.length > 0 && (
         <ul className="warnings" aria-label="Warnings">
