@@ -10,13 +10,16 @@
  * | signature                      | erp        | oscillations | conservative            |
  * |--------------------------------|------------|--------------|-------------------------|
  * | blink / eye-movement           | remove     | remove       | remove                  |
- * | muscle, not time-locked        | keep       | remove       | remove only if strong   |
+ * | muscle (spectrum AND spatial), not time-locked | keep | remove | remove only if strong |
  * | muscle, time-locked            | remove     | remove       | remove only if strong   |
- * | cardiac, line-noise, electrode | remove     | remove       | remove                  |
+ * | one electrode (contact)       | remove     | remove       | remove  (before all others) |
+ * | cardiac, mains                 | remove     | remove       | remove                  |
  * | motion (step-locked)           | remove     | remove       | remove                  |
  * | neural                         | keep       | keep         | keep                    |
  * | weak artifact + strong brain   | undecided  | undecided    | keep                    |
+ * | two strong conflicting ones   | remove (mixed) | remove (mixed) | undecided (mixed)  |
  * | several artifact signatures    | the most specific one names it (SIGNATURE_PRECEDENCE)   |
+ * | flat spectrum, no spatial support (sensor noise) | keep (unclear) | keep | keep        |
  * | nothing recognised (unclear)   | keep       | keep         | keep                    |
  *
  * Common practice encoded (issue 6, docs/methods.md §14): ocular components go for every aim; muscle that is not
@@ -26,10 +29,12 @@
  * brain evidence: a dipole inside the brain with 1/f, alpha or time-locking) is left undecided for the
  * reviewer except under `conservative`, which keeps it. A well-fitted dipole (low
  * RV) inside the brain with a 1/f spectrum and an alpha peak speaks for neural origin and, when present,
- * outweighs a weak muscle signature.
+ * outweighs a weak muscle signature. Issue 10 item 2 (docs/suggestion-rules.md has the full table with every
+ * number's source): contact first whatever the spectrum; muscle needs spatial support; two strong
+ * conflicting artifact signatures are "mixed"; `suggestWithRules` lists the threshold comparisons that fired.
  */
 import type { ComponentEvidence } from '../evidence/types.ts';
-import { defaultThresholds, type Thresholds } from './thresholds.ts';
+import { defaultThresholds, thresholdSources, type ThresholdSource, type Thresholds } from './thresholds.ts';
 import type { Aim, ReasonCode, Suggestion } from './vocabulary.ts';
 
 /** What the rules read: the evidence without its suggestions. */
@@ -37,21 +42,56 @@ export type SuggestionInput = Omit<ComponentEvidence, 'suggestions'>;
 
 export type Signature = 'blink' | 'gaze' | 'muscle' | 'cardiac' | 'mains' | 'contact' | 'movement' | 'neural';
 
+/** One threshold comparison that held: `value direction threshold` (e.g. focality 0.91 ≥ 0.6). */
+export interface FiredRule {
+  /** Evidence field (dotted path into ComponentEvidence), e.g. 'focality.share'. */
+  readonly measure: string;
+  readonly value: number;
+  readonly threshold: number;
+  readonly direction: '≥' | '≤';
+  /** Where the threshold comes from (thresholds.ts): 'common practice', 'ours', '… (from memory)'. */
+  readonly source: ThresholdSource;
+}
+
 export interface Finding {
   readonly signature: Signature;
   /** Unmistakable: enough for the conservative aim to remove. */
   readonly strong: boolean;
   readonly because: string[];
+  /** The threshold comparisons behind this finding. */
+  readonly rules?: FiredRule[];
 }
 
 export interface Recognition {
   readonly findings: Finding[];
+  /**
+   * A flat or rising spectrum above 20 Hz without the spatial support muscle needs (issue 10 item 2b): the
+   * sentences saying so, or null. Tiny and diffuse, it is read as sensor noise.
+   */
+  readonly unsupportedHighFrequency: { readonly sensorNoise: boolean; readonly because: string[]; readonly rules: FiredRule[] } | null;
   /** Whether the component is locked to the epoched events (null without events). */
   readonly timeLocked: boolean | null;
   readonly timeLockingSentence: string | null;
 }
 
 const pct = (v: number) => `${Math.round(v * 100)} %`;
+
+/** The comparison `value ≥ t[key]` (or ≤) as a fired rule, or null when it does not hold (NaN never holds). */
+function check(measure: string, value: number, t: Thresholds, key: keyof Thresholds, direction: '≥' | '≤'): FiredRule | null {
+  const threshold = t[key];
+  const holds = direction === '≥' ? value >= threshold : value <= threshold;
+  return holds ? { measure, value, threshold, direction, source: thresholdSources[key] } : null;
+}
+const some = (...r: (FiredRule | null)[]): FiredRule[] => r.filter((x): x is FiredRule => x !== null);
+
+/**
+ * Electrodes on the rim of the 10-20 / 10-10 montage (frontal pole, lateral frontal, temporal, lower parietal,
+ * occipital, mastoids/ears): the sites over frontalis, temporalis and neck muscles (common practice).
+ */
+const RIM_ELECTRODE = /^(fp[z12]?|af[78]|f[789]|f10|ft\d+|t\d+|tp\d+|p[789]|p10|po[789]|po10|o[z12]|i[z12]?|a[12]|m[12])$/i;
+export function isRimElectrode(label: string): boolean {
+  return RIM_ELECTRODE.test(label.trim());
+}
 const fix = (v: number, d = 2) => (Number.isFinite(v) ? v.toFixed(d) : 'n/a');
 
 /** Lists every signature the evidence shows, with sentences and numbers. */
@@ -87,7 +127,13 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
     if (slow && (eogHit || frontal)) because.push(`${pct(e.lowFrequencyShare)} of 1–45 Hz power below 4 Hz`);
     if (e.kurtosis >= t.blinkKurtosis && (eogHit || frontal)) because.push(`excess kurtosis ${fix(e.kurtosis, 1)}: sparse large deflections`);
     const hitsH = (eog.horizontal ?? 0) > rV + 0.1;
-    if (!hitsH && ((eogHit && (frontal || slow)) || (frontal && slow))) findings.push({ signature: 'blink', strong: eogHit || (frontal && slow), because });
+    const rules = some(
+      check('eogCorrelation.vertical', rV, t, 'eogCorrelation', '≥'),
+      frontal ? check('frontalGradient', e.frontalGradient, t, 'blinkFrontalGradient', '≥') : null,
+      check('lowFrequencyShare', e.lowFrequencyShare, t, 'ocularLowFrequencyShare', '≥'),
+      eogHit || frontal ? check('kurtosis', e.kurtosis, t, 'blinkKurtosis', '≥') : null,
+    );
+    if (!hitsH && ((eogHit && (frontal || slow)) || (frontal && slow))) findings.push({ signature: 'blink', strong: eogHit || (frontal && slow), because, rules });
   }
 
   // Horizontal eye movement: horizontal EOG, antisymmetric frontal map, steps
@@ -106,41 +152,55 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
     // map over temporal or parietal sites is more likely a pair of brain sources merged into one component.
     const frontal = e.frontalGradient >= 1;
     if (anti && frontal && !eogHit) because.push(`frontal-pole weight ${fix(e.frontalGradient, 1)}× the rest`);
+    const rules = some(
+      eogHit ? check('eogCorrelation.horizontal', rH, t, 'eogCorrelation', '≥') : null,
+      check('lateralAntisymmetry', e.lateralAntisymmetry, t, 'gazeAntisymmetry', '≥'),
+      check('lowFrequencyShare', e.lowFrequencyShare, t, 'ocularLowFrequencyShare', '≥'),
+      check('stepLikeness', e.stepLikeness, t, 'gazeStepLikeness', '≥'),
+    );
     if ((eogHit && (anti || slow || steps)) || (anti && slow && frontal))
-      findings.push({ signature: 'gaze', strong: eogHit || (anti && slow && frontal && steps), because });
+      findings.push({ signature: 'gaze', strong: eogHit || (anti && slow && frontal && steps), because, rules });
   }
 
-  // Single electrode
-  if (e.focality.share >= t.electrodeFocality)
+  // Single electrode (takes precedence over every other signature: SIGNATURE_PRECEDENCE)
+  const focalRule = check('focality.share', e.focality.share, t, 'electrodeFocality', '≥');
+  if (focalRule)
     findings.push({
       signature: 'contact',
       strong: true,
       because: [`one electrode (${e.focality.channel}) carries ${pct(e.focality.share)} of the map`],
+      rules: [focalRule],
     });
 
   // Line noise
-  if (e.mainsShare >= t.mainsShare)
+  const mainsRule = check('mainsShare', e.mainsShare, t, 'mainsShare', '≥');
+  if (mainsRule)
     findings.push({
       signature: 'mains',
       strong: true,
+      rules: [mainsRule],
       because: [
         `${pct(e.mainsShare)} of the power within ±1 Hz of the line frequency and its harmonics${Number.isFinite(e.linePeakRatio) ? ` (peak ${fix(e.linePeakRatio, 0)}× its neighbours)` : ''}`,
       ],
     });
 
   // Cardiac
-  if (e.cardiac.bpm !== null && e.cardiac.peak >= t.cardiacPeak)
+  const cardiacRule = e.cardiac.bpm !== null ? check('cardiac.peak', e.cardiac.peak, t, 'cardiacPeak', '≥') : null;
+  if (cardiacRule && e.cardiac.bpm !== null)
     findings.push({
       signature: 'cardiac',
       strong: true,
+      rules: [cardiacRule],
       because: [`periodic at ${Math.round(e.cardiac.bpm)} beats per minute (autocorrelation ${fix(e.cardiac.peak)})`],
     });
 
   // Motion
-  if (e.stepLocking && e.stepLocking.share >= t.movementStepLocking)
+  const stepRule = e.stepLocking ? check('stepLocking.share', e.stepLocking.share, t, 'movementStepLocking', '≥') : null;
+  if (e.stepLocking && stepRule)
     findings.push({
       signature: 'movement',
       strong: true,
+      rules: [stepRule],
       because: [`${pct(e.stepLocking.share)} of its activity locked to "${e.stepLocking.event}" events (${e.stepLocking.nEpochs} steps)`],
     });
 
@@ -149,17 +209,57 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
   const oneOverF = e.oneOverF.exponent >= t.neuralExponentMin && e.oneOverF.exponent <= t.neuralExponentMax;
   const alpha = e.alphaPeakHz !== null && e.alphaProminence >= t.alphaProminence;
 
-  // Muscle: broadband, flat or rising above 20 Hz, and not a well-fitted dipole inside the brain unless
-  // the high-frequency share is unmistakable (sparse evoked activity also looks flat between responses).
-  const hf = e.highFrequencyShare >= t.muscleHighFrequencyShare && e.highFrequencySlope >= t.muscleSlope;
-  const strongHf = e.highFrequencyShare >= t.muscleHighFrequencyShareStrong;
-  if (hf && (!dipolar || strongHf)) {
-    const because = [
-      `${pct(e.highFrequencyShare)} of the power from 2 Hz to the line band lies above 20 Hz, spectrum ${e.highFrequencySlope >= -0.3 ? 'flat or rising' : 'falling only slowly'} above 20 Hz (log–log slope ${fix(e.highFrequencySlope, 1)})`,
-    ];
-    if (e.dipole && (e.dipole.atBoundary || e.dipole.residualVariance > t.dipoleResidualVariance))
-      because.push(`dipole fits poorly or at the boundary (residual variance ${pct(e.dipole.residualVariance)})`);
-    findings.push({ signature: 'muscle', strong: strongHf && !alpha, because });
+  // Muscle (issue 10 item 2b) needs BOTH a spectrum flat or rising above 20 Hz AND spatial support — a focal
+  // map, a map strongest at a rim electrode, or a shallow / boundary dipole — and is not read on a
+  // well-fitted dipole inside the brain unless the high-frequency share is unmistakable (sparse evoked
+  // activity also looks flat between responses). A flat spectrum without spatial support is not muscle:
+  // tiny and diffuse it is sensor noise (`unsupportedHighFrequency`).
+  const hfShareRule = check('highFrequencyShare', e.highFrequencyShare, t, 'muscleHighFrequencyShare', '≥');
+  const hfSlopeRule = check('highFrequencySlope', e.highFrequencySlope, t, 'muscleSlope', '≥');
+  const hf = hfShareRule !== null && hfSlopeRule !== null;
+  const strongHfRule = check('highFrequencyShare', e.highFrequencyShare, t, 'muscleHighFrequencyShareStrong', '≥');
+  const strongHf = strongHfRule !== null;
+  let unsupportedHighFrequency: Recognition['unsupportedHighFrequency'] = null;
+  if (hf) {
+    const spectrumSentence = `${pct(e.highFrequencyShare)} of the power from 2 Hz to the line band lies above 20 Hz, spectrum ${e.highFrequencySlope >= -0.3 ? 'flat or rising' : 'falling only slowly'} above 20 Hz (log–log slope ${fix(e.highFrequencySlope, 1)})`;
+    const spectrumRules = some(hfShareRule, hfSlopeRule, strongHfRule);
+    const spatial: string[] = [];
+    const spatialRules: FiredRule[] = [];
+    const focalMuscle = check('focality.share', e.focality.share, t, 'muscleFocality', '≥');
+    const rimFocal = isRimElectrode(e.focality.channel || e.strongestChannel.label) ? check('focality.share', e.focality.share, t, 'muscleRimFocality', '≥') : null;
+    if (focalMuscle) {
+      spatial.push(`patchy map: ${pct(e.focality.share)} of its energy on ${e.focality.channel}`);
+      spatialRules.push(focalMuscle);
+    } else if (rimFocal) {
+      spatial.push(`map strongest at ${e.focality.channel || e.strongestChannel.label}, on the rim of the montage (${pct(e.focality.share)} of its energy there)`);
+      spatialRules.push(rimFocal);
+    }
+    if (e.dipole) {
+      const [x, y, z] = e.dipole.position;
+      const r = Math.hypot(x, y, z);
+      const shallow = check('dipole.distanceFromCentreMm', r, t, 'muscleDipoleDepthMm', '≥');
+      if (e.dipole.atBoundary) {
+        spatial.push(`dipole fit stops at the edge of the brain (${Math.round(r)} mm from the centre): the source is outside it`);
+        spatialRules.push({ measure: 'dipole.atBoundary', value: 1, threshold: 1, direction: '≥', source: 'ours' });
+      } else if (shallow) {
+        spatial.push(`shallow dipole, ${Math.round(r)} mm from the centre`);
+        spatialRules.push(shallow);
+      }
+    }
+    if (spatial.length > 0 && (!dipolar || strongHf)) {
+      const because = [spectrumSentence, ...spatial];
+      if (e.dipole && !e.dipole.atBoundary && e.dipole.residualVariance > t.dipoleResidualVariance)
+        because.push(`dipole fits poorly (residual variance ${pct(e.dipole.residualVariance)})`);
+      findings.push({ signature: 'muscle', strong: strongHf && !alpha, because, rules: [...spectrumRules, ...spatialRules] });
+    } else if (spatial.length === 0) {
+      const tiny = check('varianceShare', e.varianceShare, t, 'noiseVarianceShare', '≤');
+      const because = [
+        spectrumSentence,
+        `but no spatial support for muscle: diffuse map (${pct(e.focality.share)} of its energy on the strongest electrode, ${e.focality.channel || e.strongestChannel.label})${e.dipole ? ', dipole deep inside the head' : ''}`,
+      ];
+      if (tiny) because.push(`${fix(e.varianceShare * 100, 1)} % of the variance: a flat, diffuse, tiny component looks like sensor noise, not muscle`);
+      unsupportedHighFrequency = { sensorNoise: tiny !== null, because, rules: some(hfShareRule, hfSlopeRule, tiny) };
+    }
   }
 
   const artifacts = findings.filter((f) => f.signature !== 'neural');
@@ -171,74 +271,146 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
   const clean = artifacts.length === 0;
   const neural =
     (clean && ((dipolar && (oneOverF || alpha || timeLocked === true)) || (oneOverF && (alpha || timeLocked === true)))) || (dipolar && alpha);
-  if (neural) findings.push({ signature: 'neural', strong: dipolar && (alpha || oneOverF || timeLocked === true), because: neuralBecause });
-  return { findings, timeLocked, timeLockingSentence };
+  if (neural) {
+    const rules = some(
+      e.dipole ? check('dipole.residualVariance', e.dipole.residualVariance, t, 'dipoleResidualVariance', '≤') : null,
+      oneOverF ? check('oneOverF.exponent', e.oneOverF.exponent, t, 'neuralExponentMin', '≥') : null,
+      oneOverF ? check('oneOverF.exponent', e.oneOverF.exponent, t, 'neuralExponentMax', '≤') : null,
+      alpha ? check('alphaProminence', e.alphaProminence, t, 'alphaProminence', '≥') : null,
+      timeLocked && e.erp ? check('erp.timeLockingStrength', e.erp.timeLockingStrength, t, 'timeLockingStrength', '≥') : null,
+    );
+    findings.push({ signature: 'neural', strong: dipolar && (alpha || oneOverF || timeLocked === true), because: neuralBecause, rules });
+  }
+  return { findings, timeLocked, timeLockingSentence, unsupportedHighFrequency };
 }
 
-/** Which artifact signature names the component when several are present (most specific first; ours). */
-export const SIGNATURE_PRECEDENCE: readonly Signature[] = ['blink', 'gaze', 'mains', 'movement', 'cardiac', 'muscle', 'contact'];
+/**
+ * Which artifact signature names the component when several are present (most specific first; ours).
+ * `contact` comes first (issue 10 item 2a): a map with most of its energy on one electrode is a contact
+ * fault whatever its spectrum — a loose electrode picks up line noise, cable sway and broadband noise that
+ * read as mains, movement or muscle — and a blink or eye-movement map always spans two or more electrodes.
+ */
+export const SIGNATURE_PRECEDENCE: readonly Signature[] = ['contact', 'blink', 'gaze', 'mains', 'movement', 'cardiac', 'muscle'];
+
+/** Artifact families whose strong signatures contradict each other: their origins differ (ours, issue 10 item 2d). */
+const FAMILY: Partial<Record<Signature, 'ocular' | 'muscle' | 'cardiac'>> = { blink: 'ocular', gaze: 'ocular', muscle: 'muscle', cardiac: 'cardiac' };
+
+/** A suggestion with the threshold comparisons that led to it. */
+export interface SuggestionWithRules {
+  readonly suggestion: Suggestion;
+  readonly rules: FiredRule[];
+}
 
 /**
  * The suggested verdict for one component under one aim, with the reason code and the evidence sentences.
  * See the rule table at the top of this file.
  */
 export function suggestVerdict(e: SuggestionInput, aim: Aim, t: Thresholds = defaultThresholds): Suggestion {
-  const { findings, timeLocked, timeLockingSentence } = recogniseComponent(e, t);
+  return suggestWithRules(e, aim, t).suggestion;
+}
+
+/**
+ * `suggestVerdict` with the rules that fired: every threshold comparison behind the findings the suggestion
+ * names (its own and the ones it lists as "also"), each with its source. Precedence, in order:
+ * 1. contact (one electrode) → remove for every aim;
+ * 2. strong neural evidence against only weak artifact signatures → mixed (undecided; keep under conservative);
+ * 3. two strong signatures of different artifact families (ocular, muscle, cardiac) → mixed (remove for erp and
+ *    oscillations: both are artifacts; undecided under conservative);
+ * 4. the first artifact signature in SIGNATURE_PRECEDENCE and its aim rule;
+ * 5. otherwise neural → keep; a flat spectrum without spatial support → unclear, keep; nothing → unclear, keep.
+ */
+export function suggestWithRules(e: SuggestionInput, aim: Aim, t: Thresholds = defaultThresholds): SuggestionWithRules {
+  const { findings, timeLocked, timeLockingSentence, unsupportedHighFrequency } = recogniseComponent(e, t);
   const neural = findings.find((f) => f.signature === 'neural');
   const artifacts = findings
     .filter((f) => f.signature !== 'neural')
     .sort((a, b) => SIGNATURE_PRECEDENCE.indexOf(a.signature) - SIGNATURE_PRECEDENCE.indexOf(b.signature));
+  const rulesOf = (fs: readonly Finding[]) => fs.flatMap((f) => f.rules ?? []);
+  const out = (suggestion: Suggestion, rules: FiredRule[]): SuggestionWithRules => ({ suggestion, rules });
 
   if (artifacts.length === 0) {
-    if (neural) return { verdict: 'keep', reason: 'neural', because: neural.because };
+    if (neural) return out({ verdict: 'keep', reason: 'neural', because: neural.because }, rulesOf([neural]));
+    if (unsupportedHighFrequency) {
+      const because = [...unsupportedHighFrequency.because, 'a component that cannot be identified is kept (common practice)'];
+      return out({ verdict: 'keep', reason: 'unclear', because }, unsupportedHighFrequency.rules);
+    }
     const because = ['no artifact signature found'];
     if (timeLockingSentence) because.push(timeLockingSentence);
     because.push('a component that cannot be identified is kept (common practice)');
-    return { verdict: 'keep', reason: 'unclear', because };
+    return out({ verdict: 'keep', reason: 'unclear', because }, []);
   }
 
   const a = artifacts[0];
   const ocular = a.signature === 'blink' || a.signature === 'gaze';
   const others = artifacts.slice(1).map((f) => f.signature);
   const also = others.length ? [`also shows signs of ${others.join(' and ')}: ${artifacts.slice(1).flatMap((f) => f.because).join('; ')}`] : [];
+  const rules = rulesOf(artifacts);
+
+  if (a.signature === 'contact') {
+    return out({ verdict: 'remove', reason: 'contact', because: [...a.because, ...also] }, rules);
+  }
 
   // Brain-like evidence against a weak artifact signature (ocular ones included: an ocular reading from
   // the map alone, without an EOG correlation, can be two brain sources merged): leave it to the reviewer.
   if (neural?.strong && artifacts.every((f) => !f.strong)) {
-    return {
-      verdict: aim === 'conservative' ? 'keep' : 'undecided',
-      reason: 'mixed',
-      because: [`signs of ${artifacts.map((f) => f.signature).join(' and ')} alongside brain-like evidence`, ...artifacts.flatMap((f) => f.because), ...neural.because],
-    };
+    return out(
+      {
+        verdict: aim === 'conservative' ? 'keep' : 'undecided',
+        reason: 'mixed',
+        because: [`signs of ${artifacts.map((f) => f.signature).join(' and ')} alongside brain-like evidence`, ...artifacts.flatMap((f) => f.because), ...neural.because],
+      },
+      [...rules, ...rulesOf([neural])],
+    );
+  }
+
+  // Two strong signatures that contradict each other (e.g. an unmistakable blink and unmistakable muscle):
+  // the component mixes two artifacts, or one of the readings is wrong. Both are artifacts, so the data are
+  // better without it for erp and oscillations; the conservative aim leaves it to the reviewer.
+  const strongFamilies = [...new Set(artifacts.filter((f) => f.strong && FAMILY[f.signature]).map((f) => FAMILY[f.signature]))];
+  if (strongFamilies.length >= 2) {
+    const conflicting = artifacts.filter((f) => f.strong && FAMILY[f.signature]);
+    return out(
+      {
+        verdict: aim === 'conservative' ? 'undecided' : 'remove',
+        reason: 'mixed',
+        because: [
+          `strong signs of both ${conflicting.map((f) => f.signature).join(' and ')}`,
+          ...artifacts.flatMap((f) => f.because),
+          aim === 'conservative' ? 'two conflicting artifact readings are left to the reviewer under the conservative aim' : 'both readings are artifacts, so it goes either way',
+        ],
+      },
+      rules,
+    );
   }
 
   const reason: ReasonCode = a.signature;
   const because = [...a.because, ...also];
   if (ocular) {
     because.push('ocular components are removed for every aim');
-    return { verdict: 'remove', reason, because };
+    return out({ verdict: 'remove', reason, because }, rules);
   }
   if (a.signature === 'muscle') {
     if (aim === 'erp') {
       if (timeLocked === true) {
         if (timeLockingSentence) because.push(timeLockingSentence);
         because.push('time-locked muscle would survive averaging');
-        return { verdict: 'remove', reason, because };
+        const lockRule = e.erp ? check('erp.timeLockingStrength', e.erp.timeLockingStrength, t, 'timeLockingStrength', '≥') : null;
+        return out({ verdict: 'remove', reason, because }, [...rules, ...some(lockRule)]);
       }
       because.push(timeLockingSentence ?? 'no events to test time-locking');
       because.push('muscle activity that is not time-locked averages out of ERPs (a low-pass filter helps further)');
-      return { verdict: 'keep', reason, because };
+      return out({ verdict: 'keep', reason, because }, rules);
     }
     if (aim === 'oscillations') {
       because.push('muscle power biases induced power above ~15 Hz');
-      return { verdict: 'remove', reason, because };
+      return out({ verdict: 'remove', reason, because }, rules);
     }
   }
   if (aim === 'conservative' && !a.strong) {
     because.push('not unmistakable, so kept under the conservative aim');
-    return { verdict: 'keep', reason, because };
+    return out({ verdict: 'keep', reason, because }, rules);
   }
-  return { verdict: 'remove', reason, because };
+  return out({ verdict: 'remove', reason, because }, rules);
 }
 
 /** Suggestions for all three aims at once. */

@@ -43,7 +43,18 @@ export interface Thresholds {
   readonly neuralExponentMax: number;
   /** Alpha peak height above the 1/f fit (log10) counted as a real peak. */
   readonly alphaProminence: number;
+  /** Map energy share on one electrode at or above which a map is focal enough to support a muscle reading. */
+  readonly muscleFocality: number;
+  /** Lowest focality at which a strongest electrode on the rim of the montage supports a muscle reading. */
+  readonly muscleRimFocality: number;
+  /** Dipole distance from the sphere centre (mm) at or above which it counts as shallow (muscle support). */
+  readonly muscleDipoleDepthMm: number;
+  /** Variance share (0…1) at or below which a flat, spatially diffuse component is read as sensor noise. */
+  readonly noiseVarianceShare: number;
 }
+
+/** Where each default comes from, in one word or two: 'common practice', 'ours', or with '(from memory)'. */
+export type ThresholdSource = 'common practice' | 'common practice (from memory)' | 'ours';
 
 export const defaultThresholds: Thresholds = {
   // From memory: correlation with EOG channels of ~0.7 and above is a usual cut in correlation-based ocular
@@ -93,6 +104,46 @@ export const defaultThresholds: Thresholds = {
   neuralExponentMax: 3.5,
   // docs/methods.md §3: peak ≥ ~0.1 log10 units above the 1/f fit (from memory there).
   alphaProminence: 0.1,
+  // Ours (issue 10): scalp muscle (frontalis, temporalis, neck) lies under a few electrodes at the rim of the
+  // montage, so its maps are patchy (common practice); a quarter of the map energy on one electrode is
+  // "moderately focal" — a diffuse map over 32 channels puts ~3 % on each, a single bad electrode ≥ 60 %.
+  muscleFocality: 0.25,
+  // Ours: with the strongest electrode on the rim, a tenth of the energy on it is enough (diffuse maps stay
+  // near 1/nChannels, ≤ 0.06 on 19+ channels).
+  muscleRimFocality: 0.1,
+  // Ours: 70 mm from the centre of a 90 mm sphere (0.78 R; the fitter stops at 0.85 R, brain shell 0.87 R) is
+  // the outer cortex or beyond; muscle dipoles fitted inside the brain end up there or at the boundary.
+  muscleDipoleDepthMm: 70,
+  // Ours, after common practice (small, flat-spectrum, spatially diffuse components are sensor/amplifier
+  // noise, not muscle): 2 % of the data's variance, the upper end of the 1–2 % in issue 10.
+  noiseVarianceShare: 0.02,
+};
+
+/** Source of every default in `defaultThresholds` (see the comment beside each value). */
+export const thresholdSources: Record<keyof Thresholds, ThresholdSource> = {
+  eogCorrelation: 'common practice (from memory)',
+  blinkFrontalGradient: 'ours',
+  ocularLowFrequencyShare: 'ours',
+  gazeAntisymmetry: 'ours',
+  gazeStepLikeness: 'ours',
+  blinkKurtosis: 'common practice',
+  muscleHighFrequencyShare: 'ours',
+  muscleHighFrequencyShareStrong: 'ours',
+  muscleSlope: 'common practice',
+  mainsShare: 'ours',
+  electrodeFocality: 'common practice (from memory)',
+  cardiacPeak: 'ours',
+  movementStepLocking: 'ours',
+  timeLockingStrength: 'ours',
+  timeLockingP: 'common practice',
+  dipoleResidualVariance: 'common practice (from memory)',
+  neuralExponentMin: 'common practice (from memory)',
+  neuralExponentMax: 'common practice (from memory)',
+  alphaProminence: 'common practice (from memory)',
+  muscleFocality: 'ours',
+  muscleRimFocality: 'ours',
+  muscleDipoleDepthMm: 'ours',
+  noiseVarianceShare: 'ours',
 };
 
 /** Defaults with the user's overrides applied; unknown or non-finite overrides are ignored. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { recogniseComponent, suggestAllAims, suggestVerdict, type SuggestionInput } from '../../../src/core/review/suggest.ts';
+import { isRimElectrode, recogniseComponent, suggestAllAims, suggestVerdict, suggestWithRules, type SuggestionInput } from '../../../src/core/review/suggest.ts';
 import { defaultThresholds, resolveThresholds } from '../../../src/core/review/thresholds.ts';
 import { AIMS } from '../../../src/core/review/vocabulary.ts';
 
@@ -60,7 +60,15 @@ const blink = evidence({
   oneOverF: { exponent: 2.4, offset: 1, rangeHz: [2, 40] },
 });
 const saccade = evidence({ lateralAntisymmetry: 0.97, lowFrequencyShare: 0.8, stepLikeness: 0.95, frontalGradient: 2.5, oneOverF: { exponent: 3, offset: 1, rangeHz: [2, 40] } });
-const muscle = evidence({ highFrequencyShare: 0.8, highFrequencySlope: 0, kurtosis: 30, oneOverF: { exponent: -1.5, offset: 1, rangeHz: [2, 40] } });
+// Temporalis-like: flat above 20 Hz and a patchy map strongest at T8 (spatial support, issue 10 item 2b).
+const muscle = evidence({
+  highFrequencyShare: 0.8,
+  highFrequencySlope: 0,
+  kurtosis: 30,
+  oneOverF: { exponent: -1.5, offset: 1, rangeHz: [2, 40] },
+  strongestChannel: { index: 3, label: 'T8', weight: 1 },
+  focality: { share: 0.3, channel: 'T8' },
+});
 const alpha = evidence({
   oneOverF: { exponent: 1.2, offset: 1, rangeHz: [2, 40] },
   alphaPeakHz: 10.2,
@@ -128,10 +136,10 @@ describe('suggestVerdict', () => {
     expect(s).toEqual({ verdict: 'remove', reason: 'contact', because: ['one electrode (P7) carries 91 % of the map'] });
   });
 
-  it('names line noise before the muscle and electrode signs it also shows', () => {
-    const s = suggestVerdict(evidence({ mainsShare: 0.86, linePeakRatio: 700, highFrequencyShare: 0.6, highFrequencySlope: 0, focality: { share: 0.7, channel: 'T8' } }), 'erp');
+  it('names line noise before the muscle signs it also shows', () => {
+    const s = suggestVerdict(evidence({ mainsShare: 0.86, linePeakRatio: 700, highFrequencyShare: 0.6, highFrequencySlope: 0, focality: { share: 0.3, channel: 'T8' } }), 'erp');
     expect(s.reason).toBe('mains');
-    expect(s.because[1]).toMatch(/^also shows signs of muscle and contact/);
+    expect(s.because[1]).toMatch(/^also shows signs of muscle/);
   });
 
   it('suggests cardiac and motion removal from beat periodicity and step locking', () => {
@@ -144,7 +152,7 @@ describe('suggestVerdict', () => {
   });
 
   it('leaves brain-like components with a weak muscle sign to the reviewer ("mixed"), kept under conservative', () => {
-    const m = { ...alpha, highFrequencyShare: 0.65, highFrequencySlope: 0 };
+    const m = { ...alpha, highFrequencyShare: 0.65, highFrequencySlope: 0, focality: { share: 0.3, channel: 'O2' } };
     expect(suggestVerdict(m, 'erp')).toMatchObject({ verdict: 'undecided', reason: 'mixed' });
     expect(suggestVerdict(m, 'oscillations')).toMatchObject({ verdict: 'undecided', reason: 'mixed' });
     expect(suggestVerdict(m, 'conservative')).toMatchObject({ verdict: 'keep', reason: 'mixed' });
@@ -165,5 +173,98 @@ describe('suggestVerdict', () => {
 
   it('lists every signature it recognises', () => {
     expect(recogniseComponent(blink).findings.map((f) => f.signature)).toEqual(['blink']);
+  });
+});
+
+/**
+ * Issue 10 item 2: one test per precedence rule, on hand-built evidence. Each names the source of the rule
+ * and of the numbers it turns on (thresholds.ts says the same beside each value).
+ */
+describe('suggestion precedence (docs/suggestion-rules.md)', () => {
+  // Rule 1 — ours (precedence), threshold common practice (from memory): focality ≥ 0.6.
+  it('1: a map on one electrode is a contact fault whatever its spectrum, removed for every aim (contact over muscle and mains)', () => {
+    const e = evidence({ ...muscle, mainsShare: 0.7, focality: { share: 0.8, channel: 'T8' } });
+    for (const aim of AIMS) {
+      const { suggestion, rules } = suggestWithRules(e, aim);
+      expect(suggestion).toMatchObject({ verdict: 'remove', reason: 'contact' });
+      expect(suggestion.because[0]).toBe('one electrode (T8) carries 80 % of the map');
+      expect(suggestion.because[1]).toMatch(/^also shows signs of mains and muscle/);
+      expect(rules).toContainEqual({ measure: 'focality.share', value: 0.8, threshold: 0.6, direction: '≥', source: 'common practice (from memory)' });
+    }
+    // Today's bug: this used to be "keep, muscle" for erp.
+    expect(suggestVerdict(evidence({ ...muscle, focality: { share: 0.7, channel: 'T8' } }), 'erp')).toMatchObject({ verdict: 'remove', reason: 'contact' });
+  });
+
+  // Rule 2 — ours: muscle needs spectrum AND spatial support; spectrum thresholds ours / common practice (slope).
+  it('2: muscle needs a flat spectrum above 20 Hz and spatial support (patchy, rim or shallow dipole)', () => {
+    const flat = { highFrequencyShare: 0.7, highFrequencySlope: 0.1, varianceShare: 0.05 };
+    // patchy map (focality ≥ 0.25, ours)
+    expect(suggestVerdict(evidence({ ...flat, focality: { share: 0.3, channel: 'Cz' } }), 'oscillations')).toMatchObject({ verdict: 'remove', reason: 'muscle' });
+    // strongest at a rim electrode (common practice) with focality ≥ 0.1 (ours)
+    const rim = suggestWithRules(evidence({ ...flat, focality: { share: 0.12, channel: 'FT7' } }), 'oscillations');
+    expect(rim.suggestion).toMatchObject({ verdict: 'remove', reason: 'muscle' });
+    expect(rim.suggestion.because[1]).toMatch(/strongest at FT7, on the rim/);
+    expect(rim.rules.map((r) => r.measure)).toEqual(['highFrequencyShare', 'highFrequencySlope', 'highFrequencyShare', 'focality.share']);
+    // shallow dipole (≥ 70 mm from the centre, ours) or one stopped at the boundary
+    const shallow = { position: [62, 10, 35] as const, moment: [1, 0, 0] as const, residualVariance: 0.4, atBoundary: false, region: 'right temporal, superficial' };
+    expect(suggestVerdict(evidence({ ...flat, dipole: shallow }), 'oscillations').reason).toBe('muscle');
+    expect(suggestVerdict(evidence({ ...flat, dipole: { ...shallow, position: [20, 10, 30], atBoundary: true } }), 'oscillations').reason).toBe('muscle');
+    // the same spectrum, diffuse map, deep dipole and a large variance share: not muscle
+    const deep = suggestVerdict(evidence({ ...flat, dipole: { ...shallow, position: [10, 5, 30] } }), 'oscillations');
+    expect(deep).toMatchObject({ verdict: 'keep', reason: 'unclear' });
+    expect(deep.because.join(' ')).toMatch(/no spatial support for muscle/);
+    expect(isRimElectrode('T7') && isRimElectrode('Fp1') && isRimElectrode('O2') && !isRimElectrode('Cz') && !isRimElectrode('C3')).toBe(true);
+  });
+
+  // Rule 3 — common practice (small flat diffuse components are sensor noise), 2 % cut ours.
+  it('3: a flat white spectrum on a diffuse map with a tiny variance share is sensor noise: unclear, keep — never muscle', () => {
+    const noise = evidence({ highFrequencyShare: 0.62, highFrequencySlope: 0, varianceShare: 0.004, focality: { share: 0.04, channel: 'C3' } });
+    for (const aim of AIMS) {
+      const { suggestion, rules } = suggestWithRules(noise, aim);
+      expect(suggestion).toMatchObject({ verdict: 'keep', reason: 'unclear' });
+      expect(suggestion.because.join(' ')).toMatch(/0\.4 % of the variance: .*sensor noise/);
+      expect(rules).toContainEqual({ measure: 'varianceShare', value: 0.004, threshold: 0.02, direction: '≤', source: 'ours' });
+    }
+    expect(recogniseComponent(noise).findings).toEqual([]);
+  });
+
+  // Rule 4 — ours: strong conflicting artifact signatures give "mixed"; the verdict follows the aim.
+  it('4: strong blink and strong muscle together are "mixed": remove for erp and oscillations, undecided when conservative', () => {
+    const both = evidence({ ...blink, highFrequencyShare: 0.7, highFrequencySlope: 0, focality: { share: 0.35, channel: 'Fp1' }, strongestChannel: { index: 0, label: 'Fp1', weight: 1 } });
+    expect(recogniseComponent(both).findings.map((f) => [f.signature, f.strong])).toEqual([
+      ['blink', true],
+      ['muscle', true],
+    ]);
+    expect(suggestVerdict(both, 'erp')).toMatchObject({ verdict: 'remove', reason: 'mixed' });
+    expect(suggestVerdict(both, 'oscillations')).toMatchObject({ verdict: 'remove', reason: 'mixed' });
+    expect(suggestVerdict(both, 'conservative')).toMatchObject({ verdict: 'undecided', reason: 'mixed' });
+    expect(suggestVerdict(both, 'erp').because[0]).toBe('strong signs of both blink and muscle');
+    // a weak second reading does not conflict: the blink names it
+    const weakMuscle = { ...both, highFrequencyShare: 0.45 };
+    expect(suggestVerdict(weakMuscle, 'conservative')).toMatchObject({ verdict: 'remove', reason: 'blink' });
+  });
+
+  // Rule 5 — as before (issue 6; our reading of common practice): weak artifact + strong brain evidence.
+  it('5: a weak artifact sign on strong brain evidence stays "mixed" as before (undecided; keep when conservative)', () => {
+    const m = { ...alpha, highFrequencyShare: 0.62, highFrequencySlope: 0, focality: { share: 0.3, channel: 'O2' } }; // ≥ 0.6 passes the dipole veto; the alpha peak keeps it weak
+    const { suggestion, rules } = suggestWithRules(m, 'erp');
+    expect(suggestion).toMatchObject({ verdict: 'undecided', reason: 'mixed' });
+    expect(rules.map((r) => r.measure)).toContain('dipole.residualVariance');
+    expect(suggestVerdict(m, 'conservative')).toMatchObject({ verdict: 'keep', reason: 'mixed' });
+  });
+
+  // Rule e — every suggestion lists its rules (ours); sources come from thresholds.ts.
+  it('lists the fired rules, with their sources, and keeps suggestVerdict the same as suggestWithRules', () => {
+    for (const e of [blink, saccade, muscle, alpha, evidence({ cardiac: { bpm: 70, peak: 0.8 } })])
+      for (const aim of AIMS) {
+        const { suggestion, rules } = suggestWithRules(e, aim);
+        expect(suggestVerdict(e, aim)).toEqual(suggestion);
+        expect(rules.length).toBeGreaterThan(0);
+        for (const r of rules) {
+          expect(['common practice', 'common practice (from memory)', 'ours']).toContain(r.source);
+          expect(r.direction === '≥' ? r.value >= r.threshold : r.value <= r.threshold).toBe(true);
+        }
+      }
+    expect(suggestWithRules(blink, 'erp').rules[0]).toEqual({ measure: 'eogCorrelation.vertical', value: 0.93, threshold: 0.7, direction: '≥', source: 'common practice (from memory)' });
   });
 });
