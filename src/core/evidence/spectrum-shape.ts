@@ -104,13 +104,70 @@ export interface AlphaPeak {
   readonly frequencyHz: number | null;
   /** Height above the 1/f fit at the peak bin, log10 units. 0 when none. */
   readonly prominence: number;
+  /**
+   * Quality of the 1/f fit the peak is measured against: R² = 1 − Σ r² / Σ (y − ȳ)² of log10 P about the
+   * fitted line over `fitRangeHz` without the search band (the peak itself is not a misfit). 1 = perfect;
+   * ≤ 0 = the line explains nothing (a flat, white spectrum). NaN with fewer than 3 bins.
+   */
+  readonly fitR2: number;
+  /** Why there is no peak, or null when there is one. */
+  readonly rejected: null | 'no fit' | 'poor fit' | 'no local maximum' | 'not prominent';
+}
+
+export interface AlphaPeakOptions {
+  /** Range of the 1/f fit in Hz, over which `fitR2` is computed (default 2–40 Hz, as fitOneOverF). */
+  readonly fitRangeHz?: readonly [number, number];
+  /**
+   * Smallest R² of the 1/f fit for which a peak above it is reported (default −0.5, ours). R² is a weak judge
+   * of a nearly flat aperiodic floor — little variance is left for the line to explain, so a good fit can
+   * score ≈ 0 — and our simulated alpha and mu components (χ ≈ 0.3–0.6 beneath a 2.4 log10 peak) reach only
+   * −0.1…0.6 outside 7–14 Hz, brain background 0.9–1, while spurious "peaks" on line-noise components sit
+   * near −0.8. Below −0.5 the line misses by more than half again the spread of log power about a constant.
+   */
+  readonly minFitR2?: number;
+}
+
+/** Default smallest R² of the 1/f fit for an alpha peak (ours; see AlphaPeakOptions.minFitR2). */
+export const DEFAULT_MIN_FIT_R2 = -0.5;
+
+/** R² of log10 P about the line log10 P = b − χ log10 f over [lo, hi] without `skip` (NaN if < 3 bins). */
+export function oneOverFFitR2(
+  frequencies: ArrayLike<number>,
+  psd: ArrayLike<number>,
+  fit: { exponent: number; offset: number },
+  rangeHz: readonly [number, number] = [2, 40],
+  skipHz: readonly [number, number] | null = null,
+): number {
+  const ys: number[] = [];
+  const rs: number[] = [];
+  for (let k = 0; k < frequencies.length; k++) {
+    const f = frequencies[k];
+    if (f < rangeHz[0] - 1e-9 || f > rangeHz[1] + 1e-9 || f <= 0) continue;
+    if (skipHz && f >= skipHz[0] - 1e-9 && f <= skipHz[1] + 1e-9) continue;
+    const p = psd[k];
+    if (!(p > 0) || !Number.isFinite(p)) continue;
+    const y = Math.log10(p);
+    ys.push(y);
+    rs.push(y - (fit.offset - fit.exponent * Math.log10(f)));
+  }
+  if (ys.length < 3) return NaN;
+  const mean = ys.reduce((a, b) => a + b, 0) / ys.length;
+  let ssTot = 0;
+  let ssRes = 0;
+  for (let i = 0; i < ys.length; i++) {
+    ssTot += (ys[i] - mean) ** 2;
+    ssRes += rs[i] ** 2;
+  }
+  return ssTot > 0 ? 1 - ssRes / ssTot : ssRes === 0 ? 1 : -Infinity;
 }
 
 /**
- * Alpha peak (docs/methods.md §3, after Klimesch 1999): the largest local maximum of the flattened spectrum
- * log10 P − (b − χ log10 f) inside `searchHz` (default 7–14 Hz), not on the window edge and at least
- * `minProminence` log10 units above the fit (default 0.1 ≈ ×1.26, docs/methods.md §3 [from memory]), refined
- * with a parabola through the peak bin and its neighbours. Null when no bin qualifies.
+ * Alpha peak (docs/methods.md §3, after Klimesch 1999) on the flattened spectrum log10 P − (b − χ log10 f)
+ * inside `searchHz` (default 7–14 Hz): the largest true local maximum — strictly higher than both its
+ * neighbours, which must lie inside the band, so never a band-edge bin — at least `minProminence` log10 units
+ * above the fit (default 0.1 ≈ ×1.26, docs/methods.md §3 [from memory]), refined with a parabola through the
+ * peak bin and its neighbours. Dropped (null) when the 1/f fit itself is poor: R² over the fit range outside
+ * the search band below `options.minFitR2` (default −0.5, ours; see AlphaPeakOptions).
  */
 export function findAlphaPeak(
   frequencies: ArrayLike<number>,
@@ -118,12 +175,12 @@ export function findAlphaPeak(
   fit: { exponent: number; offset: number },
   searchHz: readonly [number, number] = [7, 14],
   minProminence = 0.1,
+  options: AlphaPeakOptions = {},
 ): AlphaPeak {
-  const none = { frequencyHz: null, prominence: 0 };
-  if (!Number.isFinite(fit.exponent) || !Number.isFinite(fit.offset)) return none;
+  if (!Number.isFinite(fit.exponent) || !Number.isFinite(fit.offset)) return { frequencyHz: null, prominence: 0, fitR2: NaN, rejected: 'no fit' };
+  const fitR2 = oneOverFFitR2(frequencies, psd, fit, options.fitRangeHz ?? [2, 40], searchHz);
+  const none = (rejected: AlphaPeak['rejected']): AlphaPeak => ({ frequencyHz: null, prominence: 0, fitR2, rejected });
   const flat = (k: number) => Math.log10(psd[k]) - (fit.offset - fit.exponent * Math.log10(frequencies[k]));
-  let best = -1;
-  let bestValue = -Infinity;
   let first = -1;
   let last = -1;
   for (let k = 0; k < frequencies.length; k++) {
@@ -132,15 +189,19 @@ export function findAlphaPeak(
     if (first < 0) first = k;
     last = k;
   }
-  if (first < 0) return none;
-  for (let k = first; k <= last; k++) {
+  if (first < 0) return none('no local maximum');
+  let best = -1;
+  let bestValue = -Infinity;
+  for (let k = first + 1; k < last; k++) {
     const v = flat(k);
-    if (v > bestValue) {
+    if (v > flat(k - 1) && v > flat(k + 1) && v > bestValue) {
       bestValue = v;
       best = k;
     }
   }
-  if (best <= first || best >= last || !(bestValue >= minProminence)) return none;
+  if (best < 0) return none('no local maximum');
+  if (!(bestValue >= minProminence)) return none('not prominent');
+  if (!(fitR2 >= (options.minFitR2 ?? DEFAULT_MIN_FIT_R2))) return none('poor fit');
   const ym = flat(best - 1);
   const y0 = bestValue;
   const yp = flat(best + 1);
@@ -148,7 +209,7 @@ export function findAlphaPeak(
   let delta = denom !== 0 ? (0.5 * (ym - yp)) / denom : 0;
   delta = Math.max(-0.5, Math.min(0.5, delta));
   const df = frequencies[best + 1] - frequencies[best];
-  return { frequencyHz: frequencies[best] + delta * df, prominence: bestValue };
+  return { frequencyHz: frequencies[best] + delta * df, prominence: bestValue, fitR2, rejected: null };
 }
 
 /** Σ P[k] · df over lo ≤ f_k ≤ hi (inclusive), for frequencies on a uniform grid starting anywhere. */

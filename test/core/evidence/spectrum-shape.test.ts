@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { bandPowerAt, findAlphaPeak, fitOneOverF, percentile, spectrumShares } from '../../../src/core/evidence/spectrum-shape.ts';
+import { bandPowerAt, DEFAULT_MIN_FIT_R2, findAlphaPeak, fitOneOverF, oneOverFFitR2, percentile, spectrumShares } from '../../../src/core/evidence/spectrum-shape.ts';
 // Synthetic Donoghue-style spectrum and numpy.polyfit / closed-form fits by test/fixtures/evidence/one_over_f_alpha.py.
 import fixture from '../../fixtures/evidence/one_over_f_alpha.json';
 
@@ -67,6 +67,41 @@ describe('findAlphaPeak', () => {
   it('reports no alpha peak for a pure power law', () => {
     const pure = modelSpectrum(f, []);
     expect(findAlphaPeak(f, pure, fitOneOverF(f, pure)).frequencyHz).toBeNull();
+  });
+
+  it('reports the fit quality: R² = 1 for the exact power law, high for the fixture spectrum outside 7–14 Hz', () => {
+    const pure = modelSpectrum(f, []);
+    const exact = findAlphaPeak(f, pure, fitOneOverF(f, pure));
+    expect(exact.fitR2).toBeCloseTo(1, 12); // residuals are zero by construction
+    expect(exact.rejected).toBe('not prominent');
+    const peak = findAlphaPeak(f, p, fitOneOverF(f, p));
+    expect(peak.rejected).toBeNull();
+    expect(peak.fitR2).toBeGreaterThan(0.8); // the fixture's beta bump (15–30 Hz) is the only misfit left
+    expect(peak.fitR2).toBeCloseTo(oneOverFFitR2(f, p, fitOneOverF(f, p), [2, 40], [7, 14]), 12);
+  });
+
+  it('needs a true local maximum: a spectrum rising through the band (maximum on the band edge) has no peak', () => {
+    // Flattened spectrum rising linearly from 0 to 1 log10 across 7–14 Hz: the largest bin is the band edge,
+    // no bin is above both neighbours (ours: the rule of findAlphaPeak).
+    const fit = { exponent: 1.8, offset: 1.5 };
+    const rising = f.map((x) => 10 ** (1.5 - 1.8 * Math.log10(x) + (x >= 7 && x <= 14 ? (x - 7) / 7 : x > 14 ? 1 : 0)));
+    const r = findAlphaPeak(f, rising, fit);
+    expect(r).toMatchObject({ frequencyHz: null, rejected: 'no local maximum' });
+    // A real bump in the middle beats a higher band edge: the interior local maximum is reported.
+    const bumpAndEdge = f.map((x) => 10 ** (1.5 - 1.8 * Math.log10(x) + 0.5 * Math.exp(-((x - 10) ** 2) / 0.5) + (x > 13.75 && x <= 14 ? 1 : 0))); // only the edge bin (14 Hz) is higher
+    expect(findAlphaPeak(f, bumpAndEdge, fit).frequencyHz).toBeCloseTo(10, 1);
+  });
+
+  it('drops a prominent peak when the 1/f line fits the rest of the spectrum poorly (R² < −0.5, ours)', () => {
+    // A flat spectrum with a zig-zag of ±0.5 log10 outside the band and a 0.3 log10 bump at 10 Hz, measured
+    // against a steep line that does not describe it.
+    const fit = { exponent: 1, offset: 0.5 };
+    const zig = f.map((x, i) => 10 ** (0.5 - Math.log10(x) * (x >= 7 && x <= 14 ? 1 : 0) + (x >= 7 && x <= 14 ? 0.3 * Math.exp(-((x - 10) ** 2) / 0.5) : i % 2 ? 0.5 : -0.5)));
+    const r = findAlphaPeak(f, zig, fit);
+    expect(r.fitR2).toBeLessThan(DEFAULT_MIN_FIT_R2);
+    expect(r).toMatchObject({ frequencyHz: null, prominence: 0, rejected: 'poor fit' });
+    // The same peak is reported when the caller accepts any fit.
+    expect(findAlphaPeak(f, zig, fit, [7, 14], 0.1, { minFitR2: -Infinity }).frequencyHz).toBeCloseTo(10, 1);
   });
 });
 
