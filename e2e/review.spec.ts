@@ -45,7 +45,7 @@ test('reviewing the demo participant: decide, preview, focus, export, reload, ke
   await page.getByTestId('screen-preview').click();
   const checksum = page.getByTestId('preview-cleaned-checksum');
   await expect(checksum).toHaveText(/^[0-9a-f]{8}$/, { timeout: 30_000 });
-  const checksumBefore = await checksum.innerText();
+  const checksumBefore = (await checksum.textContent()) ?? '';
   const erpBefore = await page.getByTestId('preview-erp-before').innerText();
   await expect(page.getByTestId('preview-erp-after')).toHaveText(erpBefore);
 

@@ -37,35 +37,35 @@ export function TrialStackPanel({ evidence, settings, onSettings, context }: Tri
   const controls = img ? (
     <>
       <label>
-        Sort{' '}
+        Trials from top{' '}
         <select value={settings.sort} onChange={(e) => onSettings({ sort: e.target.value as EpochSort })}>
-          <option value="order">event order</option>
-          <option value="response-time" disabled={!img.responseTimes}>response time</option>
-          <option value="amplitude">amplitude in window</option>
+          <option value="order">as they happened</option>
+          <option value="response-time" disabled={!img.responseTimes}>fastest reply first</option>
+          <option value="amplitude">largest in a time span</option>
         </select>
       </label>
       {settings.sort === 'amplitude' ? (
         <span className="window-inputs">
           <input
-            type="number" step={0.05} aria-label="amplitude window start (s)" value={settings.amplitudeWindowS[0]}
+            type="number" step={0.05} aria-label="time span start (s)" value={settings.amplitudeWindowS[0]}
             onChange={(e) => onSettings({ amplitudeWindowS: [Number(e.target.value), settings.amplitudeWindowS[1]] })}
           />
           –
           <input
-            type="number" step={0.05} aria-label="amplitude window end (s)" value={settings.amplitudeWindowS[1]}
+            type="number" step={0.05} aria-label="time span end (s)" value={settings.amplitudeWindowS[1]}
             onChange={(e) => onSettings({ amplitudeWindowS: [settings.amplitudeWindowS[0], Number(e.target.value)] })}
           />{' '}
           s
         </span>
       ) : null}
       <label>
-        Smoothing{' '}
+        Blend each row with neighbours{' '}
         <input
           type="range" min={1} max={15} step={1} value={settings.smoothing}
           onChange={(e) => onSettings({ smoothing: Number(e.target.value) })}
-          aria-valuetext={`${settings.smoothing} trials`}
+          aria-valuetext={`${settings.smoothing} rows`}
         />{' '}
-        {settings.smoothing} {settings.smoothing === 1 ? 'trial' : 'trials'}
+        {settings.smoothing === 1 ? 'off' : `${settings.smoothing} rows`}
       </label>
     </>
   ) : null;
@@ -74,7 +74,7 @@ export function TrialStackPanel({ evidence, settings, onSettings, context }: Tri
       {img && rows ? (
         <>
           <TrialStack rows={rows} nEpochs={img.nEpochs} length={img.length} times={img.times} maxAbs={limit} width={WIDTH} height={230} />
-          {rows.sortApplied !== settings.sort ? <p className="note">No response times in this recording; shown in event order.</p> : null}
+          {rows.sortApplied !== settings.sort ? <p className="note">No reply times in this recording; trials shown as they happened.</p> : null}
         </>
       ) : (
         <p>No events to epoch in this recording.</p>
