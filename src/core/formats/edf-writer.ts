@@ -174,7 +174,8 @@ function prepare(input: EdfWriteInput): Prepared {
   main += asciiField(formatEdfNumber(dur, 8), 8);
   main += asciiField(String(ns), 4);
 
-  const ann = { label: 'EDF Annotations', transducer: '', unit: '', pmin: '-1', pmax: '1', dmin: String(ddef.dmin), dmax: String(ddef.dmax), prefilter: '', spr: String(annSamples) };
+  const ann = { label: bdf ? 'BDF Annotations' : 'EDF Annotations', // BDF+ labels its annotation signal "BDF Annotations" [BioSemi BDF+]
+  transducer: '', unit: '', pmin: '-1', pmax: '1', dmin: String(ddef.dmin), dmax: String(ddef.dmax), prefilter: '', spr: String(annSamples) };
   const sigs = input.channels.map((c, i) => ({
     label: c.label,
     transducer: c.transducer ?? '',

@@ -216,6 +216,8 @@ export function parseEdfHeader(
     const label = sfield(0, j).text;
     const isAnnotation = plus && (label === 'EDF Annotations' || label === 'BDF Annotations');
     const name = `signal ${j + 1} ("${label}")`;
+    if (isAnnotation && label !== (bdf ? 'BDF Annotations' : 'EDF Annotations'))
+      warnings.push(`${fileName}: ${format} annotation signal ${j + 1} is labelled "${label}"; expected "${bdf ? 'BDF Annotations' : 'EDF Annotations'}" (read leniently)`);
     const nums: number[] = [];
     for (const f of [3, 4, 5, 6, 8]) {
       const { text, offset } = sfield(f, j);

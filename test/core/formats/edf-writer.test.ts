@@ -184,3 +184,15 @@ describe('writeEdf → readEdfInfo/readEdfSignals round trip', () => {
     expect(() => writeEdf(input)).toThrow(/channel "Fz": sampleRate 250.5 Hz/);
   });
 });
+
+describe('annotation signal label (BioSemi BDF+: "BDF Annotations"; Kemp & Olivan 2003: "EDF Annotations")', () => {
+  it('labels the BDF+ annotation signal "BDF Annotations" and EDF+ "EDF Annotations"', () => {
+    const label = (b: Uint8Array, ns: number) => new TextDecoder().decode(b.subarray(256 + 16 * (ns - 1), 256 + 16 * ns)).trim();
+    const bdf = writeEdf(baseInput('BDF+C'));
+    const nsB = Number(new TextDecoder().decode(bdf.subarray(252, 256)));
+    expect(label(bdf, nsB)).toBe('BDF Annotations');
+    const edf = writeEdf(baseInput('EDF+C'));
+    const nsE = Number(new TextDecoder().decode(edf.subarray(252, 256)));
+    expect(label(edf, nsE)).toBe('EDF Annotations');
+  });
+});
