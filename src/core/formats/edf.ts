@@ -232,6 +232,10 @@ export function parseEdfHeader(
     if (!isAnnotation) {
       if (physicalMinH === physicalMaxH)
         return fail('bad-scaling', `${name} physical minimum equals physical maximum (${physicalMinH}); the scaling is undefined`, sfield(3, j).offset);
+      const [dlo, dhi] = bdf ? [-8388608, 8388607] : [-32768, 32767];
+      for (const [f, v] of [[5, digitalMin], [6, digitalMax]] as const)
+        if (!Number.isInteger(v) || v < dlo || v > dhi)
+          return fail('bad-scaling', `${name} ${SIGNAL_FIELDS[f][0]} is ${v}; it must be a whole number in ${dlo}…${dhi} [${bdf ? 'BioSemi BDF' : 'Kemp et al. 1992'}]`, sfield(f, j).offset);
       if (digitalMin >= digitalMax)
         return fail('bad-scaling', `${name} digital minimum ${digitalMin} is not below digital maximum ${digitalMax}`, sfield(5, j).offset);
     }

@@ -196,3 +196,16 @@ describe('annotation signal label (BioSemi BDF+: "BDF Annotations"; Kemp & Oliva
     expect(label(edf, nsE)).toBe('EDF Annotations');
   });
 });
+
+describe('digital minimum/maximum must be whole numbers in range (Kemp et al. 1992, Clin. Neurophysiol. 82:391; BioSemi BDF 24-bit)', () => {
+  for (const bad of ['3.5', '1e-300', '-40000']) {
+    it(`refuses digital minimum "${bad}" in EDF with the file, signal and field named`, async () => {
+      const bytes = writeEdf(baseInput('EDF+C'));
+      const ns = Number(new TextDecoder().decode(bytes.subarray(252, 256)));
+      bytes.set(new TextEncoder().encode(bad.padEnd(8, ' ')), 256 + ns * 120);
+      const r = await readEdfInfo(bytesByteSource(bytes, 'bad.edf'));
+      expect(r.ok).toBe(false);
+      if (!r.ok) expect(r.error.message).toMatch(/bad\.edf.*signal 1.*digital minimum/);
+    });
+  }
+});
