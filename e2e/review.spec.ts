@@ -119,9 +119,9 @@ test('reviewing the demo participant: decide, preview, focus, export, reload, ke
   await page.keyboard.press('x');
   await expect(page.getByTestId('tile-2')).toHaveAttribute('data-verdict', 'remove');
   await page.keyboard.press('r');
-  await expect(page.getByTestId('reason-select')).toHaveValue('neural');
-  await page.keyboard.press('r');
   await expect(page.getByTestId('reason-select')).toHaveValue('blink');
+  await page.keyboard.press('r');
+  await expect(page.getByTestId('reason-select')).toHaveValue('gaze');
   await page.keyboard.press('ArrowRight');
   await page.keyboard.press('k');
   await expect(page.getByTestId('tile-3')).toHaveAttribute('data-verdict', 'keep');
