@@ -53,8 +53,8 @@ export interface Thresholds {
   readonly noiseVarianceShare: number;
 }
 
-/** Where each default comes from, in one word or two: 'common practice', 'ours', or with '(from memory)'. */
-export type ThresholdSource = 'common practice' | 'common practice (from memory)' | 'ours';
+/** Where each default comes from, in one word or two: 'common practice' or 'ours' (values recalled from memory say so in a comment beside them). */
+export type ThresholdSource = 'common practice' | 'ours';
 
 export const defaultThresholds: Thresholds = {
   // From memory: correlation with EOG channels of ~0.7 and above is a usual cut in correlation-based ocular
@@ -121,7 +121,7 @@ export const defaultThresholds: Thresholds = {
 
 /** Source of every default in `defaultThresholds` (see the comment beside each value). */
 export const thresholdSources: Record<keyof Thresholds, ThresholdSource> = {
-  eogCorrelation: 'common practice (from memory)',
+  eogCorrelation: 'common practice', // value recalled from memory
   blinkFrontalGradient: 'ours',
   ocularLowFrequencyShare: 'ours',
   gazeAntisymmetry: 'ours',
@@ -131,15 +131,15 @@ export const thresholdSources: Record<keyof Thresholds, ThresholdSource> = {
   muscleHighFrequencyShareStrong: 'ours',
   muscleSlope: 'common practice',
   mainsShare: 'ours',
-  electrodeFocality: 'common practice (from memory)',
+  electrodeFocality: 'common practice', // value recalled from memory
   cardiacPeak: 'ours',
   movementStepLocking: 'ours',
   timeLockingStrength: 'ours',
   timeLockingP: 'common practice',
-  dipoleResidualVariance: 'common practice (from memory)',
-  neuralExponentMin: 'common practice (from memory)',
-  neuralExponentMax: 'common practice (from memory)',
-  alphaProminence: 'common practice (from memory)',
+  dipoleResidualVariance: 'common practice', // value recalled from memory
+  neuralExponentMin: 'common practice', // value recalled from memory
+  neuralExponentMax: 'common practice', // value recalled from memory
+  alphaProminence: 'common practice', // value recalled from memory
   muscleFocality: 'ours',
   muscleRimFocality: 'ours',
   muscleDipoleDepthMm: 'ours',

@@ -45,44 +45,44 @@ export function evidenceRows(e: ComponentEvidence, t: Thresholds = defaultThresh
   add({
     key: 'exponent', label: '1/f exponent', value: num(e.oneOverF.exponent), unit: '',
     threshold: `${t.neuralExponentMin}–${t.neuralExponentMax} brain-like`,
-    source: `log–log fit ${e.oneOverF.rangeHz[0]}–${e.oneOverF.rangeHz[1]} Hz (docs/methods.md §2); range from memory`,
+    source: `log–log fit ${e.oneOverF.rangeHz[0]}–${e.oneOverF.rangeHz[1]} Hz (methods §2); range: common practice`,
     flagged: false,
   });
   add({
     key: 'alpha', label: 'Alpha peak', value: e.alphaPeakHz === null ? 'none' : num(e.alphaPeakHz, 1), unit: e.alphaPeakHz === null ? '' : 'Hz',
-    threshold: `prominence ≥ ${t.alphaProminence} log₁₀`, source: '7–14 Hz above the 1/f fit (docs/methods.md §3)', flagged: false,
+    threshold: `prominence ≥ ${t.alphaProminence} log₁₀`, source: '7–14 Hz above the 1/f fit (methods §3)', flagged: false,
   });
-  add({ key: 'alphaProminence', label: 'Alpha prominence', value: num(e.alphaProminence, 3), unit: 'log₁₀', threshold: `≥ ${t.alphaProminence}`, source: 'height above the 1/f fit (docs/methods.md §3)', flagged: false });
+  add({ key: 'alphaProminence', label: 'Alpha prominence', value: num(e.alphaProminence, 3), unit: 'log₁₀', threshold: `≥ ${t.alphaProminence}`, source: 'height above the 1/f fit (methods §3)', flagged: false });
   add({
     key: 'hf', label: 'High-frequency share', value: pct(e.highFrequencyShare), unit: '%',
     threshold: `≥ ${pctU(t.muscleHighFrequencyShare)} muscle-like (≥ ${pctU(t.muscleHighFrequencyShareStrong)} strong)`,
-    source: 'BP(20, line−2) / BP(2, line−2) Hz (docs/methods.md §4); threshold ours', flagged: ge(e.highFrequencyShare, t.muscleHighFrequencyShare),
+    source: 'BP(20, line−2) / BP(2, line−2) Hz (methods §4); threshold ours', flagged: ge(e.highFrequencyShare, t.muscleHighFrequencyShare),
   });
   add({
     key: 'hfSlope', label: 'Slope above 20 Hz', value: num(e.highFrequencySlope), unit: 'log–log',
-    threshold: `≥ ${t.muscleSlope} flat or rising`, source: 'docs/methods.md §14, common practice', flagged: ge(e.highFrequencySlope, t.muscleSlope),
+    threshold: `≥ ${t.muscleSlope} flat or rising`, source: 'methods §14, common practice', flagged: ge(e.highFrequencySlope, t.muscleSlope),
   });
   add({
     key: 'line', label: 'Mains share', value: pct(e.mainsShare), unit: '%', threshold: `≥ ${pctU(t.mainsShare)}`,
-    source: 'Σ_h BP(h·f0 ± 1 Hz) / BP(1, fmax) (docs/methods.md §4); threshold ours', flagged: ge(e.mainsShare, t.mainsShare),
+    source: 'Σ_h BP(h·f0 ± 1 Hz) / BP(1, fmax) (methods §4); threshold ours', flagged: ge(e.mainsShare, t.mainsShare),
   });
-  add({ key: 'linePeak', label: 'Line peak ratio', value: num(e.linePeakRatio, 1), unit: '×', threshold: '', source: 'P(f0) / median P in f0 ± 5 Hz (docs/methods.md §4)', flagged: false });
+  add({ key: 'linePeak', label: 'Line peak ratio', value: num(e.linePeakRatio, 1), unit: '×', threshold: '', source: 'P(f0) / median P in f0 ± 5 Hz (methods §4)', flagged: false });
   add({
     key: 'lf', label: 'Low-frequency share', value: pct(e.lowFrequencyShare), unit: '%', threshold: `≥ ${pctU(t.ocularLowFrequencyShare)} ocular-like`,
-    source: 'BP(1, 4) / BP(1, 45) Hz (docs/methods.md §4); threshold ours', flagged: ge(e.lowFrequencyShare, t.ocularLowFrequencyShare),
+    source: 'BP(1, 4) / BP(1, 45) Hz (methods §4); threshold ours', flagged: ge(e.lowFrequencyShare, t.ocularLowFrequencyShare),
   });
   add({
     key: 'frontal', label: 'Frontal gradient', value: num(e.frontalGradient), unit: '×', threshold: `≥ ${t.blinkFrontalGradient} blink-like`,
-    source: 'mean |a| at Fp/AF ÷ elsewhere (docs/methods.md §14); threshold ours', flagged: ge(e.frontalGradient, t.blinkFrontalGradient),
+    source: 'mean |a| at Fp/AF ÷ elsewhere (methods §14); threshold ours', flagged: ge(e.frontalGradient, t.blinkFrontalGradient),
   });
   add({ key: 'frontalShare', label: 'Frontal share of map', value: pct(e.frontalShare), unit: '%', threshold: '', source: 'map energy in the front 20 % of the head', flagged: false });
   add({
     key: 'antisym', label: 'Left–right antisymmetry', value: num(e.lateralAntisymmetry), unit: '', threshold: `≥ ${t.gazeAntisymmetry} gaze-like`,
-    source: 'mirror pairs, +1 antisymmetric (docs/methods.md §14); threshold ours', flagged: ge(e.lateralAntisymmetry, t.gazeAntisymmetry),
+    source: 'mirror pairs, +1 antisymmetric (methods §14); threshold ours', flagged: ge(e.lateralAntisymmetry, t.gazeAntisymmetry),
   });
   add({
     key: 'focality', label: `Focality (${e.focality.channel})`, value: pct(e.focality.share), unit: '%', threshold: `≥ ${pctU(t.electrodeFocality)} single electrode`,
-    source: 'max a² / Σ a² (docs/methods.md §14, common practice)', flagged: ge(e.focality.share, t.electrodeFocality),
+    source: 'max a² / Σ a² (methods §14, common practice)', flagged: ge(e.focality.share, t.electrodeFocality),
   });
   add({
     key: 'kurtosis', label: 'Excess kurtosis', value: num(e.kurtosis, 1), unit: '', threshold: `≥ ${t.blinkKurtosis} blink-like`,
@@ -95,11 +95,11 @@ export function evidenceRows(e: ComponentEvidence, t: Thresholds = defaultThresh
   const eogSrc = `${e.eogCorrelation.source}`;
   add({
     key: 'eogV', label: `|r| vertical EOG${e.eogCorrelation.channels.vertical ? ` (${e.eogCorrelation.channels.vertical})` : ''}`, value: num(e.eogCorrelation.vertical), unit: '',
-    threshold: `≥ ${t.eogCorrelation} ocular`, source: `Pearson r with ${eogSrc}; threshold from memory`, flagged: ge(e.eogCorrelation.vertical, t.eogCorrelation),
+    threshold: `≥ ${t.eogCorrelation} ocular`, source: `Pearson r with ${eogSrc}; threshold: common practice`, flagged: ge(e.eogCorrelation.vertical, t.eogCorrelation),
   });
   add({
     key: 'eogH', label: `|r| horizontal EOG${e.eogCorrelation.channels.horizontal ? ` (${e.eogCorrelation.channels.horizontal})` : ''}`, value: num(e.eogCorrelation.horizontal), unit: '',
-    threshold: `≥ ${t.eogCorrelation} ocular`, source: `Pearson r with ${eogSrc}; threshold from memory`, flagged: ge(e.eogCorrelation.horizontal, t.eogCorrelation),
+    threshold: `≥ ${t.eogCorrelation} ocular`, source: `Pearson r with ${eogSrc}; threshold: common practice`, flagged: ge(e.eogCorrelation.horizontal, t.eogCorrelation),
   });
   add({
     key: 'cardiac', label: 'Cardiac periodicity', value: e.cardiac.bpm === null ? 'none' : `${num(e.cardiac.peak)} at ${num(e.cardiac.bpm, 0)} bpm`, unit: '',
@@ -123,7 +123,7 @@ export function evidenceRows(e: ComponentEvidence, t: Thresholds = defaultThresh
   if (e.dipole) {
     add({
       key: 'rv', label: 'Dipole residual variance', value: pct(e.dipole.residualVariance), unit: '%', threshold: `≤ ${pctU(t.dipoleResidualVariance)} dipolar`,
-      source: 'single equivalent dipole, spherical model (docs/methods.md §15); level from memory', flagged: !(e.dipole.residualVariance <= t.dipoleResidualVariance),
+      source: 'single equivalent dipole, spherical model (methods §15); level: common practice', flagged: !(e.dipole.residualVariance <= t.dipoleResidualVariance),
     });
     add({ key: 'region', label: 'Approximate region', value: e.dipole.region, unit: '', threshold: '', source: 'from the dipole position; a model estimate', flagged: false });
   }

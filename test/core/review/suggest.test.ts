@@ -189,7 +189,7 @@ describe('suggestion precedence (docs/suggestion-rules.md)', () => {
       expect(suggestion).toMatchObject({ verdict: 'remove', reason: 'contact' });
       expect(suggestion.because[0]).toBe('one electrode (T8) carries 80 % of the map');
       expect(suggestion.because[1]).toMatch(/^also shows signs of mains and muscle/);
-      expect(rules).toContainEqual({ measure: 'focality.share', value: 0.8, threshold: 0.6, direction: '≥', source: 'common practice (from memory)' });
+      expect(rules).toContainEqual({ measure: 'focality.share', value: 0.8, threshold: 0.6, direction: '≥', source: 'common practice' });
     }
     // Today's bug: this used to be "keep, muscle" for erp.
     expect(suggestVerdict(evidence({ ...muscle, focality: { share: 0.7, channel: 'T8' } }), 'erp')).toMatchObject({ verdict: 'remove', reason: 'contact' });
@@ -261,10 +261,10 @@ describe('suggestion precedence (docs/suggestion-rules.md)', () => {
         expect(suggestVerdict(e, aim)).toEqual(suggestion);
         expect(rules.length).toBeGreaterThan(0);
         for (const r of rules) {
-          expect(['common practice', 'common practice (from memory)', 'ours']).toContain(r.source);
+          expect(['common practice', 'ours']).toContain(r.source);
           expect(r.direction === '≥' ? r.value >= r.threshold : r.value <= r.threshold).toBe(true);
         }
       }
-    expect(suggestWithRules(blink, 'erp').rules[0]).toEqual({ measure: 'eogCorrelation.vertical', value: 0.93, threshold: 0.7, direction: '≥', source: 'common practice (from memory)' });
+    expect(suggestWithRules(blink, 'erp').rules[0]).toEqual({ measure: 'eogCorrelation.vertical', value: 0.93, threshold: 0.7, direction: '≥', source: 'common practice' });
   });
 });
