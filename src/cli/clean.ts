@@ -26,6 +26,19 @@ import type { SignalBlock } from '../core/recording.ts';
 
 const USAGE = 'usage: winnow clean <recording> <decomposition.json> <decisions.json> --out cleaned.edf [--keep-identity] [--ignore-hashes]';
 
+/** Help text for `winnow clean --help` (first line: the usage). */
+export const usage = `${USAGE}
+
+Writes the cleaned recording: the components marked remove in the decisions file are subtracted; EDF in,
+EDF+ out (BDF in, BDF+ out). Refuses a decisions file made for another recording or decomposition.
+
+options:
+  --out FILE                output recording; required
+  --keep-identity           keep the identifying header fields (default: anonymous forms)
+  --ignore-hashes           accept a decisions file whose SHA-256 fields do not match
+  -h, --help                show this help
+`;
+
 /** SHA-256 of a file, streamed (a large recording is never held whole). */
 function sha256OfFile(path: string): Promise<string> {
   return new Promise((resolve, reject) => {

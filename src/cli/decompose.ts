@@ -61,6 +61,25 @@ export async function createNodeIcaThreads(): Promise<{ threads: IcaThreads; clo
 const USAGE =
   'usage: winnow decompose <recording> --out FILE.json [--method infomax|picard] [--seed N] [--highpass HZ] [--lowpass HZ] [--max-iter N] [--n-components K] [--channels-tsv FILE] [--threads 1|2]';
 
+/** Help text for `winnow decompose --help` (first line: the usage). */
+export const usage = `${USAGE}
+
+Runs ICA on the good EEG channels of the recording's main sampling rate and writes the decomposition JSON
+(winnow-decomposition/1) atomically. Progress goes to stderr, a one-line summary to stdout.
+
+options:
+  --out FILE.json           output decomposition file; required
+  --method infomax|picard   ICA method (default picard)
+  --seed N                  random seed, 0…4294967295 (default 1)
+  --highpass HZ             high-pass cut-off in Hz (default 1; 0 turns it off)
+  --lowpass HZ              low-pass cut-off in Hz (default none)
+  --max-iter N              most iterations
+  --n-components K          number of components
+  --channels-tsv FILE       BIDS channels.tsv (bad channels are left out)
+  --threads 1|2             threads for Picard's data passes
+  -h, --help                show this help
+`;
+
 function sha256OfFile(path: string): Promise<string> {
   return new Promise((resolve, reject) => {
     const h = createHash('sha256');

@@ -79,6 +79,18 @@ Winnow is a research tool, not for clinical diagnosis.
 `;
 }
 
+/** Help text for `winnow demo-data --help` (first line: the usage). */
+export const usage = `usage: winnow demo-data [--out DIR] [--seed N] [--no-decomposition]
+
+Writes the simulated demo participant as a small BIDS dataset (run as \`npx tsx src/cli/demo-data.ts\`).
+
+options:
+  --out DIR                 output folder (default demo-data)
+  --seed N                  random seed (default 1)
+  --no-decomposition        skip the ICA decomposition
+  -h, --help                show this help
+`;
+
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseCommandArgs('demo-data', args, {
     out: { type: 'string' },

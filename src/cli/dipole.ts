@@ -38,6 +38,19 @@ function readMap(text: string, path: string): MapEntry[] {
   });
 }
 
+/** Help text for `winnow dipole --help` (first line: the usage). */
+export const usage = `usage: winnow dipole --positions electrodes.tsv --map map.tsv [--model sphere|three-shell] [--radius MM|fit]
+
+Fits one equivalent current dipole to a scalp map and prints JSON (position mm, moment nA·m, residual variance).
+
+options:
+  --positions FILE          BIDS electrodes.tsv (name x y z, mm); required
+  --map FILE                TSV with columns name, value; required
+  --model sphere|three-shell  head model (default three-shell)
+  --radius MM|fit           sphere radius in mm (default 90), or fit a sphere to the positions
+  -h, --help                show this help
+`;
+
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseCommandArgs('dipole', args, {
     positions: { type: 'string' },

@@ -68,6 +68,23 @@ import { AIMS, type Aim } from '../core/review/vocabulary.ts';
 const USAGE =
   'usage: winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv] [--aim erp|oscillations|conservative] [--out FILE] [--line-frequency 50|60] [--epoch-event LABEL] [--window TMIN,TMAX]';
 
+/** Help text for `winnow evidence --help` (first line: the usage). */
+export const usage = `${USAGE}
+
+Computes every component's evidence and suggested verdict and writes JSON (winnow-evidence/1) to --out, or
+to stdout.
+
+options:
+  --positions FILE          BIDS electrodes.tsv (default: 10-20/10-10 layout by label)
+  --events FILE             BIDS events.tsv (default: the recording's annotations)
+  --aim erp|oscillations|conservative  aim of the suggestion (default erp)
+  --out FILE                output file (default stdout)
+  --line-frequency 50|60    mains frequency in Hz (alias --line; default from eeg.json, else 50)
+  --epoch-event LABEL       event to epoch on
+  --window TMIN,TMAX        epoch window in seconds (TMIN < 0 < TMAX)
+  -h, --help                show this help
+`;
+
 async function readTextFile(path: string): Promise<string> {
   try {
     return await readFile(path, 'utf8');

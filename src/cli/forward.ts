@@ -120,6 +120,20 @@ export function attachNegativeValues(args: string[], names: readonly string[]): 
   return out;
 }
 
+/** Help text for `winnow forward --help` (first line: the usage). */
+export const usage = `usage: winnow forward --positions electrodes.tsv --dipole x,y,z,mx,my,mz [--model sphere|three-shell] [--radius MM|fit]
+
+Prints the potentials (µV) of one current dipole at the electrodes as TSV \`name<TAB>potential\`, against an
+infinitely distant reference.
+
+options:
+  --positions FILE          BIDS electrodes.tsv (name x y z, mm); required
+  --dipole x,y,z,mx,my,mz   position (mm) and moment (nA·m); required
+  --model sphere|three-shell  head model (default three-shell)
+  --radius MM|fit           sphere radius in mm (default 90), or fit a sphere to the positions
+  -h, --help                show this help
+`;
+
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseCommandArgs('forward', attachNegativeValues(args, ['dipole']), {
     positions: { type: 'string' },

@@ -62,6 +62,19 @@ function formatTime(t: number): string {
   return String(Number(t.toFixed(9)));
 }
 
+/** Help text for `winnow read --help` (first line: the usage). */
+export const usage = `usage: winnow read <recording> [--start S] [--duration D] [--channels A,B]
+
+Prints samples as TSV: a header \`time\` then the channel labels, one row per sample; time in seconds from
+the first sample, values in physical units (µV for voltages). Channels of different rates in one call are refused.
+
+options:
+  --start S                 first second to print (default 0)
+  --duration D              seconds to print (default: to the end)
+  --channels A,B            comma-separated channel labels (default: all)
+  -h, --help                show this help
+`;
+
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseCommandArgs('read', args, {
     start: { type: 'string' },

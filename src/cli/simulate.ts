@@ -20,6 +20,22 @@ import { sessionEdf, sessionSidecars, sessionTruthFiles } from '../core/simulate
 
 const USAGE = 'usage: winnow simulate --out DIR [--seed N] [--channels 32|64] [--minutes M] [--rate HZ] [--line 50|60]';
 
+/** Help text for `winnow simulate --help` (first line: the usage). */
+export const usage = `${USAGE}
+
+Simulates a mobile EEG session with known sources and writes recording.edf, neural.edf, BIDS sidecars and
+truth.json into DIR; prints a one-line JSON summary.
+
+options:
+  --out DIR                 output folder; required
+  --seed N                  random seed, 0…4294967295 (default 1)
+  --channels 32|64          number of EEG channels (default 32)
+  --minutes M               length in minutes, > 0 and ≤ 240 (default 3)
+  --rate HZ                 sampling rate in Hz (default 250)
+  --line 50|60              mains frequency in Hz (default 50)
+  -h, --help                show this help
+`;
+
 /** Validates the command line into simulator options (exit 2 with a message naming the option on bad input). */
 export function parseSimulateArgs(args: string[]): { out: string; options: Required<Omit<SimulateOptions, 'sensorNoiseUv'>> } {
   const { values, positionals } = parseCommandArgs('simulate', args, {

@@ -3,8 +3,9 @@
  * loaded on demand so that one command's dependencies never slow another's start.
  */
 import { CliError, processIo, type CliIo, type CommandRun } from './cli-support.ts';
+import { commandHelp, wantsHelp } from './help.ts';
 
-const commands: Record<string, { summary: string; load: () => Promise<{ run: CommandRun }> }> = {
+export const commands: Record<string, { summary: string; load: () => Promise<{ run: CommandRun; usage?: string }> }> = {
   inspect: { summary: 'print a recording header, channels and events as JSON', load: () => import('./inspect.ts') },
   read: { summary: 'print samples as TSV', load: () => import('./read.ts') },
   forward: { summary: 'potentials of a current dipole at electrodes (TSV)', load: () => import('./forward.ts') },
@@ -13,11 +14,12 @@ const commands: Record<string, { summary: string; load: () => Promise<{ run: Com
   decompose: { summary: 'run ICA (extended Infomax or Picard) on a recording', load: () => import('./decompose.ts') },
   evidence: { summary: 'compute per-component evidence and suggested verdicts', load: () => import('./evidence.ts') },
   clean: { summary: 'write the cleaned recording from a decisions file', load: () => import('./clean.ts') },
+  agree: { summary: "agreement (Cohen's kappa) between two reviewers' decisions files", load: () => import('./agree.ts') },
 };
 
 function usage(): string {
   const lines = Object.entries(commands).map(([name, c]) => `  ${name.padEnd(11)} ${c.summary}`);
-  return `usage: winnow <command> [options]\n\ncommands:\n${lines.join('\n')}\n\nWinnow is a research tool, not for clinical diagnosis.\n`;
+  return `usage: winnow <command> [options]\n\ncommands:\n${lines.join('\n')}\n\nwinnow <command> --help shows a command's options.\nWinnow is a research tool, not for clinical diagnosis.\n`;
 }
 
 export async function main(argv: string[], io: CliIo = processIo): Promise<number> {
@@ -33,6 +35,10 @@ export async function main(argv: string[], io: CliIo = processIo): Promise<numbe
   }
   try {
     const mod = await command.load();
+    if (wantsHelp(rest)) {
+      io.stdout(commandHelp(name, command.summary, mod));
+      return 0;
+    }
     return await mod.run(rest, io);
   } catch (e) {
     if (e instanceof CliError) {

@@ -76,3 +76,31 @@ export function kappaLabel(kappa: number | null): string {
   if (kappa <= 0.8) return 'substantial';
   return 'almost perfect';
 }
+
+/** One item rated by two reviewers: its key (e.g. a component's 1-based index) and each reviewer's label. */
+export interface KeyedPair<K> {
+  readonly key: K;
+  readonly a: string;
+  readonly b: string;
+}
+
+export interface KeyedAgreement<K = number> extends KappaResult {
+  /** Keys whose labels differ, in the order given. */
+  readonly disagreements: K[];
+  /** When κ is undefined because both reviewers used one identical category throughout: that category. */
+  readonly constantCategory: string | null;
+}
+
+/**
+ * Cohen's κ (Cohen 1960) of items already paired by key (never by list position): the count table over
+ * `categories`, κ from it, and the keys on which the two labels differ. Labels outside `categories` are
+ * left out of the table, as in agreementTable.
+ */
+export function agreementByKey<K>(pairs: readonly KeyedPair<K>[], categories: readonly string[]): KeyedAgreement<K> {
+  const { table } = agreementTable(pairs.map((p) => p.a), pairs.map((p) => p.b), categories);
+  const result = cohenKappa(table);
+  const disagreements = pairs.filter((p) => p.a !== p.b).map((p) => p.key);
+  const seen = new Set(pairs.flatMap((p) => [p.a, p.b]));
+  const constantCategory = result.kappa === null && result.n > 0 && seen.size === 1 ? [...seen][0] : null;
+  return { ...result, disagreements, constantCategory };
+}
