@@ -1,24 +1,41 @@
 #!/usr/bin/env node
-// Layering rule (DEVELOPERS.md): src/core is pure numeric/IO code. It may not import React, zustand,
-// comlink, d3-selection or anything from src/ui, src/state, src/bridge or workers, and may not touch the DOM.
+// `npm run lint`: the module-boundary rules of DEVELOPERS.md ("Layout"), applied to every file of src/ and
+// workers/ by bin/layer-rules.mjs. The type check (tsconfig.core.json etc.) keeps the DOM and node types out
+// of the layers that must not use them; this keeps out the imports.
 import { readdirSync, readFileSync, statSync } from 'node:fs';
-import { join } from 'node:path';
+import { join, relative, sep } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { layerViolations } from './layer-rules.mjs';
 
-const forbidden = [/from ['"]react/, /from ['"]zustand/, /from ['"]comlink/, /from ['"][./]*\.\.\/(ui|state|bridge)\//, /\bdocument\.(createElement|querySelector|getElementById|body|addEventListener)/, /\bwindow\.(addEventListener|location|localStorage|sessionStorage|navigator|document)/, /\blocalStorage\b/];
-const bad = [];
-function walk(dir) {
-  for (const name of readdirSync(dir)) {
-    const p = join(dir, name);
-    if (statSync(p).isDirectory()) walk(p);
-    else if (/\.tsx?$/.test(name)) {
-      const text = readFileSync(p, 'utf8');
-      for (const re of forbidden) if (re.test(text)) bad.push(`${p}: matches ${re}`);
+const root = fileURLToPath(new URL('..', import.meta.url));
+
+/** Every .ts/.tsx file under `dir`, as repository-relative POSIX paths. */
+export function sourceFiles(dir = root) {
+  /** @type {string[]} */
+  const out = [];
+  /** @param {string} d */
+  const walk = (d) => {
+    for (const name of readdirSync(d)) {
+      const p = join(d, name);
+      if (statSync(p).isDirectory()) walk(p);
+      else if (/\.tsx?$/.test(name)) out.push(relative(dir, p).split(sep).join('/'));
     }
+  };
+  for (const top of ['src', 'workers']) walk(join(dir, top));
+  return out.sort();
+}
+
+/** All violations in the repository at `dir`. */
+export function checkRepository(dir = root) {
+  return sourceFiles(dir).flatMap((file) => layerViolations({ file, source: readFileSync(join(dir, file), 'utf8') }));
+}
+
+if (process.argv[1] && fileURLToPath(import.meta.url) === process.argv[1]) {
+  const bad = checkRepository();
+  if (bad.length) {
+    console.error(`error: ${bad.length} layering violation(s) (DEVELOPERS.md, Layout):`);
+    for (const v of bad) console.error(`${v.file}:${v.line}: ${v.message}`);
+    process.exit(1);
   }
+  console.log('layers ok');
 }
-walk(new URL('../src/core', import.meta.url).pathname);
-if (bad.length) {
-  console.error(`error: src/core must stay free of UI, state and DOM code:\n${bad.join('\n')}`);
-  process.exit(1);
-}
-console.log('layers ok');
