@@ -9,11 +9,9 @@
  * The decisions file names the SHA-256 of the recording's and the decomposition file's bytes; a mismatch
  * is an error (exit 2) unless --ignore-hashes.
  */
-import { createHash } from 'node:crypto';
-import { createReadStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
-import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
+import { CliError, sha256OfFile, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { openRecordingSource } from './read.ts';
 import { writeFileAtomicChunks } from './atomic-write.ts';
 import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
@@ -39,16 +37,6 @@ options:
   -h, --help                show this help
 `;
 
-/** SHA-256 of a file, streamed (a large recording is never held whole). */
-function sha256OfFile(path: string): Promise<string> {
-  return new Promise((resolve, reject) => {
-    const hash = createHash('sha256');
-    createReadStream(path)
-      .on('data', (chunk) => hash.update(chunk))
-      .on('error', reject)
-      .on('end', () => resolve(hash.digest('hex')));
-  });
-}
 
 async function readInput(path: string): Promise<Uint8Array> {
   try {

@@ -2,6 +2,8 @@
  * Shared plumbing for `winnow` commands: a typed error with the exit code the contract fixes
  * (2 = bad input, 1 = internal fault) and a minimal output sink that tests can capture.
  */
+import { createHash } from 'node:crypto';
+import { createReadStream } from 'node:fs';
 import { parseArgs, type ParseArgsConfig } from 'node:util';
 
 export class CliError extends Error {
@@ -56,4 +58,15 @@ export function numberOption(command: string, name: string, value: string | unde
   const v = Number(value);
   if (!Number.isFinite(v) || value.trim() === '') throw new CliError(`winnow ${command}: --${name} must be a number, got "${value}"`);
   return v;
+}
+
+/** SHA-256 (hex) of a file's bytes, streamed so a large recording is never held whole. */
+export function sha256OfFile(path: string): Promise<string> {
+  return new Promise((resolve, reject) => {
+    const hash = createHash('sha256');
+    createReadStream(path)
+      .on('data', (chunk) => hash.update(chunk))
+      .on('error', reject)
+      .on('end', () => resolve(hash.digest('hex')));
+  });
 }

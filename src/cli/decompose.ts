@@ -9,14 +9,12 @@
  * (worker_threads over a SharedArrayBuffer) unless `--threads 1` or the machine has one core; results are
  * bit-identical for the same seed and thread count.
  */
-import { createHash } from 'node:crypto';
 import { availableParallelism } from 'node:os';
 import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { createReadStream } from 'node:fs';
 import { readFile } from 'node:fs/promises';
-import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
+import { CliError, sha256OfFile, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { openFileByteSource } from './node-byte-source.ts';
 import { writeFileAtomic } from './atomic-write.ts';
 import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
@@ -80,15 +78,6 @@ options:
   -h, --help                show this help
 `;
 
-function sha256OfFile(path: string): Promise<string> {
-  return new Promise((resolve, reject) => {
-    const h = createHash('sha256');
-    createReadStream(path)
-      .on('data', (chunk) => h.update(chunk))
-      .on('error', reject)
-      .on('end', () => resolve(h.digest('hex')));
-  });
-}
 
 function progressLine(p: DecomposeProgress): string {
   if (p.stage !== 'ica') return `decompose: ${p.stage}\n`;
