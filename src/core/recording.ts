@@ -42,6 +42,12 @@ export interface RecordingEvent {
   readonly source: 'annotation' | 'boundary' | 'events-tsv';
   /** Seconds, from events.tsv response_time when present. */
   readonly responseTime?: number;
+  /**
+   * Every other events.tsv column of this row (column name → cell text, 'n/a' kept as written), e.g.
+   * { condition: 'rare' }; the factors a reviewer can select or split events by. BIDS specification,
+   * "Task events". Absent for EDF+ annotations.
+   */
+  readonly columns?: Readonly<Record<string, string>>;
 }
 
 export interface RecordingHeader {

@@ -29,6 +29,8 @@ export interface EvidenceEvent {
   readonly duration: number;
   readonly label: string;
   readonly responseTime?: number;
+  /** The other events.tsv columns of this event (RecordingEvent.columns). */
+  readonly columns?: Readonly<Record<string, string>>;
 }
 
 /** A dipole fit of one scalp map (the map in decomposition channel order); null when impossible. */

@@ -238,6 +238,12 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
       label: rawLabel === 'n/a' ? '' : rawLabel,
       source: 'events-tsv',
     };
+    const extra: Record<string, string> = {};
+    for (const [name, idx] of Object.entries(c)) {
+      if (name === 'onset' || name === 'duration' || name === 'sample' || idx === labelCol || name === 'response_time') continue;
+      extra[name] = (row[idx] ?? '').trim();
+    }
+    if (Object.keys(extra).length > 0) ev.columns = extra;
     if (c.response_time !== undefined) {
       const rt = num(row[c.response_time]);
       if (rt === null)

@@ -80,6 +80,13 @@ describe('parseElectrodesTsv', () => {
 });
 
 describe('parseEventsTsv', () => {
+  it('keeps every other column as a factor of the event (BIDS specification, "Task events": any additional column)', () => {
+    const r = parseEventsTsv('onset\tduration\ttrial_type\tcondition\tsample\n1\t0\ttone\trare\t250\n2\t0\ttone\tn/a\t500\n', 'e.tsv');
+    expect(r.ok).toBe(true);
+    if (!r.ok) return;
+    expect(r.value.map((e) => e.label)).toEqual(['tone', 'tone']);
+    expect(r.value.map((e) => e.columns)).toEqual([{ condition: 'rare' }, { condition: 'n/a' }]);
+  });
   it('reads onset, duration, trial_type and response_time (n/a duration → 0, n/a response → absent)', () => {
     const r = parseEventsTsv('onset\tduration\ttrial_type\tresponse_time\n1.500\t0\tstimulus\t0.412\n3\tn/a\tresponse\tn/a\n', 'e.tsv');
     expect(r.ok && r.value).toEqual([
