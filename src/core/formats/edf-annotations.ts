@@ -1,0 +1,183 @@
+/**
+ * EDF+/BDF+ annotations and record times: reads the time-keeping TAL of every data record and every annotation
+ * [Kemp & Olivan 2003 §2.2], without decoding samples. Conventions of the results: see edf.ts.
+ */
+import type { ByteSource } from './byte-source.ts';
+import { parseFail, parseOk, type ParseError, type ParseResult } from './parse-result.ts';
+import { parseTals } from './tal.ts';
+import type { RecordingEvent, RecordingInfo } from '../recording.ts';
+import { BATCH_BYTES, ioFail, readEdfLayout, type EdfLayout } from './edf-header.ts';
+
+/** Calls `onBatch` for consecutive batches of whole records [first, first + count) of `layout`. */
+async function forEachRecordBatch(
+  source: ByteSource,
+  layout: EdfLayout,
+  firstRecord: number,
+  endRecord: number,
+  onBatch: (bytes: Uint8Array, first: number, count: number) => ParseError | void,
+  onProgress?: (fraction: number) => void,
+): Promise<ParseError | void> {
+  const perBatch = Math.max(1, Math.floor(BATCH_BYTES / layout.recordBytes));
+  for (let r = firstRecord; r < endRecord; r += perBatch) {
+    const count = Math.min(perBatch, endRecord - r);
+    const want = count * layout.recordBytes;
+    const bytes = await source.read(layout.headerBytes + r * layout.recordBytes, want);
+    if (bytes.length < want)
+      return {
+        code: 'truncated-record',
+        message: `${layout.fileName}: data record ${r + Math.floor(bytes.length / layout.recordBytes)} ends early (the file changed or is shorter than its header says)`,
+        file: layout.fileName,
+        byteOffset: layout.headerBytes + r * layout.recordBytes + bytes.length,
+      };
+    const err = onBatch(bytes, r, count);
+    onProgress?.(Math.min(1, (r + count - firstRecord) / Math.max(1, endRecord - firstRecord)));
+    if (err) return err;
+  }
+}
+
+/**
+ * Reads the header and every annotation (TAL) of an EDF/EDF+/BDF/BDF+ file. Data samples are not decoded.
+ */
+export async function readEdfInfo(
+  source: ByteSource,
+  opts: { onProgress?: (fraction: number) => void } = {},
+): Promise<ParseResult<RecordingInfo>> {
+  const head = await readEdfLayout(source);
+  if (!head.ok) return head;
+  const { layout, channels, patientId, recordingId, start } = head.value;
+  const warnings = [...head.value.warnings];
+  const { records, recordDurationSeconds: dur } = layout;
+  const rawOnsets = new Float64Array(records);
+  for (let r = 0; r < records; r++) rawOnsets[r] = r * dur;
+  const tals: { onset: number; duration: number | null; text: string }[] = [];
+  const annIdx = layout.signals.map((s, i) => (s.isAnnotation ? i : -1)).filter((i) => i >= 0);
+  const discontinuous = layout.format.endsWith('+D');
+
+  /** Parses the TALs of record r; `buf[0]` sits at byte `base` of that record. */
+  const handleRecord = (r: number, buf: Uint8Array, base: number): ParseError | void => {
+    for (let a = 0; a < annIdx.length; a++) {
+      const s = layout.signals[annIdx[a]];
+      const off = s.byteOffsetInRecord - base;
+      const len = s.samplesPerRecord * layout.bytesPerSample;
+      const fileOffset = layout.headerBytes + r * layout.recordBytes + s.byteOffsetInRecord;
+      const res = parseTals(buf.subarray(off, off + len), r, layout.fileName, fileOffset);
+      if (!res.ok) return res.error;
+      let list = res.value;
+      if (a === 0) {
+        const keeper = list[0];
+        if (!keeper || keeper.annotations.length === 0 || keeper.annotations[0] !== '')
+          return {
+            code: 'bad-tal',
+            message: `${layout.fileName}: data record ${r} does not start with a time-keeping TAL ("+<seconds>" 0x14 0x14 0x00) at byte ${fileOffset}`,
+            file: layout.fileName,
+            byteOffset: fileOffset,
+          };
+        rawOnsets[r] = keeper.onset;
+        list = [{ ...keeper, annotations: keeper.annotations.slice(1) }, ...list.slice(1)];
+      }
+      for (const t of list) for (const text of t.annotations) tals.push({ onset: t.onset, duration: t.duration, text });
+    }
+  };
+
+  if (annIdx.length > 0 && records > 0) {
+    // The annotation signals' byte span inside a record. When it is a small part of the record (the usual
+    // case: EEG samples dominate), only that span of each record is read, in parallel groups; otherwise
+    // whole batches of records are read.
+    const annStart = Math.min(...annIdx.map((i) => layout.signals[i].byteOffsetInRecord));
+    const annEnd = Math.max(...annIdx.map((i) => layout.signals[i].byteOffsetInRecord + layout.signals[i].samplesPerRecord * layout.bytesPerSample));
+    const sparse = (annEnd - annStart) * 16 <= layout.recordBytes && layout.recordBytes >= 4096;
+    try {
+      let err: ParseError | void = undefined;
+      if (sparse) {
+        const GROUP = 64;
+        const span = annEnd - annStart;
+        for (let r0 = 0; r0 < records && !err; r0 += GROUP) {
+          const r1 = Math.min(records, r0 + GROUP);
+          const slices = await Promise.all(
+            Array.from({ length: r1 - r0 }, (_, k) => source.read(layout.headerBytes + (r0 + k) * layout.recordBytes + annStart, span)),
+          );
+          for (let k = 0; k < slices.length && !err; k++) {
+            if (slices[k].length < span)
+              err = {
+                code: 'truncated-record',
+                message: `${layout.fileName}: data record ${r0 + k} ends early (the file changed or is shorter than its header says)`,
+                file: layout.fileName,
+              };
+            else err = handleRecord(r0 + k, slices[k], annStart);
+          }
+          opts.onProgress?.(r1 / records);
+        }
+      } else {
+        err = await forEachRecordBatch(
+          source,
+          layout,
+          0,
+          records,
+          (bytes, first, count) => {
+            for (let k = 0; k < count; k++) {
+              const e = handleRecord(first + k, bytes.subarray(k * layout.recordBytes, (k + 1) * layout.recordBytes), 0);
+              if (e) return e;
+            }
+          },
+          opts.onProgress,
+        );
+      }
+      if (err) return parseFail(err);
+    } catch (e) {
+      return ioFail(source.name, e);
+    }
+  }
+
+  const t0 = records > 0 ? rawOnsets[0] : 0;
+  if (t0 !== 0) warnings.push(`${layout.fileName}: first data record starts at +${t0} s after the header's start time; times count from the first sample`);
+  const recordOnsets = new Float64Array(records);
+  for (let r = 0; r < records; r++) recordOnsets[r] = rawOnsets[r] - t0;
+  const events: RecordingEvent[] = tals.map((t) => ({
+    onset: t.onset - t0,
+    duration: t.duration ?? 0,
+    label: t.text,
+    source: 'annotation' as const,
+  }));
+  if (!discontinuous && annIdx.length > 0) {
+    for (let r = 1; r < records; r++) {
+      if (Math.abs(recordOnsets[r] - r * dur) > 1e-6 * Math.max(1, dur)) {
+        warnings.push(`${layout.fileName}: ${layout.format} (continuous) but data record ${r} is time-stamped ${recordOnsets[r]} s instead of ${r * dur} s`);
+        break;
+      }
+    }
+  }
+  if (discontinuous) {
+    for (let r = 1; r < records; r++) {
+      const gap = recordOnsets[r] - (recordOnsets[r - 1] + dur);
+      if (gap < -1e-9 * Math.max(1, dur))
+        return parseFail({
+          code: 'bad-tal',
+          message: `${layout.fileName}: data record ${r} starts at ${recordOnsets[r]} s, before the end of record ${r - 1} (${recordOnsets[r - 1] + dur} s); EDF+D records must not overlap`,
+          file: layout.fileName,
+          byteOffset: layout.headerBytes + r * layout.recordBytes,
+        });
+      if (gap > 1e-9 * Math.max(1, dur))
+        events.push({ onset: recordOnsets[r], duration: gap, label: 'boundary', source: 'boundary' });
+    }
+  }
+  events.sort((a, b) => a.onset - b.onset);
+  const durationSeconds = records === 0 ? 0 : discontinuous ? recordOnsets[records - 1] + dur : records * dur;
+  const info: RecordingInfo = {
+    fileName: layout.fileName,
+    format: layout.format,
+    header: {
+      patientId,
+      recordingId,
+      start,
+      headerBytes: layout.headerBytes,
+      records,
+      recordDurationSeconds: dur,
+      recordOnsets,
+    },
+    channels,
+    durationSeconds,
+    events,
+  };
+  return parseOk(info, warnings);
+}
+
