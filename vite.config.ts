@@ -1,5 +1,6 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
+import { methodsPagePlugin } from './bin/methods-page.mjs';
 
 /**
  * Cross-origin isolation (COOP + COEP) lets the page share one copy of the recording with the workers
@@ -23,7 +24,7 @@ const devHeaders: Record<string, string> = {
 };
 
 export default defineConfig({
-  plugins: [react()],
+  plugins: [react(), methodsPagePlugin()],
   publicDir: 'public',
   server: { headers: devHeaders, port: 5173 },
   preview: { headers: securityHeaders, port: 4173 },

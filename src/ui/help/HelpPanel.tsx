@@ -1,6 +1,7 @@
 /** The keys, listed from the same table the key handler uses. */
 import { useEffect, useRef } from 'react';
 import { KEY_BINDINGS } from '../layout/review-keys.ts';
+import { methodsHref } from './methods-link.ts';
 
 export function HelpPanel({ onClose }: { onClose: () => void }) {
   const ref = useRef<HTMLButtonElement>(null);
@@ -19,6 +20,11 @@ export function HelpPanel({ onClose }: { onClose: () => void }) {
           ))}
         </tbody>
       </table>
+      <p>
+        Every measure, threshold and formula, with its published source:{' '}
+        <a href={methodsHref()} target="_blank" rel="noopener" data-testid="methods-page-link">methods and sources</a>.
+        Winnow is a research tool, not for clinical diagnosis; dipole locations are approximate model estimates.
+      </p>
       <button ref={ref} type="button" onClick={onClose} data-testid="help-close">Close (Escape)</button>
     </section>
   );

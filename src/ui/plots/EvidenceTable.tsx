@@ -3,6 +3,7 @@
  * threshold carry a "▲" mark as well as a colour, so the table reads without colour.
  */
 import type { EvidenceRow } from './evidence-rows.ts';
+import { CitedText } from '../help/CitedText.tsx';
 
 export function EvidenceTable({ rows }: { rows: readonly EvidenceRow[] }) {
   return (
@@ -23,7 +24,7 @@ export function EvidenceTable({ rows }: { rows: readonly EvidenceRow[] }) {
             <td className="num">{r.flagged ? '▲ ' : ''}{r.value}</td>
             <td>{r.unit}</td>
             <td>{r.threshold}</td>
-            <td className="source">{r.source}</td>
+            <td className="source"><CitedText text={r.source} /></td>
           </tr>
         ))}
       </tbody>
