@@ -128,12 +128,17 @@ export async function readEdfInfo(
     }
   }
 
+  // The first record's time-keeping onset is the start's sub-second part ("+0.214") [Kemp & Olivan 2003
+  // §2.2.4]; the reported start is the time of the first sample, and every time counts from that sample.
   const t0 = records > 0 ? rawOnsets[0] : 0;
-  if (t0 !== 0) warnings.push(`${layout.fileName}: first data record starts at +${t0} s after the header's start time; times count from the first sample`);
+  if (t0 < 0 || t0 >= 1)
+    warnings.push(`${layout.fileName}: first data record starts at ${t0 < 0 ? '' : '+'}${t0} s from the header's start time (expected a sub-second offset 0 ≤ t < 1); the start is reported as the time of the first sample and times count from it`);
+  // TAL times are decimal text: subtracting t0 is rounded to nanoseconds so 5.214 − 0.214 is 5, not 5.000000000000001.
+  const shift = (t: number) => (t0 === 0 ? t : Math.round((t - t0) * 1e9) / 1e9);
   const recordOnsets = new Float64Array(records);
-  for (let r = 0; r < records; r++) recordOnsets[r] = rawOnsets[r] - t0;
+  for (let r = 0; r < records; r++) recordOnsets[r] = shift(rawOnsets[r]);
   const events: RecordingEvent[] = tals.map((t) => ({
-    onset: t.onset - t0,
+    onset: shift(t.onset),
     duration: t.duration ?? 0,
     label: t.text,
     source: 'annotation' as const,
@@ -168,7 +173,7 @@ export async function readEdfInfo(
     header: {
       patientId,
       recordingId,
-      start,
+      start: t0 === 0 ? start : addSecondsToStart(start, t0),
       headerBytes: layout.headerBytes,
       records,
       recordDurationSeconds: dur,
@@ -181,3 +186,19 @@ export async function readEdfInfo(
   return parseOk(info, warnings);
 }
 
+
+/**
+ * `start` ("YYYY-MM-DDTHH:MM:SS") plus `seconds`, as ISO 8601 local time with the fraction when there is one
+ * (at most 9 decimals, trailing zeros dropped): ("2026-03-02T09:15:30", 0.214) → "2026-03-02T09:15:30.214".
+ */
+export function addSecondsToStart(start: string, seconds: number): string {
+  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})$/.exec(start);
+  if (!m || !Number.isFinite(seconds)) return start;
+  const ns = Math.round(seconds * 1e9);
+  const whole = Math.floor(ns / 1e9);
+  const fracNs = ns - whole * 1e9;
+  const d = new Date(Date.UTC(+m[1], +m[2] - 1, +m[3], +m[4], +m[5], +m[6]) + whole * 1000);
+  const p2 = (v: number) => String(v).padStart(2, '0');
+  const base = `${String(d.getUTCFullYear()).padStart(4, '0')}-${p2(d.getUTCMonth() + 1)}-${p2(d.getUTCDate())}T${p2(d.getUTCHours())}:${p2(d.getUTCMinutes())}:${p2(d.getUTCSeconds())}`;
+  return fracNs === 0 ? base : `${base}.${String(fracNs).padStart(9, '0').replace(/0+$/, '')}`;
+}

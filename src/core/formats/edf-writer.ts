@@ -36,7 +36,11 @@ export interface EdfWriteInput {
   recordingId?: string;
   /** Keep patientId/recordingId as given; otherwise the EDF+ anonymous forms are written. */
   keepIdentity?: boolean;
-  /** ISO local "YYYY-MM-DDTHH:MM:SS". */
+  /**
+   * ISO local "YYYY-MM-DDTHH:MM:SS", optionally with a fraction ("…:30.214"): the header holds the whole
+   * second and every TAL onset carries the fraction, so the first record's time-keeping TAL is "+0.214"
+   * [Kemp & Olivan 2003 §2.2.4].
+   */
   start: string;
   recordDurationSeconds: number;
   /** Start of each record in seconds from the first sample (required for +D; ignored for +C). */
@@ -75,10 +79,10 @@ export function formatEdfNumber(v: number, width = 8, direction: 'up' | 'down' |
   throw new RangeError(`EDF header number ${v} does not fit in ${width} characters`);
 }
 
-function startParts(start: string): { y: number; mo: number; d: number; h: number; mi: number; s: number } {
-  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})/.exec(start);
-  if (!m) throw new RangeError(`start must be ISO local "YYYY-MM-DDTHH:MM:SS", got "${start}"`);
-  return { y: +m[1], mo: +m[2], d: +m[3], h: +m[4], mi: +m[5], s: +m[6] };
+function startParts(start: string): { y: number; mo: number; d: number; h: number; mi: number; s: number; frac: number } {
+  const m = /^(\d{4})-(\d{2})-(\d{2})T(\d{2}):(\d{2}):(\d{2})(?:\.(\d{1,9}))?/.exec(start);
+  if (!m) throw new RangeError(`start must be ISO local "YYYY-MM-DDTHH:MM:SS" (optionally ".fff"), got "${start}"`);
+  return { y: +m[1], mo: +m[2], d: +m[3], h: +m[4], mi: +m[5], s: +m[6], frac: m[7] ? Number(`0.${m[7]}`) : 0 };
 }
 
 interface Prepared {
@@ -137,15 +141,18 @@ function prepare(input: EdfWriteInput): Prepared {
     return { dmin, dmax, pmin: Number(formatEdfNumber(pmin, 8, 'nearest')), pmax: Number(formatEdfNumber(pmax, 8, 'nearest')) };
   });
 
+  // TAL onsets count from the header's whole-second start: the start's fraction is added to each [EDF+ §2.2.4].
+  const frac = startParts(input.start).frac;
+  const tal = (t: number) => (frac === 0 ? t : Math.round((t + frac) * 1e9) / 1e9);
   // Annotations go into the last record whose start is ≤ their onset (record 0 for earlier onsets).
   const talsPerRecord: Uint8Array[][] = [];
-  for (let r = 0; r < records; r++) talsPerRecord.push([encodeTal(onsets[r], null, [''])]);
+  for (let r = 0; r < records; r++) talsPerRecord.push([encodeTal(tal(onsets[r]), null, [''])]);
   if (records === 0 && input.annotations.length > 0) throw new RangeError('annotations need at least one data record');
   const sorted = [...input.annotations].sort((a, b) => a.onset - b.onset);
   let r = 0;
   for (const a of sorted) {
     while (r + 1 < records && onsets[r + 1] <= a.onset) r++;
-    talsPerRecord[r].push(encodeTal(a.onset, a.duration > 0 ? a.duration : null, [a.label]));
+    talsPerRecord[r].push(encodeTal(tal(a.onset), a.duration > 0 ? a.duration : null, [a.label]));
   }
   let maxAnn = 0;
   for (const list of talsPerRecord) maxAnn = Math.max(maxAnn, list.reduce((s, b) => s + b.length, 0));

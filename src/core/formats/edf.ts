@@ -8,7 +8,8 @@
  *   included, scaled to microvolts; the header's own text stays in `headerUnit`.
  * - Times are seconds from the first stored sample (BIDS). EDF+ writes the first record's time-keeping TAL as
  *   `+0` or `+0.X` (the sub-second part of the start time); that first onset is subtracted from every record
- *   onset and annotation onset.
+ *   onset and annotation onset, and the reported start is the header's start plus it, with the fraction
+ *   ("2026-03-02T09:15:30.214") [Kemp & Olivan 2003 §2.2.4].
  * - EDF+D/BDF+D: record onsets come from the time-keeping TALs; each gap before a record becomes an event
  *   with source 'boundary', label 'boundary' and the gap length as its duration.
  * - Records = −1 (still recording) is replaced by the count of whole records in the file, with a warning.
