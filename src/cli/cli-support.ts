@@ -26,6 +26,24 @@ export const processIo: CliIo = {
   stderr: (t) => void process.stderr.write(t),
 };
 
+/**
+ * Holds the "warning: …" lines a command writes to stderr until `release()`, so that when the command then
+ * fails, its `error:` line can be written first and scripts reading the first line of stderr see the fault
+ * (issue 14 item 9). Other stderr text (progress) passes through at once.
+ */
+export function holdWarnings(io: CliIo): { release(): void } {
+  // `io` keeps its identity (read.ts streams to the real stdout when io is processIo): only stderr is swapped.
+  const held: string[] = [];
+  const original = io.stderr;
+  io.stderr = (t) => void (t.startsWith('warning:') ? held.push(t) : original.call(io, t));
+  return {
+    release: () => {
+      io.stderr = original;
+      for (const t of held.splice(0)) io.stderr(t);
+    },
+  };
+}
+
 /** Collects output in memory (for tests and for commands that call one another). */
 export function memoryIo(): CliIo & { out: string; err: string } {
   const io = {

@@ -2,7 +2,7 @@
  * `winnow <command>`: the headless entry point over src/core. Each command lives in its own file and is
  * loaded on demand so that one command's dependencies never slow another's start.
  */
-import { CliError, processIo, type CliIo, type CommandRun } from './cli-support.ts';
+import { CliError, holdWarnings, processIo, type CliIo, type CommandRun } from './cli-support.ts';
 import { commandHelp, wantsHelp } from './help.ts';
 
 export const commands: Record<string, { summary: string; load: () => Promise<{ run: CommandRun; usage?: string }> }> = {
@@ -33,6 +33,7 @@ export async function main(argv: string[], io: CliIo = processIo): Promise<numbe
     io.stderr(`error: unknown command "${name}"\n${usage()}`);
     return 2;
   }
+  const warnings = holdWarnings(io); // an error line goes before the warnings held so far
   try {
     const mod = await command.load();
     if (wantsHelp(rest)) {
@@ -49,5 +50,7 @@ export async function main(argv: string[], io: CliIo = processIo): Promise<numbe
     io.stderr(`error: internal fault in winnow ${name}: ${err?.message ?? String(e)}\n`);
     if (process.env.WINNOW_DEBUG) io.stderr(`${err?.stack ?? ''}\n`);
     return 1;
+  } finally {
+    warnings.release(); // after the error line, if any
   }
 }
