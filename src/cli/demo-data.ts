@@ -48,7 +48,9 @@ The recording is a known linear mixture of 21 sources plus 0.7 µV sensor noise:
 - cable sway after each step on the posterior electrodes; a heartbeat far field;
 - ${o.lineHz} Hz mains on T8, FC6 and C4; a loose electrode at P7 with drifts and pops.
 
-Events (\`_events.tsv\` and the EDF+ annotations): \`tone/standard\`, \`tone/rare\`, \`step/left\`, \`step/right\`.
+Events (\`_events.tsv\`, BIDS columns): \`trial_type\` \`tone\` or \`step\`; \`condition\` \`standard\` or \`rare\`
+for tones; \`foot\` \`left\` or \`right\` for steps (\`n/a\` where a column does not apply). The EDF+ annotations
+carry the trial_type.
 
 ## Files
 

@@ -103,7 +103,7 @@ export const browserServices: WorkbenchServices = {
         positionsUnit: recording.positions ?? null,
         types: labels.map((l) => info.get(l)?.type ?? 'EEG'),
         decomposition,
-        events: recording.events.filter((e) => e.source !== 'boundary').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label, ...(e.responseTime !== undefined ? { responseTime: e.responseTime } : {}) })),
+        events: recording.events.filter((e) => e.source !== 'boundary').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label, ...(e.responseTime !== undefined ? { responseTime: e.responseTime } : {}), ...(e.columns ? { columns: e.columns } : {}) })),
         aim,
         // PowerLineFrequency of the paired *_eeg.json, else 50 Hz (the recording summary says which).
         lineHz: mainsFrequency(recording.powerLine).hz,

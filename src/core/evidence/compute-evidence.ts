@@ -4,16 +4,17 @@
  * long the recording; every per-component number is then taken from that block and the block is dropped.
  *
  * Order of work per block: activations → moments and variance shares → Welch spectrum and its shape →
- * ocular, focality, cardiac → epochs (ERP, trial stack, time-locking, step-locking) → dipole → suggestions.
+ * ocular, focality, cardiac → epochs (ERP, trial stack, time-locking per event type, step-locking) → dipole.
  * `timings` reports the wall time of each stage in ms (activations, spectra, epochs, dipoles, other).
+ *
+ * Measures only (issue 10 item 1): no aim and no threshold table enter here; verdicts come from
+ * `suggestWithRules(evidence, aim, thresholds)` (review/suggest.ts), computed by whoever shows them.
  */
 import type { Decomposition } from '../decomposition.ts';
 import { createHeadModel } from '../headmodel/forward.ts';
 import { createDipoleFitter } from '../headmodel/dipole-fit.ts';
 import { approximateRegion } from '../headmodel/region.ts';
-import { resolveThresholds, type Thresholds } from '../review/thresholds.ts';
-import { suggestAllAims } from '../review/suggest.ts';
-import type { Aim } from '../review/vocabulary.ts';
+import { roundHalfAway } from '../signal/epochs.ts';
 import { createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength, type WelchPlan } from '../signal/welch.ts';
 import { channelMoments, computeActivations, signalMoments } from './activations.ts';
 import { cardiacPeriodicity } from './cardiac.ts';
@@ -21,8 +22,9 @@ import { mapFocality } from './focality.ts';
 import { STEP_EVENT_PATTERN, stepLocking } from './motion.ts';
 import { eogReferences, mapGeometry, mirrorPairs, stepLikeness } from './ocular.ts';
 import { findAlphaPeak, fitOneOverF, spectrumShares } from './spectrum-shape.ts';
-import { eventLocked } from './time-locking.ts';
-import type { ComponentEvidence, DipoleEvidence, TrialStack, ErpEvidence } from './types.ts';
+import { eventLocked, LOCKING_MAX_SHUFFLES, LOCKING_STOP_AFTER, lockingPermutationTest } from './time-locking.ts';
+import { defaultEventType, eventTypes, isStepType, parseSelectionKey, selectEvents, splitEvents } from './event-selection.ts';
+import type { ComponentEvidence, DipoleEvidence, TrialStack, ErpEvidence, TimeLockingTest } from './types.ts';
 
 export interface EvidenceEvent {
   readonly onset: number;
@@ -51,18 +53,24 @@ export interface EvidenceInput {
   readonly types?: readonly string[];
   readonly decomposition: Decomposition;
   readonly events?: readonly EvidenceEvent[];
-  /** Event label (or label prefix before "/") to epoch; default: the most frequent non-step prefix. */
+  /** Event type (trial_type) to epoch, or an event-selection.ts selectionKey; default: the most frequent non-step type. */
   readonly epochEvent?: string;
   /** Epoch window in s relative to the event (default −0.2 … 0.8 s). */
   readonly window?: readonly [number, number];
   /** Power-line frequency in Hz (default 50). */
   readonly lineHz?: 50 | 60;
-  /** The caller's current aim. Suggestions are always computed for all three aims (`suggestions[aim]`). */
-  readonly aim?: Aim;
-  readonly thresholds?: Partial<Thresholds>;
+  /**
+   * An events.tsv column (EvidenceEvent.columns, e.g. "condition"): time-locking is then also tested for each
+   * of its values within each event type (ComponentEvidence.timeLocking).
+   */
+  readonly lockColumn?: string;
   /** 0-based [start, end) range of components to compute (default all); indices stay global. */
   readonly componentRange?: readonly [number, number];
-  /** Most shuffles for the time-locking permutation test (default 19, so p ≥ 0.05; sequential stopping after 3 exceedances). */
+  /**
+   * Most shuffles per time-locking permutation test (default LOCKING_MAX_SHUFFLES = 999, so p can reach
+   * 1/1000). Sequential (Besag & Clifford 1991, time-locking.ts): a test stops once LOCKING_STOP_AFTER (10)
+   * shuffles reach the observed share, so unlocked components cost a few tens of shuffles.
+   */
   readonly permutations?: number;
   /** Override the dipole fit (tests, or a fitter shared across calls); null disables fitting. */
   readonly dipoleFit?: DipoleFitFn | null;
@@ -75,7 +83,7 @@ export interface EvidenceResult {
   readonly components: ComponentEvidence[];
   /** Wall time per stage, ms: activations, spectra, shape, ocular, epochs, dipoles, other, total. */
   readonly timings: Record<string, number>;
-  /** The event label (or prefix) that was epoched, or null. */
+  /** The event type (or selection key) that was epoched, or null. */
   readonly epochEvent: string | null;
   readonly warnings: string[];
 }
@@ -83,24 +91,9 @@ export interface EvidenceResult {
 /** Default epoch window (issue 6): −0.2 … 0.8 s. */
 export const DEFAULT_EPOCH_WINDOW_S: readonly [number, number] = [-0.2, 0.8];
 
-const prefixOf = (label: string) => label.split('/')[0];
-
-/** The event label prefix epoched by default: the most frequent among non-step events (ties: first seen). */
+/** The event type epoched by default: the most frequent non-step trial_type (event-selection.ts). */
 export function defaultEpochEvent(events: readonly EvidenceEvent[]): string | null {
-  const counts = new Map<string, number>();
-  for (const e of events) {
-    if (STEP_EVENT_PATTERN.test(e.label) || e.label === 'boundary') continue;
-    const p = prefixOf(e.label);
-    counts.set(p, (counts.get(p) ?? 0) + 1);
-  }
-  let best: string | null = null;
-  let bestN = 0;
-  for (const [p, n] of counts) if (n > bestN) [best, bestN] = [p, n];
-  return best;
-}
-
-function eventsMatching(events: readonly EvidenceEvent[], name: string): EvidenceEvent[] {
-  return events.filter((e) => e.label === name || prefixOf(e.label) === name).sort((a, b) => a.onset - b.onset);
+  return defaultEventType(events);
 }
 
 /**
@@ -156,7 +149,63 @@ function dot(a: Float64Array, b: Float64Array): number {
   return s;
 }
 
-/** Computes the evidence and suggestions for every component (or `componentRange`). */
+/** One event set to test for time-locking: a type, or one value of the lock column within it. */
+interface LockingTarget {
+  readonly event: string;
+  readonly column?: string;
+  readonly value?: string;
+  readonly onsets: number[];
+}
+
+/** Every non-step event type (most frequent first), each followed by its lockColumn values when given. */
+function lockingTargets(events: readonly EvidenceEvent[], lockColumn: string | undefined): LockingTarget[] {
+  const out: LockingTarget[] = [];
+  for (const t of eventTypes(events)) {
+    if (isStepType(t.type) || t.type === 'boundary') continue;
+    out.push({ event: t.type, onsets: selectEvents(events, { type: t.type }).map((e) => e.onset) });
+    if (lockColumn)
+      for (const g of splitEvents(events, { type: t.type }, lockColumn))
+        out.push({ event: t.type, column: lockColumn, value: g.value, onsets: g.events.map((e) => e.onset) });
+  }
+  return out;
+}
+
+/**
+ * The sequential locking test of `x` around `onsetsS` (epoch rule of docs/methods.md §5, the same ~125 Hz
+ * grid as eventLocked), without the average or ITC; null when fewer than 2 epochs fit.
+ */
+function lockingAt(
+  x: Float64Array,
+  fs: number,
+  target: LockingTarget,
+  win: readonly [number, number],
+  nPermutations: number,
+  seed: number,
+): TimeLockingTest | null {
+  const o0 = roundHalfAway(win[0] * fs);
+  const o1 = roundHalfAway(win[1] * fs);
+  const length = o1 - o0 + 1;
+  const samples: number[] = [];
+  for (const onset of target.onsets) {
+    if (!Number.isFinite(onset)) continue;
+    const e = roundHalfAway(onset * fs);
+    if (e + o0 >= 0 && e + o1 <= x.length - 1) samples.push(e);
+  }
+  if (samples.length < 2 || length < 2) return null;
+  const stride = Math.max(1, Math.floor(fs / 125));
+  const test = lockingPermutationTest(x, samples, o0, length, nPermutations, seed, LOCKING_STOP_AFTER, stride);
+  return {
+    event: target.event,
+    ...(target.column !== undefined ? { column: target.column, value: target.value } : {}),
+    nEpochs: samples.length,
+    lockedShare: test.observed,
+    strength: test.observed - test.chance,
+    p: test.p,
+    shuffles: test.permutations,
+  };
+}
+
+/** Computes the evidence (measures only) for every component (or `componentRange`). */
 export function computeEvidence(input: EvidenceInput): EvidenceResult {
   const t0 = performance.now();
   const timings: Record<string, number> = { activations: 0, spectra: 0, shape: 0, ocular: 0, epochs: 0, dipoles: 0, other: 0, total: 0 };
@@ -167,7 +216,6 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
     return now;
   };
   const { data, nChannels, nSamples, sampleRate: fs, labels, decomposition: dec } = input;
-  const thresholds = resolveThresholds(input.thresholds);
   const lineHz = input.lineHz ?? 50;
   const nComp = dec.nComponents;
   const nDec = dec.nChannels;
@@ -233,12 +281,14 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
   // Events
   const events = input.events ?? [];
   const epochName = input.epochEvent ?? defaultEpochEvent(events);
-  const epochEvents = epochName ? eventsMatching(events, epochName) : [];
+  const epochEvents = epochName ? selectEvents(events, parseSelectionKey(epochName)) : [];
   if (epochName && epochEvents.length === 0) warnings.push(`no events labelled "${epochName}"`);
   const epochOnsets = epochEvents.map((e) => e.onset);
   const responseTimes = epochEvents.some((e) => e.responseTime !== undefined) ? epochEvents.map((e) => e.responseTime ?? NaN) : null;
   const stepEvents = events.filter((e) => STEP_EVENT_PATTERN.test(e.label)).sort((a, b) => a.onset - b.onset);
   const win = input.window ?? DEFAULT_EPOCH_WINDOW_S;
+  const nPermutations = input.permutations ?? LOCKING_MAX_SHUFFLES;
+  const targets = lockingTargets(events, input.lockColumn);
 
   // Dipoles
   let dipoleFit: DipoleFitFn | null = null;
@@ -299,7 +349,9 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
       const frequencies = freqs.slice(kLo, kHi + 1);
       tNow = tick('spectra', tNow);
       const oneOverF = fitOneOverF(frequencies, power, { rangeHz: [2, 40], excludeHz: lineExclude });
-      const alpha = findAlphaPeak(frequencies, power, oneOverF, [7, 14], thresholds.alphaProminence);
+      // Every true local maximum is reported with its prominence; whether it is prominent enough is the
+      // suggestion's threshold (thresholds.alphaProminence), not the evidence's.
+      const alpha = findAlphaPeak(frequencies, power, oneOverF, [7, 14], 0);
       const shares = spectrumShares(frequencies, power, lineHz, fmax);
       tNow = tick('shape', tNow);
 
@@ -317,7 +369,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
       let erp: ErpEvidence | null = null;
       let trialStack: TrialStack | null = null;
       if (epochName && epochOnsets.length >= 2) {
-        const locked = eventLocked(scaled, fs, epochOnsets, win, input.permutations ?? 19, 1 + i);
+        const locked = eventLocked(scaled, fs, epochOnsets, win, nPermutations, 1 + i);
         if (locked) {
           erp = {
             event: epochName,
@@ -330,6 +382,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
             timeLockingStrength: locked.test.observed - locked.test.chance,
             lockedShare: locked.test.observed,
             permutationP: locked.test.p,
+            shuffles: locked.test.permutations,
           };
           trialStack = {
             nEpochs: locked.epochs.nEpochs,
@@ -340,20 +393,32 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
           };
         }
       }
+      // Every event type (and lock-column value): the share is a ratio, so the activation scale does not matter.
+      const timeLocking: TimeLockingTest[] = [];
+      for (const target of targets) {
+        if (erp && target.column === undefined && target.event === epochName) {
+          // The epoched type was tested above (same events, window, seed and grid): not run twice.
+          const { nEpochs, lockedShare, timeLockingStrength, permutationP, shuffles } = erp;
+          timeLocking.push({ event: target.event, nEpochs, lockedShare, strength: timeLockingStrength, p: permutationP ?? NaN, shuffles: shuffles ?? 0 });
+          continue;
+        }
+        const test = lockingAt(act, fs, target, win, nPermutations, 1 + i);
+        if (test) timeLocking.push(test);
+      }
       const step = stepEvents.length ? stepLocking(act, fs, stepEvents) : null;
       tNow = tick('epochs', tNow);
 
       const dipole = dipoleFit ? dipoleFit(column) : null;
       tNow = tick('dipoles', tNow);
 
-      const partial: Omit<ComponentEvidence, 'suggestions'> = {
+      components.push({
         index: i + 1,
         varianceShare: totalVariance > 0 ? explained / totalVariance : NaN,
         variancePerChannel: perChannel,
         strongestChannel: { index: strongest, label: dec.channels[strongest], weight },
         map,
         spectrum: { frequencies, power, powerDb, nfft, df: fs / nfft },
-        oneOverF: { exponent: oneOverF.exponent, offset: oneOverF.offset, rangeHz: [2, 40] },
+        oneOverF: { exponent: oneOverF.exponent, offset: oneOverF.offset, rangeHz: [2, 40], fitR2: alpha.fitR2 },
         alphaPeakHz: alpha.frequencyHz,
         alphaProminence: alpha.prominence,
         highFrequencyShare: shares.highFrequencyShare,
@@ -371,10 +436,10 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
         cardiac: { bpm: cardiac.bpm, peak: cardiac.peak },
         stepLocking: step,
         erp,
+        timeLocking,
         trialStack,
         dipole,
-      };
-      components.push({ ...partial, suggestions: suggestAllAims(partial, thresholds) });
+      });
       tNow = tick('other', tNow);
       input.onProgress?.((i + 1 - cStart) / total, 'components');
     }

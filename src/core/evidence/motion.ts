@@ -5,9 +5,9 @@
  */
 import { extractEpochs } from '../signal/epochs.ts';
 import { lockedShare } from './time-locking.ts';
+import { STEP_EVENT_PATTERN, eventFactors, eventGroupName, type SelectableEvent } from './event-selection.ts';
 
-/** Event labels treated as steps (case-insensitive): "step", "heel…", "gait…", "foot…" (our choice). */
-export const STEP_EVENT_PATTERN = /step|heel|gait|foot/i;
+export { STEP_EVENT_PATTERN };
 
 /** Window around each step, s: shorter than a typical step interval (~0.5 s; common practice). */
 export const STEP_WINDOW_S: readonly [number, number] = [-0.1, 0.4];
@@ -24,20 +24,23 @@ export function stepLockedShare(x: Float32Array | Float64Array, fs: number, onse
 }
 
 /**
- * Step locking over step events grouped by label (e.g. "step/left", "step/right"): the largest locked
- * share among the labels with at least 10 usable steps, or null.
+ * Step locking over step events grouped by type and factor columns (event-selection.ts; e.g. "step, foot
+ * left" and "step, foot right" from a foot column): the largest locked share among the groups with at
+ * least 10 usable steps, or null.
  */
 export function stepLocking(
   x: Float32Array | Float64Array,
   fs: number,
-  steps: readonly { onset: number; label: string }[],
+  steps: readonly SelectableEvent[],
 ): { share: number; nEpochs: number; event: string } | null {
   const byLabel = new Map<string, number[]>();
-  for (const s of steps) {
-    if (!STEP_EVENT_PATTERN.test(s.label)) continue;
-    const list = byLabel.get(s.label) ?? [];
+  const stepsOnly = steps.filter((s) => STEP_EVENT_PATTERN.test(s.label));
+  const factors = eventFactors(stepsOnly).map((f) => f.column);
+  for (const s of stepsOnly) {
+    const key = eventGroupName(s, factors);
+    const list = byLabel.get(key) ?? [];
     list.push(s.onset);
-    byLabel.set(s.label, list);
+    byLabel.set(key, list);
   }
   let best: { share: number; nEpochs: number; event: string } | null = null;
   for (const [label, onsets] of byLabel) {

@@ -24,7 +24,8 @@ export function formatSeconds(v: number): string {
 /**
  * EDF+C bytes of the sensor data (`which = 'data'`) or of the neural-only back-projection ('neural'),
  * 1 s records, µV, per-channel physical range ±max|x| (the writer's default), with the tone and step
- * events as annotations. Needs an integer sampling rate (samples per 1 s record).
+ * events as annotations (their trial_type; the condition and foot columns live in *_events.tsv, which a
+ * reader pairs with the annotations by onset and type). Needs an integer sampling rate (samples per 1 s record).
  */
 export function sessionEdf(session: SimulatedSession, which: 'data' | 'neural'): Uint8Array {
   const n = session.nSamples;
@@ -86,11 +87,22 @@ export function coordsystemJson(session: SimulatedSession): string {
   );
 }
 
-/** *_events.tsv: onset (s, from the first sample), duration, trial_type, sample (0-based index). */
+/**
+ * *_events.tsv: onset (s, from the first sample), duration, trial_type (tone | step), condition (tones:
+ * standard | rare), foot (steps: left | right), sample (0-based index); n/a where a column does not apply
+ * (BIDS specification v1.11, "Task events").
+ */
 export function eventsTsv(session: SimulatedSession): string {
   return formatTsv(
-    ['onset', 'duration', 'trial_type', 'sample'],
-    session.events.map((e) => [formatSeconds(e.onset), formatSeconds(e.duration), e.label, Math.round(e.onset * session.sampleRate)]),
+    ['onset', 'duration', 'trial_type', 'condition', 'foot', 'sample'],
+    session.events.map((e) => [
+      formatSeconds(e.onset),
+      formatSeconds(e.duration),
+      e.label,
+      e.columns.condition,
+      e.columns.foot,
+      Math.round(e.onset * session.sampleRate),
+    ]),
   );
 }
 
@@ -102,10 +114,22 @@ export function eventsJson(): string {
         trial_type: {
           Description: 'What happened at the onset.',
           Levels: {
-            'tone/standard': 'Frequent low tone (about 80 % of tones); ignored.',
-            'tone/rare': 'Rare high tone (about 20 % of tones); silently counted by the participant.',
-            'step/left': 'Heel strike of the left foot.',
-            'step/right': 'Heel strike of the right foot.',
+            tone: 'A tone played to the participant (see condition).',
+            step: 'A heel strike (see foot).',
+          },
+        },
+        condition: {
+          Description: 'Which tone was played; n/a for steps.',
+          Levels: {
+            standard: 'Frequent low tone (about 80 % of tones); ignored.',
+            rare: 'Rare high tone (about 20 % of tones); silently counted by the participant.',
+          },
+        },
+        foot: {
+          Description: 'Which heel struck the ground; n/a for tones.',
+          Levels: {
+            left: 'Heel strike of the left foot.',
+            right: 'Heel strike of the right foot.',
           },
         },
         sample: { Description: 'Index of the onset sample in the recording (first sample = 0).' },

@@ -123,8 +123,8 @@ export function simulateSession(opts: SimulateOptions = {}): SimulatedSession {
   }
 
   const events: SimulatedEvent[] = [
-    ...scenario.tones.map((t) => ({ onset: t.timeS, duration: 0, label: t.rare ? 'tone/rare' : 'tone/standard' })),
-    ...scenario.steps.map((s) => ({ onset: s.timeS, duration: 0, label: s.foot === 'left' ? 'step/left' : 'step/right' })),
+    ...scenario.tones.map((t) => ({ onset: t.timeS, duration: 0, label: 'tone', columns: { condition: t.rare ? 'rare' : 'standard', foot: 'n/a' } })),
+    ...scenario.steps.map((s) => ({ onset: s.timeS, duration: 0, label: 'step', columns: { condition: 'n/a', foot: s.foot } })),
   ]
     .filter((e) => e.onset >= 0 && e.onset < durationS)
     .sort((a, b) => a.onset - b.onset || a.label.localeCompare(b.label));

@@ -45,8 +45,10 @@ export interface SimulatedEvent {
   /** Seconds from the first sample; always on the sample grid. */
   readonly onset: number;
   readonly duration: number;
-  /** 'tone/standard' | 'tone/rare' | 'step/left' | 'step/right'. */
+  /** The BIDS trial_type: 'tone' | 'step'. */
   readonly label: string;
+  /** The other events.tsv columns: condition (tones: standard | rare) and foot (steps: left | right), n/a where it does not apply. */
+  readonly columns: { readonly condition: string; readonly foot: string };
 }
 
 export interface SimulatedSession {

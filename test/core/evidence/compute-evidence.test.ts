@@ -70,13 +70,13 @@ describe('computeEvidence', () => {
     expect(r.components[0].erp).toBeNull();
   });
 
-  it('epochs the most frequent non-step event prefix by default', () => {
+  it('epochs the most frequent non-step event type (BIDS trial_type) by default', () => {
     const events = [
-      { onset: 1, duration: 0, label: 'tone/standard' },
-      { onset: 2, duration: 0, label: 'tone/rare' },
-      { onset: 3, duration: 0, label: 'step/left' },
-      { onset: 4, duration: 0, label: 'step/left' },
-      { onset: 5, duration: 0, label: 'step/left' },
+      { onset: 1, duration: 0, label: 'tone', columns: { condition: 'standard' } },
+      { onset: 2, duration: 0, label: 'tone', columns: { condition: 'rare' } },
+      { onset: 3, duration: 0, label: 'step', columns: { foot: 'left' } },
+      { onset: 4, duration: 0, label: 'step', columns: { foot: 'left' } },
+      { onset: 5, duration: 0, label: 'step', columns: { foot: 'left' } },
       { onset: 6, duration: 0, label: 'button' },
     ];
     expect(defaultEpochEvent(events)).toBe('tone');

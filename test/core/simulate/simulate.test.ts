@@ -253,11 +253,11 @@ describe('simulateSession', () => {
 
   it('makes the parietal response positive 300–400 ms after rare tones and the auditory response negative at Cz ~100 ms', () => {
     const fs = s.sampleRate;
-    const average = (src: TrueSource, channel: number, label: string, fromS: number, toS: number) => {
+    const average = (src: TrueSource, channel: number, condition: string, fromS: number, toS: number) => {
       const len = Math.round((toS - fromS) * fs);
       const acc = new Float64Array(len);
       let count = 0;
-      for (const e of s.events.filter((x) => x.label === label)) {
+      for (const e of s.events.filter((x) => x.label === 'tone' && x.columns.condition === condition)) {
         const i0 = Math.round((e.onset + fromS) * fs);
         if (i0 < 0 || i0 + len > s.nSamples) continue;
         for (let i = 0; i < len; i++) acc[i] += src.map[channel] * src.activation[i0 + i];
@@ -265,20 +265,20 @@ describe('simulateSession', () => {
       }
       return acc.map((v) => v / count);
     };
-    const p3 = average(source('p3-parietal'), ch('Pz'), 'tone/rare', 0, 0.8);
+    const p3 = average(source('p3-parietal'), ch('Pz'), 'rare', 0, 0.8);
     const kMax = p3.reduce((bi, v, i) => (v > p3[bi] ? i : bi), 0);
     expect(kMax / fs).toBeGreaterThanOrEqual(0.3);
     expect(kMax / fs).toBeLessThanOrEqual(0.4);
     expect(p3[kMax]).toBeGreaterThan(4);
-    const aud = average(source('auditory'), ch('Cz'), 'tone/standard', 0, 0.3);
+    const aud = average(source('auditory'), ch('Cz'), 'standard', 0, 0.3);
     const kMin = aud.reduce((bi, v, i) => (v < aud[bi] ? i : bi), 0);
     expect(Math.abs(kMin / fs - 0.1)).toBeLessThan(0.012);
     expect(aud[kMin]).toBeLessThan(-2);
   });
 
-  it('places every event on the sample grid, sorted, with tone and step labels only', () => {
-    const labels = new Set(s.events.map((e) => e.label));
-    expect([...labels].sort()).toEqual(['step/left', 'step/right', 'tone/rare', 'tone/standard']);
+  it('places every event on the sample grid, sorted, with tone and step types only and their BIDS columns', () => {
+    const labels = new Set(s.events.map((e) => `${e.label} ${e.columns.condition} ${e.columns.foot}`));
+    expect([...labels].sort()).toEqual(['step n/a left', 'step n/a right', 'tone rare n/a', 'tone standard n/a']);
     for (let i = 0; i < s.events.length; i++) {
       const e = s.events[i];
       expect(Math.abs(e.onset * s.sampleRate - Math.round(e.onset * s.sampleRate))).toBeLessThan(1e-6);
