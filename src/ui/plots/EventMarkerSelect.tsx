@@ -1,19 +1,23 @@
-/** Which event types are drawn as markers on trace plots: all, none, or one label prefix. */
-import { eventPrefixes } from './trace-layout.ts';
+/**
+ * Which events are drawn as markers on trace plots: all, none, or one choice by BIDS events.tsv columns (a
+ * trial_type, or a trial_type with one column value, e.g. "tone, condition rare").
+ */
+import { useMemo } from 'react';
+import { selectionChoices, type SelectableEvent } from '../../core/evidence/event-selection.ts';
 
 export interface EventMarkerSelectProps {
-  readonly events: readonly { label: string; source?: string }[];
-  /** null = all. */
+  readonly events: readonly SelectableEvent[];
+  /** Selection keys shown (event-selection.ts selectionKey); null = all. */
   readonly shown: ReadonlySet<string> | null;
   readonly onChange: (shown: ReadonlySet<string> | null) => void;
 }
 
 export function EventMarkerSelect({ events, shown, onChange }: EventMarkerSelectProps) {
-  const prefixes = eventPrefixes(events);
+  const choices = useMemo(() => selectionChoices(events), [events]);
   const value = shown === null ? '*all*' : shown.size === 0 ? '*none*' : [...shown][0];
   return (
     <label>
-      Events{' '}
+      Events marked{' '}
       <select
         value={value}
         onChange={(e) => {
@@ -23,8 +27,8 @@ export function EventMarkerSelect({ events, shown, onChange }: EventMarkerSelect
       >
         <option value="*all*">all</option>
         <option value="*none*">none</option>
-        {prefixes.map((p) => (
-          <option key={p} value={p}>{p}</option>
+        {choices.map((c) => (
+          <option key={c.key} value={c.key}>{c.label}</option>
         ))}
       </select>
     </label>

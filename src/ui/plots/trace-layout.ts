@@ -3,6 +3,7 @@
  * when there are more samples than pixels, and which events fall in the window. Pure functions; the canvas
  * drawing lives in trace-draw.ts.
  */
+import { matchesSelection, parseSelectionKey, type SelectableEvent } from '../../core/evidence/event-selection.ts';
 
 /** Vertical centre (px) of each of `nRows` rows spread evenly between `top` and `bottom`. */
 export function rowCentres(nRows: number, top: number, bottom: number): Float64Array {
@@ -93,22 +94,12 @@ export function clampWindowStart(startS: number, lengthS: number, durationS: num
   return Math.min(Math.max(0, startS), durationS - lengthS);
 }
 
-/** The label prefix before "/" ("tone" for "tone/rare"); the whole label when it has none. */
-export function eventPrefix(label: string): string {
-  return label.split('/')[0];
-}
-
-/** Distinct event label prefixes in first-seen order (boundaries of discontinuous files excluded). */
-export function eventPrefixes(events: readonly { label: string; source?: string }[]): string[] {
-  const out = new Set<string>();
-  for (const e of events) if (e.source !== 'boundary' && e.label) out.add(eventPrefix(e.label));
-  return [...out];
-}
-
 /**
- * Events shown as markers: all (null), none (empty set), or those whose prefix is in `shown`.
+ * Events shown as markers: all (null), none (empty set), or those matching one of the selections in `shown`
+ * (event-selection.ts selectionKey: a trial_type, optionally with column = value filters).
  * Boundaries of discontinuous files are never drawn as events.
  */
-export function markerEvents<E extends { label: string; source?: string }>(events: readonly E[], shown: ReadonlySet<string> | null): E[] {
-  return events.filter((e) => e.source !== 'boundary' && (shown === null || shown.has(eventPrefix(e.label))));
+export function markerEvents<E extends SelectableEvent>(events: readonly E[], shown: ReadonlySet<string> | null): E[] {
+  const selections = shown === null ? null : [...shown].map(parseSelectionKey);
+  return events.filter((e) => e.source !== 'boundary' && (selections === null || selections.some((sel) => matchesSelection(e, sel))));
 }

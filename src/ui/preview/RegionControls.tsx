@@ -4,6 +4,7 @@
  * impact figures).
  */
 import type { RecordingEvent } from '../../core/recording.ts';
+import { selectionChoices, type SelectionChoice } from '../../core/evidence/event-selection.ts';
 import { useWorkbench } from '../../state/index.ts';
 
 export interface RegionControlsProps {
@@ -15,16 +16,9 @@ export interface RegionControlsProps {
   readonly eventLabel: string | null;
 }
 
-/** Event labels and their prefixes before "/" (e.g. "tone" for "tone/rare"), most frequent first. */
-export function eventChoices(events: readonly RecordingEvent[]): string[] {
-  const counts = new Map<string, number>();
-  for (const e of events) {
-    if (e.source === 'boundary' || !e.label) continue;
-    counts.set(e.label, (counts.get(e.label) ?? 0) + 1);
-    const prefix = e.label.split('/')[0];
-    if (prefix !== e.label) counts.set(prefix, (counts.get(prefix) ?? 0) + 1);
-  }
-  return [...counts.entries()].sort((a, b) => b[1] - a[1] || a[0].localeCompare(b[0])).map(([l]) => l);
+/** Event choices by BIDS events.tsv columns: each trial_type, then each type with one column value (event-selection.ts). */
+export function eventChoices(events: readonly RecordingEvent[]): SelectionChoice[] {
+  return selectionChoices(events);
 }
 
 export function RegionControls({ channels, rows, regionRows, events, eventLabel }: RegionControlsProps) {
@@ -46,8 +40,8 @@ export function RegionControls({ channels, rows, regionRows, events, eventLabel 
         Event{' '}
         <select value={eventLabel ?? ''} onChange={(e) => setRoi({ epochEvent: e.target.value || null })} disabled={choices.length === 0}>
           {choices.length === 0 ? <option value="">(none)</option> : null}
-          {choices.map((l) => (
-            <option key={l} value={l}>{l}</option>
+          {choices.map((c) => (
+            <option key={c.key} value={c.key}>{c.label}</option>
           ))}
         </select>
       </label>

@@ -6,6 +6,7 @@ import type { RecordingEvent } from '../../core/recording.ts';
 import type { ReviewDecision } from '../../core/review/decisions-file.ts';
 import type { Aim } from '../../core/review/vocabulary.ts';
 import { defaultEpochEvent } from '../../core/evidence/compute-evidence.ts';
+import { parseSelectionKey, selectEvents } from '../../core/evidence/event-selection.ts';
 import { bandPower, createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength } from '../../core/signal/welch.ts';
 
 /** 0-based indices of the components whose verdict is remove (decisions are keyed 1-based). */
@@ -46,7 +47,7 @@ export function regionChannels(aim: Aim, chosen: readonly string[], labels: read
 }
 
 /**
- * The event epoched by default: the evidence's own choice (the most frequent label prefix before "/",
+ * The event epoched by default: the evidence's own choice (the most frequent trial_type,
  * step events excluded; src/core/evidence/compute-evidence.ts), so the preview's ERP uses the same epochs
  * as the focus view. EDF+D boundaries are ignored. Null when there is none.
  */
@@ -54,13 +55,10 @@ export function defaultEventLabel(events: readonly RecordingEvent[]): string | n
   return defaultEpochEvent(events.filter((e) => e.source !== 'boundary'));
 }
 
-/** Onsets (s) of the events labelled `label`, or whose label prefix before "/" is `label`. */
+/** Onsets (s) of the events chosen by `label`: a trial_type or a selectionKey with column filters (event-selection.ts). */
 export function eventOnsets(events: readonly RecordingEvent[], label: string | null): number[] {
   if (label === null) return [];
-  return events
-    .filter((e) => e.source !== 'boundary' && (e.label === label || e.label.split('/')[0] === label))
-    .map((e) => e.onset)
-    .sort((a, b) => a - b);
+  return selectEvents(events, parseSelectionKey(label)).map((e) => e.onset);
 }
 
 export interface RegionSpectra {

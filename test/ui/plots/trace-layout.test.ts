@@ -47,21 +47,20 @@ describe('eventsInWindow and clampWindowStart', () => {
   });
 });
 
-describe('event markers', () => {
+describe('event markers (chosen by BIDS events.tsv columns)', () => {
   const ev = [
-    { onset: 1, label: 'tone/rare', source: 'events-tsv' },
-    { onset: 2, label: 'step/left', source: 'events-tsv' },
-    { onset: 3, label: 'tone/standard', source: 'events-tsv' },
+    { onset: 1, label: 'tone', source: 'events-tsv', columns: { condition: 'rare' } },
+    { onset: 2, label: 'step', source: 'events-tsv', columns: { condition: 'n/a' } },
+    { onset: 3, label: 'tone', source: 'events-tsv', columns: { condition: 'standard' } },
     { onset: 4, label: 'boundary', source: 'boundary' },
+    { onset: 5, label: 'tone/rare', source: 'annotation' },
   ];
-  it('lists the label prefixes once, in order, without boundaries', async () => {
-    const { eventPrefixes } = await import('../../../src/ui/plots/trace-layout.ts');
-    expect(eventPrefixes(ev)).toEqual(['tone', 'step']);
-  });
-  it('keeps all events, none, or those of the chosen prefixes', async () => {
+  it('keeps all events, none, or those of the chosen types and column values; a "/" label is its own type', async () => {
     const { markerEvents } = await import('../../../src/ui/plots/trace-layout.ts');
-    expect(markerEvents(ev, null).map((e) => e.onset)).toEqual([1, 2, 3]);
+    const { selectionKey } = await import('../../../src/core/evidence/event-selection.ts');
+    expect(markerEvents(ev, null).map((e) => e.onset)).toEqual([1, 2, 3, 5]);
     expect(markerEvents(ev, new Set())).toEqual([]);
     expect(markerEvents(ev, new Set(['tone'])).map((e) => e.onset)).toEqual([1, 3]);
+    expect(markerEvents(ev, new Set([selectionKey({ type: 'tone', where: { condition: 'rare' } })])).map((e) => e.onset)).toEqual([1]);
   });
 });

@@ -39,17 +39,20 @@ describe('regionChannels', () => {
   });
 });
 
-describe('events', () => {
+describe('events (chosen by BIDS events.tsv columns)', () => {
+  const tone = (onset: number, condition: string): RecordingEvent => ({ onset, duration: 0, label: 'tone', source: 'events-tsv', columns: { condition } });
   const events = [
-    ev(1, 'tone/rare'), ev(2, 'target'), ev(3, 'tone/standard'), ev(3.5, 'step/left'), ev(3.9, 'step/right'), ev(4.2, 'step/left'),
-    ev(5, 'gap', 'boundary'), ev(6, 'gap', 'boundary'), ev(7, 'gap', 'boundary'),
+    tone(1, 'rare'), ev(2, 'target'), tone(3, 'standard'), ev(3.5, 'step'), ev(3.9, 'step'), ev(4.2, 'step'),
+    ev(5, 'gap', 'boundary'), ev(6, 'gap', 'boundary'), ev(7, 'gap', 'boundary'), ev(8, 'tone/rare', 'annotation'),
   ];
-  it('epochs the most frequent label prefix, leaving out steps and boundaries, as the evidence does', () => {
+  it('epochs the most frequent trial_type, leaving out steps and boundaries, as the evidence does', () => {
     expect(defaultEventLabel(events)).toBe('tone');
     expect(defaultEventLabel([])).toBeNull();
   });
-  it('lists the onsets of a label or a label prefix', () => {
+  it('lists the onsets of a type, or of a type with a column value; a "/" label is its own type', () => {
     expect(eventOnsets(events, 'tone')).toEqual([1, 3]);
+    expect(eventOnsets(events, 'tone\tcondition=rare')).toEqual([1]);
+    expect(eventOnsets(events, 'tone/rare')).toEqual([8]);
     expect(eventOnsets(events, 'target')).toEqual([2]);
     expect(eventOnsets(events, null)).toEqual([]);
   });
@@ -78,9 +81,10 @@ describe('formatValue and defaultTraceChannels', () => {
 });
 
 describe('eventChoices', () => {
-  it('offers labels and their prefixes, most frequent first, without boundaries', async () => {
+  it('offers each type, then the type with each column value, most frequent first, without boundaries', async () => {
     const { eventChoices } = await import('../../../src/ui/preview/RegionControls.tsx');
-    const events = [ev(1, 'tone/rare'), ev(2, 'tone/standard'), ev(3, 'tone/standard'), ev(4, 'gap', 'boundary')];
-    expect(eventChoices(events)).toEqual(['tone', 'tone/standard', 'tone/rare']);
+    const t = (onset: number, condition: string): RecordingEvent => ({ onset, duration: 0, label: 'tone', source: 'events-tsv', columns: { condition } });
+    const events = [t(1, 'rare'), t(2, 'standard'), t(3, 'standard'), ev(4, 'gap', 'boundary')];
+    expect(eventChoices(events).map((c) => c.label)).toEqual(['tone (3)', 'tone, condition rare (1)', 'tone, condition standard (2)']);
   });
 });
