@@ -12,15 +12,14 @@
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { CliError, sha256OfFile, parseCommandArgs, type CliIo } from './cli-support.ts';
-import { openRecordingSource } from './read.ts';
+import { openCliRecording, orFail } from './recording-files.ts';
 import { writeFileAtomicChunks } from './atomic-write.ts';
-import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
 import { parseDecompositionJson, matchDecompositionToRecording } from '../core/formats/decomposition-file.ts';
+import { readOtherRateBlocks, readRecordingSignals } from '../core/formats/recording-loader.ts';
 import { sha256Hex } from '../core/formats/sha256.ts';
 import { writeEdfChunks } from '../core/formats/edf-writer.ts';
 import { parseDecisionsJson } from '../core/review/decisions-file.ts';
-import { cleanSignalRange, cleanedEdfInput, createCleaningPlan } from '../core/review/clean.ts';
-import type { SignalBlock } from '../core/recording.ts';
+import { cleanedRecordingInput } from '../core/recording-input.ts';
 
 const USAGE = 'usage: winnow clean <recording> <decomposition.json> <decisions.json> --out cleaned.edf [--keep-identity] [--ignore-hashes]';
 
@@ -65,11 +64,9 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   const decomposition = parseDecompositionJson(new TextDecoder().decode(decompositionBytes), basename(decompositionPath));
   if (!decomposition.ok) throw new CliError(decomposition.error.message);
 
-  const source = await openRecordingSource(recordingPath);
+  const { opened, close } = await openCliRecording(recordingPath);
   try {
-    const infoRes = await readEdfInfo(source);
-    if (!infoRes.ok) throw new CliError(infoRes.error.message, infoRes.error.code === 'io' ? 1 : 2);
-    const info = infoRes.value;
+    const info = opened.info;
 
     if (!values['ignore-hashes']) {
       const [recordingSha, decompositionSha] = await Promise.all([sha256OfFile(recordingPath), sha256Hex(decompositionBytes)]);
@@ -80,42 +77,36 @@ export async function run(args: string[], io: CliIo): Promise<number> {
         throw new CliError(`${basename(decisionsPath)}: made for a decomposition with SHA-256 ${d.decompositionSha256}, but ${basename(decompositionPath)} has ${decompositionSha} (use --ignore-hashes to apply anyway)`);
     }
 
-    // Read the channels rate by rate (one SignalBlock per rate), keeping the file's channel order.
-    const byRate = new Map<number, string[]>();
-    for (const c of info.channels) byRate.set(c.sampleRate, [...(byRate.get(c.sampleRate) ?? []), c.label]);
-    const blocks = new Map<number, SignalBlock>();
-    for (const [rate, labels] of byRate) {
-      const res = await readEdfSignals(source, info, { channels: labels });
-      if (!res.ok) throw new CliError(res.error.message, res.error.code === 'io' ? 1 : 2);
-      blocks.set(rate, res.value);
-    }
-
-    // The decomposition's channels must all sit in one rate group; that block is cleaned.
     const k = decomposition.value.nComponents;
     const removed = decisions.value.components.filter((c) => c.verdict === 'remove').map((c) => c.index);
     const tooHigh = removed.find((i) => i > k);
     if (tooHigh !== undefined) throw new CliError(`${basename(decisionsPath)}: component ${tooHigh} does not exist (${basename(decompositionPath)} has ${k})`);
-    let cleanedRate: number | null = null;
-    for (const [rate, block] of blocks) {
-      const matched = matchDecompositionToRecording(decomposition.value, block.labels, basename(decompositionPath));
-      if (!matched.ok) continue;
-      const made = createCleaningPlan(matched.value, block.labels, removed);
-      if (!made.ok) throw new CliError(`${basename(decompositionPath)}: ${made.message}`);
-      const cleaned = new Float32Array(block.data.length);
-      cleanSignalRange(made.plan, block.data, block.nSamples, cleaned);
-      blocks.set(rate, { ...block, data: cleaned });
-      cleanedRate = rate;
-      break;
-    }
-    if (cleanedRate === null) {
-      const matched = matchDecompositionToRecording(decomposition.value, info.channels.map((c) => c.label), basename(decompositionPath));
-      throw new CliError(matched.ok
-        ? `${basename(decompositionPath)}: its channels span several sampling rates of ${basename(recordingPath)}; a decomposition must use channels of one rate`
-        : matched.error.message);
-    }
 
-    const cleanedLabels = new Set(removed.length > 0 ? decomposition.value.channels.map((l) => l.toLowerCase()) : []);
-    const input = cleanedEdfInput(info, [...blocks.values()], cleanedLabels, info.format.startsWith('BDF') ? 'BDF' : 'EDF', values['keep-identity'] === true);
+    // The decomposition's channels must all sit in one rate group; that block is cleaned, the others copied.
+    const matchedAll = matchDecompositionToRecording(decomposition.value, info.channels.map((c) => c.label), basename(decompositionPath));
+    if (!matchedAll.ok) throw new CliError(matchedAll.error.message);
+    const rates = new Set(info.channels.filter((c) => matchedAll.value.channels.includes(c.label)).map((c) => c.sampleRate));
+    if (rates.size !== 1)
+      throw new CliError(`${basename(decompositionPath)}: its channels span several sampling rates of ${basename(recordingPath)}; a decomposition must use channels of one rate`);
+    const recording = orFail(await readRecordingSignals(opened, { sampleRate: [...rates][0] }));
+    const matched = matchDecompositionToRecording(decomposition.value, recording.signals.labels, basename(decompositionPath));
+    if (!matched.ok) throw new CliError(matched.error.message);
+    const otherBlocks = orFail(await readOtherRateBlocks(opened.source, recording));
+    let made;
+    try {
+      made = cleanedRecordingInput(recording, {
+        decomposition: matched.value,
+        removed,
+        otherBlocks,
+        family: info.format.startsWith('BDF') ? 'BDF' : 'EDF',
+        keepIdentity: values['keep-identity'] === true,
+      });
+    } catch (e) {
+      if (e instanceof RangeError) throw new CliError(`${basename(decompositionPath)}: ${e.message}`);
+      throw e;
+    }
+    for (const w of made.warnings) io.stderr(`warning: ${w}\n`);
+    const input = made.input;
     await writeFileAtomicChunks(out, writeEdfChunks(input));
     io.stdout(
       `wrote ${out}: ${info.channels.length} channels, ${removed.length} of ${k} components removed` +
@@ -123,6 +114,6 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     );
     return 0;
   } finally {
-    await source.close();
+    await close();
   }
 }

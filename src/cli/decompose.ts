@@ -13,13 +13,11 @@ import { availableParallelism } from 'node:os';
 import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
 import { Worker } from 'node:worker_threads';
-import { readFile } from 'node:fs/promises';
 import { CliError, sha256OfFile, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
-import { openFileByteSource } from './node-byte-source.ts';
+import { openCliRecording, readCliSignals } from './recording-files.ts';
 import { writeFileAtomic } from './atomic-write.ts';
-import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
-import { parseChannelsTsv } from '../core/formats/bids.ts';
 import { serializeDecomposition } from '../core/formats/decomposition-file.ts';
+import { decomposeInputOf } from '../core/recording-input.ts';
 import { decomposeRecording, type DecomposeProgress } from '../core/ica/decompose.ts';
 import { createIcaThreads, type IcaThreads, type PassHelperSetup } from '../core/ica/pass-threads.ts';
 
@@ -86,17 +84,6 @@ function progressLine(p: DecomposeProgress): string {
   return `decompose: ica iteration ${p.iteration}, convergence ${conv}${eta}\n`;
 }
 
-/** Start indices of segments: EDF+D record gaps (from sample times) and continuous-file "boundary" events. */
-function segmentBoundaries(sampleTimes: Float64Array | undefined, fs: number, events: readonly { onset: number; label: string; source: string }[]): number[] {
-  const out: number[] = [];
-  if (sampleTimes) {
-    for (let i = 1; i < sampleTimes.length; i++) if (sampleTimes[i] - sampleTimes[i - 1] > 1.5 / fs) out.push(i);
-  } else {
-    for (const e of events) if (e.source === 'boundary' || e.label.toLowerCase() === 'boundary') out.push(Math.round(e.onset * fs));
-  }
-  return out;
-}
-
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseCommandArgs('decompose', args, {
     out: { type: 'string' },
@@ -127,82 +114,24 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   if (highpass < 0) throw new CliError(`winnow decompose: --highpass must be ≥ 0 (0 = off), got "${values.highpass}"`);
 
   const path = positionals[0];
-  let source;
+  const { opened, close } = await openCliRecording(path, { channels: values['channels-tsv'] });
   try {
-    source = await openFileByteSource(path);
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new CliError(`${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory, not a recording file' : (e as Error).message}`);
-  }
-  try {
-    const infoRes = await readEdfInfo(source);
-    if (!infoRes.ok) throw new CliError(infoRes.error.message);
-    const info = infoRes.value;
-    for (const w of infoRes.warnings) io.stderr(`warning: ${w}\n`);
-
-    // channels.tsv overrides types and status by name
-    const typeOf = new Map<string, string>();
-    const statusOf = new Map<string, 'good' | 'bad'>();
-    for (const c of info.channels) {
-      typeOf.set(c.label, c.type);
-      statusOf.set(c.label, c.status);
-    }
-    if (values['channels-tsv'] !== undefined) {
-      let text: string;
-      try {
-        text = await readFile(values['channels-tsv'], 'utf8');
-      } catch (e) {
-        throw new CliError(`${values['channels-tsv']}: ${(e as NodeJS.ErrnoException).code === 'ENOENT' ? 'no such file' : (e as Error).message}`);
-      }
-      const ch = parseChannelsTsv(text, values['channels-tsv']);
-      if (!ch.ok) throw new CliError(ch.error.message);
-      for (const w of ch.warnings) io.stderr(`warning: ${w}\n`);
-      const labels = new Set(info.channels.map((c) => c.label));
-      for (const row of ch.value) {
-        if (!labels.has(row.name)) {
-          io.stderr(`warning: ${values['channels-tsv']}: channel "${row.name}" is not in the recording\n`);
-          continue;
-        }
-        typeOf.set(row.name, row.type);
-        statusOf.set(row.name, row.status);
-      }
-    }
-
-    // main rate: the most common rate among EEG channels (all channels if none is EEG)
-    const eegChannels = info.channels.filter((c) => typeOf.get(c.label) === 'EEG');
-    const pool = eegChannels.length > 0 ? eegChannels : info.channels;
-    if (pool.length === 0) throw new CliError(`${path}: the recording has no signal channels`);
-    const counts = new Map<number, number>();
-    for (const c of pool) counts.set(c.sampleRate, (counts.get(c.sampleRate) ?? 0) + 1);
-    const rate = [...counts.entries()].sort((a, b) => b[1] - a[1] || b[0] - a[0])[0][0];
-    const selected = info.channels.filter((c) => c.sampleRate === rate).map((c) => c.label);
-    const skipped = info.channels.filter((c) => c.sampleRate !== rate).map((c) => c.label);
-    if (skipped.length > 0) io.stderr(`decompose: channels at other sampling rates are left out: ${skipped.join(', ')}\n`);
-
+    // main rate: the most common rate among EEG channels (all channels if none is EEG); the loader's rule
+    if (opened.info.channels.length === 0) throw new CliError(`${path}: the recording has no signal channels`);
+    const rate = opened.mainRate;
     if (highpass > 0 && highpass >= rate / 2) throw new CliError(`winnow decompose: --highpass ${highpass} Hz is not below the Nyquist frequency ${rate / 2} Hz`);
     if (lowpass !== null && !(lowpass > 0 && lowpass < rate / 2)) throw new CliError(`winnow decompose: --lowpass must lie in (0, ${rate / 2}) Hz, got "${values.lowpass}"`);
     if (lowpass !== null && highpass > 0 && lowpass <= highpass) throw new CliError(`winnow decompose: --lowpass ${lowpass} Hz must be above --highpass ${highpass} Hz`);
 
-    io.stderr(`decompose: reading ${selected.length} channels at ${rate} Hz\n`);
-    const sig = await readEdfSignals(source, info, { channels: selected });
-    if (!sig.ok) throw new CliError(sig.error.message);
-    const block = sig.value;
+    io.stderr(`decompose: reading ${opened.info.channels.filter((c) => c.sampleRate === rate).length} channels at ${rate} Hz\n`);
+    const recording = await readCliSignals(opened, io);
     const shaPromise = sha256OfFile(path);
 
     let result;
     const helper = method === 'picard' && nThreads === 2 ? await createNodeIcaThreads() : null;
     try {
       result = decomposeRecording(
-        {
-          data: block.data,
-          nChannels: block.labels.length,
-          nSamples: block.nSamples,
-          sampleRate: block.sampleRate,
-          labels: block.labels,
-          types: block.labels.map((l) => typeOf.get(l) ?? 'EEG'),
-          status: block.labels.map((l) => statusOf.get(l) ?? 'good'),
-          boundaries: segmentBoundaries(block.sampleTimes, block.sampleRate, info.events),
-        },
+        decomposeInputOf(recording),
         {
           method,
           seed,
@@ -237,6 +166,6 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     );
     return 0;
   } finally {
-    await source.close();
+    await close();
   }
 }

@@ -8,10 +8,12 @@
  * BIDS *_eeg.json in the recording's folder, paired as the workbench pairs it (recording-loader.ts; plain
  * eeg.json beside recording.edf); else 50 Hz with a warning that it was assumed.
  *
- * Inputs: the recording's channels at the decomposition channels' sampling rate are read (EOG channels at
- * that rate serve as eye references). Electrode positions come from --positions (BIDS electrodes.tsv,
- * projected onto a fitted sphere) or else from the idealised 10-20/10-10 layout by label. Events come from
- * --events (BIDS events.tsv) or else from the recording's EDF+ annotations.
+ * Inputs: read through the workbench's recording loader (src/core/formats/recording-loader.ts) and its
+ * adapter (src/core/recording-input.ts), so a recording gives the same inputs here and in the workbench: the
+ * channels at the decomposition channels' sampling rate (EOG channels at that rate serve as eye references);
+ * electrode positions from --positions (BIDS electrodes.tsv, projected onto its fitted sphere) or else the
+ * idealised 10-20/10-10 layout by label; the recording's EDF+ annotations merged with --events (BIDS
+ * events.tsv; a row with an annotation's label and onset replaces it).
  *
  * Output (format "winnow-evidence/1"):
  *   format, recording, decomposition   file names as given
@@ -45,23 +47,17 @@
  *   Trial stacks (trials × time) are not written; the workbench computes them.
  *   NaN and infinite numbers are written as null.
  */
-import { readdir, readFile } from 'node:fs/promises';
-import { basename, dirname, join } from 'node:path';
+import { readFile } from 'node:fs/promises';
+import { basename } from 'node:path';
 import { writeFileAtomic } from './atomic-write.ts';
 import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
-import { openFileByteSource } from './node-byte-source.ts';
+import { openCliRecording, readCliSignals } from './recording-files.ts';
 import type { Decomposition } from '../core/decomposition.ts';
-import { computeEvidence, DEFAULT_EPOCH_WINDOW_S, type EvidenceEvent } from '../core/evidence/compute-evidence.ts';
+import { computeEvidence, DEFAULT_EPOCH_WINDOW_S } from '../core/evidence/compute-evidence.ts';
 import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
 import type { ComponentEvidence } from '../core/evidence/types.ts';
-import { parseElectrodesTsv, parseEventsTsv } from '../core/formats/bids.ts';
-import { bytesByteSource, type ByteSource } from '../core/formats/byte-source.ts';
-import { mainsFrequency } from '../core/formats/power-line.ts';
-import { readPowerLine } from '../core/formats/recording-loader.ts';
 import { matchDecompositionToRecording, parseDecompositionJson } from '../core/formats/decomposition-file.ts';
-import { readEdfInfo, readEdfSignals } from '../core/formats/edf.ts';
-import { electrodeNameFromLabel, matchMontage } from '../core/headmodel/montage-1020.ts';
-import { fitSphere } from '../core/headmodel/sphere-fit.ts';
+import { evidenceInputOf } from '../core/recording-input.ts';
 import { resolveThresholds } from '../core/review/thresholds.ts';
 import { AIMS, type Aim } from '../core/review/vocabulary.ts';
 
@@ -76,7 +72,7 @@ to stdout.
 
 options:
   --positions FILE          BIDS electrodes.tsv (default: 10-20/10-10 layout by label)
-  --events FILE             BIDS events.tsv (default: the recording's annotations)
+  --events FILE             BIDS events.tsv, merged with the recording's annotations
   --aim erp|oscillations|conservative  aim of the suggestion (default erp)
   --out FILE                output file (default stdout)
   --line-frequency 50|60    mains frequency in Hz (alias --line; default from eeg.json, else 50)
@@ -92,49 +88,6 @@ async function readTextFile(path: string): Promise<string> {
     const code = (e as NodeJS.ErrnoException).code;
     throw new CliError(`${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : (e as Error).message}`);
   }
-}
-
-/** The *_eeg.json / eeg.json files in the recording's folder, for pairing by BIDS entities (none when unreadable). */
-async function eegSidecarsBeside(recordingPath: string): Promise<ByteSource[]> {
-  const folder = dirname(recordingPath);
-  let names: string[];
-  try {
-    names = await readdir(folder);
-  } catch {
-    return [];
-  }
-  const out: ByteSource[] = [];
-  for (const name of names.filter((n) => /(^|_)eeg\.json$/i.test(n))) {
-    try {
-      out.push(bytesByteSource(await readFile(join(folder, name)), name));
-    } catch {
-      // unreadable sidecar: skipped, as if absent
-    }
-  }
-  return out;
-}
-
-/** Unit directions for `labels` from electrodes.tsv positions (mm) projected onto their fitted sphere. */
-function positionsFromElectrodes(labels: readonly string[], names: string[], positionsMm: Float64Array): { positions: Float64Array; missing: string[] } {
-  const finite: number[] = [];
-  for (let i = 0; i < names.length; i++) if ([0, 1, 2].every((k) => Number.isFinite(positionsMm[3 * i + k]))) finite.push(i);
-  const pts = new Float64Array(finite.length * 3);
-  finite.forEach((i, j) => pts.set(positionsMm.subarray(3 * i, 3 * i + 3), 3 * j));
-  const { centre } = finite.length >= 4 ? fitSphere(pts) : { centre: [0, 0, 0] as [number, number, number] };
-  const lower = new Map(names.map((n, i) => [n.toLowerCase(), i]));
-  const positions = new Float64Array(labels.length * 3).fill(NaN);
-  const missing: string[] = [];
-  labels.forEach((label, j) => {
-    const e = lower.get(label.toLowerCase()) ?? lower.get(electrodeNameFromLabel(label).toLowerCase());
-    if (e === undefined || !finite.includes(e)) {
-      missing.push(label);
-      return;
-    }
-    const v = [0, 1, 2].map((k) => positionsMm[3 * e + k] - centre[k]);
-    const r = Math.hypot(v[0], v[1], v[2]);
-    if (r > 0) for (let k = 0; k < 3; k++) positions[3 * j + k] = v[k] / r;
-  });
-  return { positions, missing };
 }
 
 const finite = (v: number) => (Number.isFinite(v) ? v : null);
@@ -233,86 +186,34 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   if (!parsedDec.ok) throw new CliError(parsedDec.error.message);
   for (const w of parsedDec.warnings) io.stderr(`warning: ${w}\n`);
 
-  let source;
+  // recording, its sidecars and the explicit --positions / --events, through the workbench's loader
+  const { opened, close } = await openCliRecording(recordingPath, { electrodes: values.positions, events: values.events });
   try {
-    source = await openFileByteSource(recordingPath);
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new CliError(`${recordingPath}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory, not a recording file' : (e as Error).message}`);
-  }
-  try {
-    const infoRes = await readEdfInfo(source);
-    if (!infoRes.ok) throw new CliError(infoRes.error.message);
-    const info = infoRes.value;
-    for (const w of infoRes.warnings) io.stderr(`warning: ${w}\n`);
+    const info = opened.info;
     const matched = matchDecompositionToRecording(parsedDec.value, info.channels.map((c) => c.label), decompositionPath);
     if (!matched.ok) throw new CliError(matched.error.message);
     for (const w of matched.warnings) io.stderr(`warning: ${w}\n`);
     const decomposition: Decomposition = matched.value;
     const decRates = new Set(info.channels.filter((c) => decomposition.channels.includes(c.label)).map((c) => c.sampleRate));
     if (decRates.size !== 1) throw new CliError(`${decompositionPath}: its channels do not share one sampling rate in ${recordingPath}`);
-    const rate = [...decRates][0];
-    const channelInfos = info.channels.filter((c) => c.sampleRate === rate);
-    const sig = await readEdfSignals(source, info, { channels: channelInfos.map((c) => c.label) });
-    if (!sig.ok) throw new CliError(sig.error.message);
-    const block = sig.value;
-    const types = block.labels.map((l) => channelInfos.find((c) => c.label === l)?.type ?? 'EEG');
-
-    // positions
-    let positionsUnit: Float64Array | null = null;
-    if (values.positions !== undefined) {
-      const el = parseElectrodesTsv(await readTextFile(values.positions), values.positions);
-      if (!el.ok) throw new CliError(el.error.message);
-      // Units do not matter here: positions are projected to directions on a fitted sphere.
-      const { positions, missing } = positionsFromElectrodes(block.labels, el.value.names, el.value.positionsMm);
-      const missingEeg = missing.filter((l) => decomposition.channels.includes(l));
-      if (missingEeg.length) io.stderr(`warning: ${values.positions}: no position for ${missingEeg.join(', ')}\n`);
-      positionsUnit = positions;
-    } else {
-      const m = matchMontage(block.labels);
-      positionsUnit = m.positions;
-      const missingEeg = m.unmatched.filter((l) => decomposition.channels.includes(l));
-      if (missingEeg.length) io.stderr(`warning: no 10-20/10-10 position for ${missingEeg.join(', ')}; give --positions\n`);
-    }
-
-    // events
-    let events: EvidenceEvent[] = info.events.filter((e) => e.source !== 'boundary');
-    if (values.events !== undefined) {
-      const ev = parseEventsTsv(await readTextFile(values.events), values.events);
-      if (!ev.ok) throw new CliError(ev.error.message);
-      for (const w of ev.warnings) io.stderr(`warning: ${w}\n`);
-      events = ev.value;
-    }
-    if (values['epoch-event'] !== undefined && !events.some((e) => e.label === values['epoch-event'] || e.label.split('/')[0] === values['epoch-event']))
+    const recording = await readCliSignals(opened, io, { sampleRate: [...decRates][0] });
+    if (values['epoch-event'] !== undefined && !info.events.some((e) => e.source !== 'boundary' && (e.label === values['epoch-event'] || e.label.split('/')[0] === values['epoch-event'])))
       throw new CliError(`winnow evidence: --epoch-event "${values['epoch-event']}" matches no event`);
 
-    // mains frequency: option, else the recording's *_eeg.json, else 50 Hz assumed
-    const sidecar = lineOverride === undefined ? await readPowerLine(await eegSidecarsBeside(recordingPath), basename(recordingPath)) : null;
-    for (const w of sidecar?.warnings ?? []) io.stderr(`warning: ${w}\n`);
-    const mains = mainsFrequency(sidecar?.powerLine, lineOverride as 50 | 60 | undefined);
-    if (mains.origin === 'assumed')
-      io.stderr(`warning: ${basename(recordingPath)}: no PowerLineFrequency in a paired *_eeg.json and no --line-frequency; mains assumed to be 50 Hz\n`);
-    const lineHz = mains.hz;
-
     const thresholds = resolveThresholds();
-    const result = computeEvidence({
-      data: block.data,
-      nChannels: block.labels.length,
-      nSamples: block.nSamples,
-      sampleRate: block.sampleRate,
-      labels: block.labels,
-      positionsUnit,
-      types,
-      decomposition,
-      events,
+    // mains frequency: option, else the recording's *_eeg.json, else 50 Hz assumed
+    const { input, mains } = evidenceInputOf(recording, decomposition, {
+      lineHz: lineOverride as 50 | 60 | undefined,
       epochEvent: values['epoch-event'],
       window: epochWindow,
-      lineHz,
-      aim,
       thresholds,
       // Sequential time-locking test up to 999 shuffles, so permutationP can reach 1/1000 (time-locking.ts).
       permutations: LOCKING_MAX_SHUFFLES,
     });
+    if (mains.origin === 'assumed')
+      io.stderr(`warning: ${basename(recordingPath)}: no PowerLineFrequency in a paired *_eeg.json and no --line-frequency; mains assumed to be 50 Hz\n`);
+    const lineHz = mains.hz;
+    const result = computeEvidence({ ...input, aim });
     for (const w of result.warnings) io.stderr(`warning: ${w}\n`);
     const json = {
       format: 'winnow-evidence/1',
@@ -338,6 +239,6 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     } else io.stdout(text);
     return 0;
   } finally {
-    await source.close();
+    await close();
   }
 }

@@ -5,18 +5,15 @@
  * data record is added as `recordOnsets` so the gaps are known. Warnings go to stderr as "warning: …".
  */
 import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
-import { openRecordingSource } from './read.ts';
-import { readEdfInfo } from '../core/formats/edf.ts';
+import { openCliRecording } from './recording-files.ts';
 
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { positionals } = parseCommandArgs('inspect', args, {});
   if (positionals.length !== 1) throw new CliError('winnow inspect: give exactly one recording (usage: winnow inspect <recording>)');
-  const source = await openRecordingSource(positionals[0]);
+  const { opened, close } = await openCliRecording(positionals[0]);
   try {
-    const res = await readEdfInfo(source);
-    if (!res.ok) throw new CliError(res.error.message, res.error.code === 'io' ? 1 : 2);
-    for (const w of res.warnings) io.stderr(`warning: ${w}\n`);
-    const info = res.value;
+    for (const w of opened.warnings) io.stderr(`warning: ${w}\n`);
+    const info = opened.info;
     const out: Record<string, unknown> = {
       format: info.format,
       channels: info.channels.map((c) => ({
@@ -40,6 +37,6 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     io.stdout(JSON.stringify(out, null, 2) + '\n');
     return 0;
   } finally {
-    await source.close();
+    await close();
   }
 }

@@ -7,20 +7,8 @@
  */
 import { once } from 'node:events';
 import { CliError, numberOption, parseCommandArgs, processIo, type CliIo } from './cli-support.ts';
-import { openFileByteSource } from './node-byte-source.ts';
-import { iterateEdfSignals, readEdfInfo } from '../core/formats/edf.ts';
-import type { ByteSource } from '../core/formats/byte-source.ts';
-
-/** Opens a recording for a command, turning a missing/unreadable file into an exit-2 error naming it. */
-export async function openRecordingSource(path: string): Promise<ByteSource & { close(): Promise<void> }> {
-  try {
-    return await openFileByteSource(path);
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    const why = code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory, not a recording file' : code === 'EACCES' ? 'permission denied' : (e as Error).message;
-    throw new CliError(`${path}: ${why}`, 2);
-  }
-}
+import { openCliRecording } from './recording-files.ts';
+import { streamRecordingSignals } from '../core/formats/recording-loader.ts';
 
 /**
  * Output of `read`: with the real stdout, waits for 'drain' when the pipe is full (so a long recording piped
@@ -90,18 +78,16 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   const channels = values.channels === undefined ? undefined : values.channels.split(',').map((s) => s.trim()).filter((s) => s !== '');
   if (channels !== undefined && channels.length === 0) throw new CliError('winnow read: --channels is empty');
 
-  const source = await openRecordingSource(positionals[0]);
+  const { opened, close } = await openCliRecording(positionals[0]);
   try {
-    const infoRes = await readEdfInfo(source);
-    if (!infoRes.ok) throw new CliError(infoRes.error.message, infoRes.error.code === 'io' ? 1 : 2);
-    for (const w of infoRes.warnings) io.stderr(`warning: ${w}\n`);
+    for (const w of opened.warnings) io.stderr(`warning: ${w}\n`);
     let headerDone = false;
     const sink = rowSink(io);
-    for await (const chunk of iterateEdfSignals(source, infoRes.value, { channels, startS, durationS })) {
+    for await (const chunk of streamRecordingSignals(opened, { channels, startS, durationS })) {
       if (!chunk.ok) throw new CliError(chunk.error.message, chunk.error.code === 'io' ? 1 : 2);
       const { labels, nSamples: n, data, sampleTimes } = chunk.value;
       if (!headerDone) {
-        if (labels.length === 0) throw new CliError(`${source.name}: the file has no signal channels to read`);
+        if (labels.length === 0) throw new CliError(`${opened.source.name}: the file has no signal channels to read`);
         await sink.write(['time', ...labels].join('\t') + '\n');
         headerDone = true;
       }
@@ -123,6 +109,6 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     sink.dispose();
     return 0;
   } finally {
-    await source.close();
+    await close();
   }
 }

@@ -135,14 +135,17 @@ describe('winnow evidence (issue 6 contract)', () => {
     expect(blink.erp.nEpochs).toBeGreaterThan(15);
   });
 
-  it('reads events from events.tsv and writes to stdout without --out', async () => {
+  it('reads events from events.tsv (merged with the annotations, as the workbench loads them) and writes to stdout without --out', async () => {
     const events = join(dir, 'events.tsv');
     writeFileSync(events, 'onset\tduration\ttrial_type\n' + blinkOnsets.map((o) => `${o}\t0\tflash`).join('\n') + '\n');
-    const r = await evidence(recording, decFile, '--events', events);
+    // "flash" is only in events.tsv: epoching on it proves the file was read.
+    const r = await evidence(recording, decFile, '--events', events, '--epoch-event', 'flash');
     expect(r.code).toBe(0);
     const o = JSON.parse(r.out);
     expect(o.aim).toBe('erp');
     expect(o.epochEvent).toBe('flash');
+    expect(o.components[1].erp.nEpochs).toBeGreaterThan(15);
+    expect((await evidence(recording, decFile, '--epoch-event', 'flash')).err).toMatch(/--epoch-event "flash" matches no event/);
   });
 
   it('fails with exit 2 and the file name for bad input', async () => {

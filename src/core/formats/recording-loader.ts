@@ -1,6 +1,8 @@
 /**
- * Loads one recording (.edf/.bdf) and its BIDS sidecars from a set of files (a picker selection, a dropped
- * folder, or files named on the command line) into a LoadedRecording.
+ * Loads one recording (.edf/.bdf, .rec read as EDF: recording-file-name.ts) and its BIDS sidecars from a set
+ * of files (a picker selection, a dropped folder, or files named on the command line) into a LoadedRecording.
+ * The one way in for the workbench, every CLI command and the bench: `openRecording` reads the header and
+ * sidecars, `readRecordingSignals` the samples of one rate; `loadRecording` does both.
  *
  * Pairing [BIDS specification, "inheritance principle"]: a sidecar belongs to the recording when every
  * entity it names (sub-, ses-, task-, acq-, run-) has the recording's value; among several, the one naming
@@ -16,26 +18,62 @@
  *   label and an onset within 1 ms of an annotation, the events.tsv row is kept (it may carry a
  *   response_time) and the annotation is dropped, so an exporter that wrote both does not double events.
  * - Signals: the "main rate" is the most common rate among EEG-typed channels (ties: the higher rate; no
- *   EEG channels: among all). Every channel at that rate is read into one SignalBlock; channels at other
- *   rates stay listed in `channels` and a warning names them.
- * - Positions: electrodes.tsv when given (projected onto a sphere fitted to them, as unit vectors), else the
- *   idealised 10-20/10-10 set. Only EEG-typed channels get positions; unmatched EEG channels are warned about.
+ *   EEG channels: among all). Every channel at that rate (or at the rate asked for) is read into one
+ *   SignalBlock; channels at other rates stay listed in `channels` and a warning names them.
+ * - Positions: electrodes.tsv when given (projected onto the sphere fitted to them by the centred least-squares
+ *   fit of headmodel/sphere-fit.ts, as unit vectors), else the idealised 10-20/10-10 set. Only EEG-typed
+ *   channels get positions; unmatched EEG channels are warned about.
+ * - Sidecars named explicitly (`opts.sidecars`, the CLI's options) take the place of the paired ones.
  * - Mains: PowerLineFrequency of the paired `*_eeg.json` (plain `eeg.json` beside `recording.edf`) becomes
  *   `powerLine` when it is 50 or 60 Hz. A sidecar that is not valid JSON, or any other value, is warned about
  *   (the load goes on); the evidence then assumes 50 Hz and says so (`mainsFrequency`, power-line.ts).
  */
 import { byteSourceBaseName, type ByteSource } from './byte-source.ts';
 import { parseChannelsTsv, parseEegJson, parseElectrodesTsv, parseEventsTsv } from './bids.ts';
-import { readEdfInfo, readEdfSignals } from './edf.ts';
+import { iterateEdfSignals, readEdfInfo, readEdfSignals, type EdfReadOptions, type EdfSignalChunk } from './edf.ts';
 import { parseFail, parseOk, type ParseResult } from './parse-result.ts';
-import type { ChannelInfo, LoadedRecording, PowerLine, RecordingEvent } from '../recording.ts';
-import { matchMontage, electrodeNameFromLabel } from '../headmodel/montage-1020.ts';
+import { isRecordingFileName, recordingStem } from './recording-file-name.ts';
+import type { ChannelInfo, LoadedRecording, PowerLine, RecordingEvent, RecordingInfo, SignalBlock } from '../recording.ts';
+import { matchMontage } from '../headmodel/montage-1020.ts';
+import { electrodeDirections } from '../headmodel/sphere-fit.ts';
+
+/**
+ * Sidecars named explicitly (the CLI's --channels-tsv, --positions, --events): each takes the place of the
+ * paired sidecar of its kind, whatever its file name; the same rules then apply as to a paired one.
+ */
+export interface RecordingSidecars {
+  channels?: ByteSource;
+  electrodes?: ByteSource;
+  coordsystem?: ByteSource;
+  events?: ByteSource;
+}
 
 export interface LoadRecordingOptions {
-  /** Base name of the recording to load when the set holds several .edf/.bdf files. */
+  /** Base name of the recording to load when the set holds several recording files. */
   recording?: string;
+  sidecars?: RecordingSidecars;
   /** Called with the fraction done (0–1): the annotation scan is the first 30 %, the samples the rest. */
   onProgress?: (fraction: number) => void;
+}
+
+export interface ReadSignalsOptions {
+  /** Hz: read the channels at this rate into the block (e.g. a decomposition's rate). Default: the main rate. */
+  sampleRate?: number;
+  /** Fraction done (0–1) of the sample reading. */
+  onProgress?: (fraction: number) => void;
+}
+
+/** A recording whose header and sidecars are read, before any samples (what `inspect` and `read` need). */
+export interface OpenedRecording {
+  readonly source: ByteSource;
+  /** The file's info with channels.tsv types/status applied and events.tsv merged into the events. */
+  readonly info: RecordingInfo;
+  /** Hz: the most common rate among EEG-typed channels (module comment). */
+  readonly mainRate: number;
+  /** The electrodes.tsv read (positions in mm as written, names as written), or null: the 10-20 layout. */
+  readonly electrodes: { readonly file: string; readonly names: readonly string[]; readonly positionsMm: Float64Array } | null;
+  readonly powerLine: PowerLine;
+  readonly warnings: readonly string[];
 }
 
 const ENTITY_KEYS = ['sub', 'ses', 'task', 'acq', 'run'] as const;
@@ -103,45 +141,6 @@ async function readText(source: ByteSource): Promise<string> {
   return new TextDecoder('utf-8').decode(await source.read(0, source.size));
 }
 
-/**
- * Least-squares sphere through points (rows of xyz, mm): solves [2x 2y 2z 1]·[c; d] = x²+y²+z²
- * (algebraic fit, common practice). Returns the centre, or null when the system is singular.
- */
-function fitSphereCentre(pts: Float64Array, n: number): [number, number, number] | null {
-  const A = new Float64Array(16);
-  const b = new Float64Array(4);
-  for (let i = 0; i < n; i++) {
-    const x = pts[3 * i];
-    const y = pts[3 * i + 1];
-    const z = pts[3 * i + 2];
-    const row = [2 * x, 2 * y, 2 * z, 1];
-    const rhs = x * x + y * y + z * z;
-    for (let r = 0; r < 4; r++) {
-      b[r] += row[r] * rhs;
-      for (let c = 0; c < 4; c++) A[4 * r + c] += row[r] * row[c];
-    }
-  }
-  // Gaussian elimination with partial pivoting on the 4×4 normal equations.
-  for (let col = 0; col < 4; col++) {
-    let piv = col;
-    for (let r = col + 1; r < 4; r++) if (Math.abs(A[4 * r + col]) > Math.abs(A[4 * piv + col])) piv = r;
-    if (Math.abs(A[4 * piv + col]) < 1e-12) return null;
-    for (let c = 0; c < 4; c++) [A[4 * col + c], A[4 * piv + c]] = [A[4 * piv + c], A[4 * col + c]];
-    [b[col], b[piv]] = [b[piv], b[col]];
-    for (let r = col + 1; r < 4; r++) {
-      const f = A[4 * r + col] / A[4 * col + col];
-      for (let c = col; c < 4; c++) A[4 * r + c] -= f * A[4 * col + c];
-      b[r] -= f * b[col];
-    }
-  }
-  const x = new Float64Array(4);
-  for (let r = 3; r >= 0; r--) {
-    let s = b[r];
-    for (let c = r + 1; c < 4; c++) s -= A[4 * r + c] * x[c];
-    x[r] = s / A[4 * r + r];
-  }
-  return [x[0], x[1], x[2]];
-}
 
 /**
  * When several recordings are given, the one a set of files is about: the BIDS data file (suffix `eeg`), or
@@ -149,78 +148,96 @@ function fitSphereCentre(pts: Float64Array, n: number): [number, number, number]
  */
 function isPrimaryRecording(f: ByteSource): boolean {
   const p = bidsNameParts(f.name);
-  return p.suffix === 'eeg' || /^recording\.(edf|bdf)$/i.test(byteSourceBaseName(f.name));
+  return p.suffix === 'eeg' || recordingStem(byteSourceBaseName(f.name)).toLowerCase() === 'recording';
 }
 
-/** Loads the recording in `files` with its sidecars. See the module comment for the rules. */
-export async function loadRecording(files: ByteSource[], opts: LoadRecordingOptions = {}): Promise<ParseResult<LoadedRecording>> {
-  const recordings = files.filter((f) => /\.(edf|bdf)$/i.test(f.name));
+function pickRecording(files: ByteSource[], wanted: string | undefined): ParseResult<{ rec: ByteSource; ignored: string[] }> {
+  const recordings = files.filter((f) => isRecordingFileName(f.name));
+  const names = (list: ByteSource[]) => list.map((f) => byteSourceBaseName(f.name)).join(', ');
   let rec: ByteSource | undefined;
-  if (opts.recording !== undefined) {
-    rec = recordings.find((f) => byteSourceBaseName(f.name) === opts.recording || f.name === opts.recording);
-    if (!rec)
-      return parseFail({ code: 'unsupported', message: `${opts.recording}: not among the given files (${files.map((f) => byteSourceBaseName(f.name)).join(', ')})`, file: opts.recording });
+  if (wanted !== undefined) {
+    // A file named explicitly is read whatever its extension (the reader judges the bytes).
+    rec = files.find((f) => f.name === wanted) ?? recordings.find((f) => byteSourceBaseName(f.name) === wanted);
+    if (!rec) return parseFail({ code: 'unsupported', message: `${wanted}: not among the given files (${names(files)})`, file: wanted });
   } else if (recordings.length === 1) rec = recordings[0];
   else if (recordings.filter(isPrimaryRecording).length === 1) rec = recordings.find(isPrimaryRecording);
   else if (recordings.length === 0)
-    return parseFail({
-      code: 'unsupported',
-      message: `${files.map((f) => byteSourceBaseName(f.name)).join(', ') || '(no files)'}: no .edf or .bdf recording among the files`,
-    });
+    return parseFail({ code: 'unsupported', message: `${names(files) || '(no files)'}: no .edf or .bdf recording among the files` });
   else
     return parseFail({
       code: 'unsupported',
-      message: `${byteSourceBaseName(recordings[0].name)}: ${recordings.length} recordings given (${recordings.map((f) => byteSourceBaseName(f.name)).join(', ')}); choose one`,
+      message: `${byteSourceBaseName(recordings[0].name)}: ${recordings.length} recordings given (${names(recordings)}); choose one`,
       file: recordings[0].name,
     });
-
   if (!rec) return parseFail({ code: 'unsupported', message: '(no files): no .edf or .bdf recording among the files' });
+  const chosen = rec;
+  return parseOk({ rec, ignored: recordings.filter((f) => f !== chosen).map((f) => byteSourceBaseName(f.name)) });
+}
+
+/** channels.tsv applied to the file's channels: same count, every channel named (exact, else case-insensitive). */
+function applyChannelsTsv(channels: readonly ChannelInfo[], rows: { name: string; type: ChannelInfo['type']; status: 'good' | 'bad' }[], name: string, recName: string): ParseResult<ChannelInfo[]> {
+  if (rows.length !== channels.length)
+    return parseFail({ code: 'row-count-mismatch', message: `${name}: ${rows.length} channel rows but ${recName} has ${channels.length} signal channels`, file: name });
+  const used = new Set<number>();
+  const updated: ChannelInfo[] = [];
+  for (const ch of channels) {
+    let j = rows.findIndex((r, k) => !used.has(k) && r.name === ch.label);
+    if (j < 0) j = rows.findIndex((r, k) => !used.has(k) && r.name.toLowerCase() === ch.label.toLowerCase());
+    if (j < 0)
+      return parseFail({
+        code: 'unknown-channel',
+        message: `${name}: no row for channel "${ch.label}" of ${recName} (rows name ${rows.map((r) => r.name).join(', ')})`,
+        file: name,
+      });
+    used.add(j);
+    updated.push({ ...ch, type: rows[j].type, status: rows[j].status });
+  }
+  return parseOk(updated);
+}
+
+/** The main rate: most common among EEG-typed channels (ties: the higher rate; no EEG channels: among all). */
+function mainRateOf(channels: readonly ChannelInfo[]): number {
+  const eegRates = channels.filter((c) => c.type === 'EEG').map((c) => c.sampleRate);
+  const pool = eegRates.length > 0 ? eegRates : channels.map((c) => c.sampleRate);
+  const counts = new Map<number, number>();
+  for (const r of pool) counts.set(r, (counts.get(r) ?? 0) + 1);
+  let mainRate = 0;
+  let best = -1;
+  for (const [r, n] of counts) if (n > best || (n === best && r > mainRate)) [mainRate, best] = [r, n];
+  return mainRate;
+}
+
+/** Reads the header, annotations and sidecars of the recording in `files` (no samples). Module comment: the rules. */
+export async function openRecording(files: ByteSource[], opts: LoadRecordingOptions = {}): Promise<ParseResult<OpenedRecording>> {
+  const picked = pickRecording(files, opts.recording);
+  if (!picked.ok) return picked;
+  const { rec, ignored } = picked.value;
   const progress = opts.onProgress;
   const infoRes = await readEdfInfo(rec, { onProgress: progress && ((f) => progress(0.3 * f)) });
   if (!infoRes.ok) return infoRes;
   const info = infoRes.value;
   const warnings = [...infoRes.warnings];
   const recName = byteSourceBaseName(rec.name);
-  const chosen = rec;
-  const ignored = recordings.filter((f) => f !== chosen).map((f) => byteSourceBaseName(f.name));
   if (ignored.length > 0) warnings.push(`${recName}: loaded; ${ignored.join(', ')} ignored (one recording at a time)`);
   const ent = bidsNameParts(rec.name).entities;
+  const given = opts.sidecars ?? {};
   let channels: ChannelInfo[] = info.channels.map((c) => ({ ...c }));
 
   // channels.tsv: types and status
-  const chSide = pickSidecar(files, ent, 'channels', '.tsv');
+  const chSide = given.channels ?? pickSidecar(files, ent, 'channels', '.tsv');
   if (chSide) {
     const name = byteSourceBaseName(chSide.name);
     const parsed = parseChannelsTsv(await readText(chSide), name);
     if (!parsed.ok) return parsed;
     warnings.push(...parsed.warnings);
-    const rows = parsed.value;
-    if (rows.length !== channels.length)
-      return parseFail({
-        code: 'row-count-mismatch',
-        message: `${name}: ${rows.length} channel rows but ${recName} has ${channels.length} signal channels`,
-        file: name,
-      });
-    const used = new Set<number>();
-    const updated: ChannelInfo[] = [];
-    for (const ch of channels) {
-      let j = rows.findIndex((r, k) => !used.has(k) && r.name === ch.label);
-      if (j < 0) j = rows.findIndex((r, k) => !used.has(k) && r.name.toLowerCase() === ch.label.toLowerCase());
-      if (j < 0)
-        return parseFail({
-          code: 'unknown-channel',
-          message: `${name}: no row for channel "${ch.label}" of ${recName} (rows name ${rows.map((r) => r.name).join(', ')})`,
-          file: name,
-        });
-      used.add(j);
-      updated.push({ ...ch, type: rows[j].type, status: rows[j].status });
-    }
-    channels = updated;
+    const applied = applyChannelsTsv(channels, parsed.value, name, recName);
+    if (!applied.ok) return applied;
+    channels = applied.value;
   }
 
   // events: annotations + events.tsv (events.tsv wins on duplicates)
   let events: RecordingEvent[] = [...info.events];
-  const evSide = pickSidecar(files, ent, 'events', '.tsv');
+  const evSide = given.events ?? pickSidecar(files, ent, 'events', '.tsv');
   if (evSide) {
     const name = byteSourceBaseName(evSide.name);
     const parsed = parseEventsTsv(await readText(evSide), name);
@@ -234,77 +251,97 @@ export async function loadRecording(files: ByteSource[], opts: LoadRecordingOpti
     events.sort((a, b) => a.onset - b.onset);
   }
 
-  // main-rate channels
-  const eegRates = channels.filter((c) => c.type === 'EEG').map((c) => c.sampleRate);
-  const pool = eegRates.length > 0 ? eegRates : channels.map((c) => c.sampleRate);
-  const counts = new Map<number, number>();
-  for (const r of pool) counts.set(r, (counts.get(r) ?? 0) + 1);
-  let mainRate = 0;
-  let best = -1;
-  for (const [r, n] of counts) if (n > best || (n === best && r > mainRate)) [mainRate, best] = [r, n];
-  const loadedIdx = channels.map((c, i) => (c.sampleRate === mainRate ? i : -1)).filter((i) => i >= 0);
-  const others = channels.filter((c) => c.sampleRate !== mainRate);
-  if (others.length > 0)
-    warnings.push(`${recName}: ${others.map((c) => `${c.label} (${c.sampleRate} Hz)`).join(', ')} not loaded; the main rate is ${mainRate} Hz`);
-  const sig = await readEdfSignals(rec, info, {
-    channels: loadedIdx.map((i) => channels[i].label),
-    onProgress: progress && ((f) => progress(0.3 + 0.7 * f)),
-  });
-  if (!sig.ok) return sig;
-  // Labels may repeat in a file; readEdfSignals matches the first, so keep the block's own labels.
-  const signals = sig.value;
-
-  // positions for the loaded channels
-  const positions = new Float64Array(loadedIdx.length * 3).fill(NaN);
-  const eegLabels = loadedIdx.map((i) => channels[i]).filter((c) => c.type === 'EEG').map((c) => c.label);
-  const elSide = pickSidecar(files, ent, 'electrodes', '.tsv');
-  let unmatched: string[] = [];
+  // electrodes.tsv (with its coordsystem.json for the unit)
+  let electrodes: OpenedRecording['electrodes'] = null;
+  const elSide = given.electrodes ?? pickSidecar(files, ent, 'electrodes', '.tsv');
   if (elSide) {
     const name = byteSourceBaseName(elSide.name);
-    const elEnt = bidsNameParts(elSide.name).entities;
-    const cs = pickSidecar(files, { ...ent, ...elEnt }, 'coordsystem', '.json');
+    const cs = given.coordsystem ?? pickSidecar(files, { ...ent, ...bidsNameParts(elSide.name).entities }, 'coordsystem', '.json');
     const parsed = parseElectrodesTsv(await readText(elSide), name, cs ? await readText(cs) : undefined);
     if (!parsed.ok) return parsed;
     warnings.push(...parsed.warnings);
-    const { names, positionsMm } = parsed.value;
-    const finite: number[] = [];
-    for (let i = 0; i < names.length; i++)
-      if ([0, 1, 2].every((k) => Number.isFinite(positionsMm[3 * i + k]))) finite.push(i);
-    const pts = new Float64Array(finite.length * 3);
-    finite.forEach((i, j) => pts.set(positionsMm.subarray(3 * i, 3 * i + 3), 3 * j));
-    const centre = (finite.length >= 16 ? fitSphereCentre(pts, finite.length) : null) ?? [0, 0, 0];
-    const lower = new Map(names.map((n, i) => [n.toLowerCase(), i]));
-    loadedIdx.forEach((ci, j) => {
-      const ch = channels[ci];
-      if (ch.type !== 'EEG') return;
-      const e = lower.get(ch.label.toLowerCase()) ?? lower.get(electrodeNameFromLabel(ch.label).toLowerCase());
-      if (e === undefined || !finite.includes(e)) {
-        unmatched.push(ch.label);
-        return;
-      }
-      const v = [0, 1, 2].map((k) => positionsMm[3 * e + k] - centre[k]);
-      const r = Math.hypot(v[0], v[1], v[2]);
-      if (r > 0) for (let k = 0; k < 3; k++) positions[3 * j + k] = v[k] / r;
-      else unmatched.push(ch.label);
-    });
-  } else {
-    const m = matchMontage(eegLabels);
-    const pos = new Map(eegLabels.map((l, i) => [l, i]));
-    loadedIdx.forEach((ci, j) => {
-      const i = pos.get(channels[ci].label);
-      if (i !== undefined) positions.set(m.positions.subarray(3 * i, 3 * i + 3), 3 * j);
-    });
-    unmatched = m.unmatched;
+    electrodes = { file: name, names: parsed.value.names, positionsMm: parsed.value.positionsMm };
   }
-  if (unmatched.length > 0)
-    warnings.push(
-      `${recName}: no electrode position for ${unmatched.join(', ')} (${elSide ? `not in ${byteSourceBaseName(elSide.name)}` : 'not a 10-20/10-10 name'})`,
-    );
 
   // mains frequency from *_eeg.json
   const mains = await readPowerLine(files, rec.name);
   warnings.push(...mains.warnings);
 
-  const loaded: LoadedRecording = { ...info, channels, events, signals, positions, powerLine: mains.powerLine, warnings };
-  return parseOk(loaded, warnings);
+  return parseOk(
+    { source: rec, info: { ...info, channels, events }, mainRate: mainRateOf(channels), electrodes, powerLine: mains.powerLine, warnings },
+    warnings,
+  );
+}
+
+/**
+ * Unit positions for the block's channels: electrodes.tsv projected onto the sphere fitted to it
+ * (sphere-fit.ts), else the idealised 10-20/10-10 set. Only EEG-typed channels get one; NaN rows otherwise.
+ */
+function blockPositions(opened: OpenedRecording, block: readonly ChannelInfo[]): { positions: Float64Array; unmatched: string[] } {
+  const eeg = block.map((c, j) => ({ c, j })).filter((x) => x.c.type === 'EEG');
+  const positions = new Float64Array(block.length * 3).fill(NaN);
+  const found = opened.electrodes
+    ? electrodeDirections(eeg.map((x) => x.c.label), opened.electrodes.names, opened.electrodes.positionsMm)
+    : (() => {
+        const m = matchMontage(eeg.map((x) => x.c.label));
+        return { positions: m.positions, missing: m.unmatched };
+      })();
+  eeg.forEach((x, i) => positions.set(found.positions.subarray(3 * i, 3 * i + 3), 3 * x.j));
+  return { positions, unmatched: found.missing };
+}
+
+/**
+ * The samples of the channels at one rate (default the main rate) with their positions: the LoadedRecording
+ * every analysis starts from. Channels at other rates stay listed in `channels`; a warning names them.
+ */
+export async function readRecordingSignals(opened: OpenedRecording, opts: ReadSignalsOptions = {}): Promise<ParseResult<LoadedRecording>> {
+  const { info, source } = opened;
+  const recName = byteSourceBaseName(source.name);
+  const rate = opts.sampleRate ?? opened.mainRate;
+  const warnings = [...opened.warnings];
+  const loaded = info.channels.filter((c) => c.sampleRate === rate);
+  if (loaded.length === 0 && info.channels.length > 0)
+    return parseFail({ code: 'unknown-channel', message: `${recName}: no channel at ${rate} Hz (the file has ${[...new Set(info.channels.map((c) => c.sampleRate))].join(', ')} Hz)`, file: recName });
+  const others = info.channels.filter((c) => c.sampleRate !== rate);
+  if (others.length > 0)
+    warnings.push(`${recName}: ${others.map((c) => `${c.label} (${c.sampleRate} Hz)`).join(', ')} not loaded; the ${opts.sampleRate === undefined ? 'main ' : ''}rate is ${rate} Hz`);
+  const sig = await readEdfSignals(source, info, { channels: loaded.map((c) => c.label), onProgress: opts.onProgress });
+  if (!sig.ok) return sig;
+  // Labels may repeat in a file; readEdfSignals matches the first, so keep the block's own labels.
+  const signals = sig.value;
+  const { positions, unmatched } = blockPositions(opened, loaded);
+  if (unmatched.length > 0)
+    warnings.push(
+      `${recName}: no electrode position for ${unmatched.join(', ')} (${opened.electrodes ? `not in ${opened.electrodes.file}` : 'not a 10-20/10-10 name'})`,
+    );
+  return parseOk({ ...info, signals, positions, powerLine: opened.powerLine, warnings }, warnings);
+}
+
+/** Loads the recording in `files` with its sidecars and its main-rate samples. See the module comment. */
+export async function loadRecording(files: ByteSource[], opts: LoadRecordingOptions = {}): Promise<ParseResult<LoadedRecording>> {
+  const opened = await openRecording(files, opts);
+  if (!opened.ok) return opened;
+  const progress = opts.onProgress;
+  return readRecordingSignals(opened.value, { onProgress: progress && ((f) => progress(0.3 + 0.7 * f)) });
+}
+
+/**
+ * The channels a LoadedRecording's block does not hold, read from its file: one block per other rate, in
+ * the file's channel order (what a cleaned copy needs to keep every channel).
+ */
+export async function readOtherRateBlocks(source: ByteSource, recording: RecordingInfo & { readonly signals: SignalBlock }): Promise<ParseResult<SignalBlock[]>> {
+  const inBlock = new Set(recording.signals.labels);
+  const others = recording.channels.filter((c) => !inBlock.has(c.label));
+  const blocks: SignalBlock[] = [];
+  for (const rate of [...new Set(others.map((c) => c.sampleRate))]) {
+    const res = await readEdfSignals(source, recording, { channels: others.filter((c) => c.sampleRate === rate).map((c) => c.label) });
+    if (!res.ok) return res;
+    blocks.push(res.value);
+  }
+  return parseOk(blocks);
+}
+
+/** Streams samples of an opened recording chunk by chunk (what `winnow read` prints), without loading them all. */
+export function streamRecordingSignals(opened: OpenedRecording, opts: EdfReadOptions): AsyncGenerator<ParseResult<EdfSignalChunk>> {
+  return iterateEdfSignals(opened.source, opened.info, opts);
 }

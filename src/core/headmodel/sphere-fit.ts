@@ -7,6 +7,7 @@
  * positions close to a sphere, biased for very noisy ones.
  */
 import { solveSmallSystem } from './least-squares.ts';
+import { electrodeNameFromLabel } from './montage-1020.ts';
 
 export interface SphereFit {
   /** Centre in mm, in the frame of the input positions. */
@@ -65,4 +66,38 @@ export function fitSphere(positionsMm: Float64Array): SphereFit {
   const centreOffset = Math.hypot(sol[0], sol[1], sol[2]);
   if (!(r2 > 0) || !Number.isFinite(r2) || centreOffset > 1e6 * Math.max(scale, 1e-300)) return fallback();
   return { centre: [sol[0] + mx, sol[1] + my, sol[2] + mz], radiusMm: Math.sqrt(r2) };
+}
+
+/**
+ * Unit directions (RAS) for channel `labels` from electrode positions (mm, any frame): each electrode minus
+ * the centre of the sphere fitted to all electrodes with finite coordinates (`fitSphere`), normalised. A
+ * label finds its electrode by name, case-insensitively, or by the electrode name inside it ("EEG Fz" → Fz).
+ * Labels without a finite electrode (or one at the centre) get NaN rows and are listed in `missing`.
+ */
+export function electrodeDirections(
+  labels: readonly string[],
+  names: readonly string[],
+  positionsMm: Float64Array,
+): { positions: Float64Array; missing: string[] } {
+  const finite: number[] = [];
+  for (let i = 0; i < names.length; i++) if ([0, 1, 2].every((k) => Number.isFinite(positionsMm[3 * i + k]))) finite.push(i);
+  const pts = new Float64Array(finite.length * 3);
+  finite.forEach((i, j) => pts.set(positionsMm.subarray(3 * i, 3 * i + 3), 3 * j));
+  const { centre } = finite.length > 0 ? fitSphere(pts) : { centre: [0, 0, 0] };
+  const usable = new Set(finite);
+  const lower = new Map(names.map((n, i) => [n.toLowerCase(), i] as const));
+  const positions = new Float64Array(labels.length * 3).fill(NaN);
+  const missing: string[] = [];
+  labels.forEach((label, j) => {
+    const e = lower.get(label.toLowerCase()) ?? lower.get(electrodeNameFromLabel(label).toLowerCase());
+    if (e === undefined || !usable.has(e)) {
+      missing.push(label);
+      return;
+    }
+    const v = [0, 1, 2].map((k) => positionsMm[3 * e + k] - centre[k]);
+    const r = Math.hypot(v[0], v[1], v[2]);
+    if (r > 0) for (let k = 0; k < 3; k++) positions[3 * j + k] = v[k] / r;
+    else missing.push(label);
+  });
+  return { positions, missing };
 }
