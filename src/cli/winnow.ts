@@ -14,11 +14,13 @@ export const commands: Record<string, { summary: string; load: () => Promise<{ r
   decompose: { summary: 'run ICA (extended Infomax or Picard) on a recording', load: () => import('./decompose.ts') },
   evidence: { summary: 'compute per-component evidence and suggested verdicts', load: () => import('./evidence.ts') },
   clean: { summary: 'write the cleaned recording from a decisions file', load: () => import('./clean.ts') },
+  batch: { summary: 'decompose and compute evidence over a BIDS dataset, or gather a study table', load: () => import('./batch.ts') },
+  'simulate-study': { summary: 'simulate a BIDS dataset of several participants', load: () => import('./simulate-study.ts') },
   agree: { summary: "agreement (Cohen's kappa) between two reviewers' decisions files", load: () => import('./agree.ts') },
 };
 
 function usage(): string {
-  const lines = Object.entries(commands).map(([name, c]) => `  ${name.padEnd(11)} ${c.summary}`);
+  const lines = Object.entries(commands).map(([name, c]) => `  ${name.padEnd(14)} ${c.summary}`);
   return `usage: winnow <command> [options]\n\ncommands:\n${lines.join('\n')}\n\nwinnow <command> --help shows a command's options.\nWinnow is a research tool, not for clinical diagnosis.\n`;
 }
 
