@@ -16,7 +16,7 @@ import { Worker } from 'node:worker_threads';
 import { CliError, sha256OfFile, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { openCliRecording, readCliSignals } from './recording-files.ts';
 import { writeFileAtomic } from './atomic-write.ts';
-import { serializeDecomposition } from '../core/formats/decomposition-file.ts';
+import { decompositionExtrasOf, serializeDecomposition } from '../core/formats/decomposition-file.ts';
 import { decomposeInputOf } from '../core/recording-input.ts';
 import { decomposeRecording, type DecomposeProgress } from '../core/ica/decompose.ts';
 import { createIcaThreads, type IcaThreads, type PassHelperSetup } from '../core/ica/pass-threads.ts';
@@ -152,12 +152,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     }
     const decomposition = { ...result.decomposition, recordingSha256: await shaPromise };
     for (const w of result.warnings) io.stderr(`warning: ${w}\n`);
-    const text = serializeDecomposition(decomposition, {
-      rankReason: result.rankReason,
-      varianceShare: result.varianceShare,
-      warnings: result.warnings,
-      seed,
-    });
+    const text = serializeDecomposition(decomposition, decompositionExtrasOf(result, seed));
     await writeFileAtomic(values.out, text);
     const d = decomposition;
     io.stdout(

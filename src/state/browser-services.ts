@@ -3,7 +3,8 @@
  * worker, decomposition and evidence through their bridge clients (loaded on first use), the demo files
  * bundled by Vite, and IndexedDB for autosave.
  */
-import { parseDecompositionJson, parseMatrixTsv, matchDecompositionToRecording, serializeDecomposition } from '../core/formats/decomposition-file.ts';
+import { decompositionExtrasOf, parseDecompositionJson, parseMatrixTsv, serializeDecomposition } from '../core/formats/decomposition-file.ts';
+import { matchDecompositionToRecording } from '../core/formats/decomposition-match.ts';
 import { sha256Hex } from '../core/formats/sha256.ts';
 import { readRecordingInWorker, writeCleanedInWorker } from '../bridge/recording-client.ts';
 
@@ -11,29 +12,12 @@ import { demoFiles } from './demo-files.ts';
 import { openReviewDb, type ReviewDb } from './review-db.ts';
 import { sortDecompositionFiles, sortParticipantFiles } from './participant-files.ts';
 import type { WorkbenchServices } from './services.ts';
-import { runDecomposition } from '../bridge/decomposition-client.ts';
+import { runDecompositionDetailed } from '../bridge/decomposition-client.ts';
 import { computeEvidenceInWorker } from '../bridge/evidence-client.ts';
 import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
-import { mainsFrequency } from '../core/formats/power-line.ts';
-import type { DecomposeInput } from '../core/ica/decompose.ts';
 import type { LoadedRecording } from '../core/recording.ts';
+import { decomposeInputOf, evidenceInputOf } from '../core/recording-input.ts';
 
-
-/** The decomposition engine's view of a recording: its main-rate block, channel types and status, gaps. */
-function decomposeInputOf(recording: LoadedRecording): DecomposeInput {
-  const { labels, data, nSamples, sampleRate } = recording.signals;
-  const info = new Map(recording.channels.map((c) => [c.label, c] as const));
-  const boundaries = recording.events
-    .filter((e) => e.source === 'boundary')
-    .map((e) => Math.round(e.onset * sampleRate))
-    .filter((i) => i > 0 && i < nSamples);
-  return {
-    data, nChannels: labels.length, nSamples, sampleRate, labels,
-    types: labels.map((l) => info.get(l)?.type ?? 'EEG'),
-    status: labels.map((l) => info.get(l)?.status ?? 'good'),
-    boundaries,
-  };
-}
 
 /** The files each loaded recording came from (File objects are references, not copies). */
 const filesOf = new WeakMap<LoadedRecording, readonly File[]>();
@@ -76,7 +60,7 @@ export const browserServices: WorkbenchServices = {
       }
     }
     const started = performance.now();
-    const made = await runDecomposition(
+    const made = await runDecompositionDetailed(
       decomposeInputOf(recording),
       { method: options.method, seed: options.seed, highpassHz: options.highpassHz > 0 ? options.highpassHz : null },
       signal,
@@ -87,29 +71,21 @@ export const browserServices: WorkbenchServices = {
         onProgress(Math.min(0.99, f), p.etaSeconds);
       },
     );
-    const decomposition = { ...made, recordingSha256 };
-    // The hash is of the JSON an export of this decomposition would hold, so a saved file matches the review.
-    const json = serializeDecomposition(decomposition);
+    const decomposition = { ...made.decomposition, recordingSha256 };
+    // The hash is of the JSON an export of this decomposition would hold, so a saved file matches the review;
+    // the run details (rank reason, variance shares, warnings, seed) are written as `winnow decompose` writes them.
+    const json = serializeDecomposition(decomposition, decompositionExtrasOf(made, options.seed));
     await reviewDb().then((d) => d.saveDecomposition(cacheKey, json)).catch(() => undefined);
     return { decomposition, sha256: await sha256Hex(encoder.encode(json)), json };
   },
 
   async computeEvidence(recording, decomposition, aim, signal, onProgress) {
-    const { labels, data, nSamples, sampleRate } = recording.signals;
-    const info = new Map(recording.channels.map((c) => [c.label, c] as const));
+    // The recording's inputs as every CLI command builds them (src/core/recording-input.ts); mains frequency
+    // from the paired *_eeg.json, else 50 Hz (the recording summary says which). Sequential test up to 999
+    // shuffles (p can reach 1/1000); unlocked components stop after ~tens.
+    const { input } = evidenceInputOf(recording, decomposition, { permutations: LOCKING_MAX_SHUFFLES });
     const result = await computeEvidenceInWorker(
-      {
-        data, nChannels: labels.length, nSamples, sampleRate, labels,
-        positionsUnit: recording.positions ?? null,
-        types: labels.map((l) => info.get(l)?.type ?? 'EEG'),
-        decomposition,
-        events: recording.events.filter((e) => e.source !== 'boundary').map((e) => ({ onset: e.onset, duration: e.duration, label: e.label, ...(e.responseTime !== undefined ? { responseTime: e.responseTime } : {}), ...(e.columns ? { columns: e.columns } : {}) })),
-        aim,
-        // PowerLineFrequency of the paired *_eeg.json, else 50 Hz (the recording summary says which).
-        lineHz: mainsFrequency(recording.powerLine).hz,
-        // Sequential test up to 999 shuffles (p can reach 1/1000); unlocked components stop after ~tens.
-        permutations: LOCKING_MAX_SHUFFLES,
-      },
+      { ...input, aim },
       signal,
       (f) => onProgress(f),
     );

@@ -18,6 +18,8 @@
  * component's unmixing weights; for kind 'mixing' a row is the component's scalp map (a column of the mixing
  * matrix). A first column headed "component" (or left blank) holds row names and is skipped. Tab-separated
  * when the header has a tab, else comma-separated.
+ *
+ * Matching a decomposition to a recording's channels is decomposition-match.ts.
  */
 import type { Decomposition, DecompositionMethod, DecompositionPreprocessing } from '../decomposition.ts';
 import { pseudoInverse } from '../linalg/eigen.ts';
@@ -29,13 +31,24 @@ function rows(M: Float64Array, r: number, c: number): number[][] {
   return Array.from({ length: r }, (_, i) => Array.from(M.subarray(i * c, (i + 1) * c)));
 }
 
-/** Optional run details written beside the contract fields (readers ignore them). */
+/**
+ * Optional run details written beside the contract fields (readers ignore them). Workbench and CLI both
+ * write them from the engine's result (`decompositionExtrasOf`), so a file says the same wherever it was made.
+ */
 export interface DecompositionExtras {
   readonly rankReason?: string;
   /** Per component: variance accounted for / total channel variance. */
   readonly varianceShare?: ArrayLike<number>;
   readonly warnings?: readonly string[];
   readonly seed?: number;
+}
+
+/** The run details of a decomposition engine result (src/core/ica/decompose.ts) and the seed it ran with. */
+export function decompositionExtrasOf(
+  result: { readonly rankReason: string; readonly varianceShare: ArrayLike<number>; readonly warnings: readonly string[] },
+  seed: number,
+): DecompositionExtras {
+  return { rankReason: result.rankReason, varianceShare: result.varianceShare, warnings: result.warnings, seed };
 }
 
 /** Our JSON for a decomposition (pretty-printed with one matrix row per line). */
@@ -264,48 +277,4 @@ export function parseMatrixTsv(text: string, fileName: string, kind: 'mixing' | 
     preprocessing: IMPORTED_PREPROCESSING,
     recordingSha256: '',
   });
-}
-
-/**
- * Checks a decomposition against a recording's channel labels: every decomposition channel must exist in the
- * recording (exact label, else case-insensitive match), shapes must agree and values be finite. Recording
- * channels the decomposition does not use are reported as a warning (EOG or bad channels are usually left out).
- * Returns the decomposition with channel labels spelled as in the recording.
- */
-export function matchDecompositionToRecording(d: Decomposition, recordingLabels: readonly string[], fileName: string): ParseResult<Decomposition> {
-  const fail = (code: ParseErrorCode, message: string) => parseFail<Decomposition>({ code, message: `${fileName}: ${message}`, file: fileName });
-  const { nChannels: n, nComponents: k } = d;
-  if (d.channels.length !== n) return fail('bad-shape', `lists ${d.channels.length} channels but declares ${n}`);
-  if (d.mixing.length !== n * k) return fail('bad-shape', `mixing holds ${d.mixing.length} values, expected ${n} channels × ${k} components`);
-  if (d.unmixing.length !== n * k) return fail('bad-shape', `unmixing holds ${d.unmixing.length} values, expected ${k} components × ${n} channels`);
-  if (d.channelMeans && d.channelMeans.length !== n) return fail('bad-shape', `channelMeans holds ${d.channelMeans.length} values for ${n} channels`);
-  for (const [name, M] of [['mixing', d.mixing], ['unmixing', d.unmixing], ['channelMeans', d.channelMeans ?? new Float64Array(0)]] as const) {
-    const bad = M.findIndex((v) => !Number.isFinite(v));
-    if (bad >= 0) return fail('bad-value', `${name} value ${bad + 1} is ${M[bad]}, not a finite number`);
-  }
-  const exact = new Map<string, string>();
-  const loose = new Map<string, string>();
-  for (const l of recordingLabels) {
-    exact.set(l, l);
-    const key = l.trim().toLowerCase();
-    if (!loose.has(key)) loose.set(key, l);
-  }
-  const matched: string[] = [];
-  const missing: string[] = [];
-  for (const c of d.channels) {
-    const m = exact.get(c) ?? loose.get(c.trim().toLowerCase());
-    if (m === undefined) missing.push(c);
-    else matched.push(m);
-  }
-  if (missing.length > 0)
-    return fail(
-      'unknown-channel',
-      `${missing.length} channel(s) of the decomposition are not in the recording: ${missing.slice(0, 10).join(', ')}${missing.length > 10 ? ', …' : ''}`,
-    );
-  const dup = matched.find((c, i) => matched.indexOf(c) !== i);
-  if (dup !== undefined) return fail('bad-value', `two decomposition channels match recording channel "${dup}"`);
-  const used = new Set(matched);
-  const unused = recordingLabels.filter((l) => !used.has(l));
-  const warnings = unused.length > 0 ? [`${fileName}: recording channels not in the decomposition (left as recorded): ${unused.join(', ')}`] : [];
-  return parseOk({ ...d, channels: matched }, warnings);
 }

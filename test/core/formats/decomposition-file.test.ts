@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
 import {
-  matchDecompositionToRecording,
   parseDecompositionJson,
   parseMatrixTsv,
   serializeDecomposition,
@@ -105,29 +104,6 @@ describe('parseMatrixTsv', () => {
     expect(!b.ok && b.error.line).toBe(3);
     const c = parseMatrixTsv('Fz\tCz\n1\tNaN\n', 'm.tsv', 'unmixing');
     expect(!c.ok && c.error.message).toMatch(/line 2, channel "Cz": "NaN" is not a finite number/);
-  });
-});
-
-describe('matchDecompositionToRecording', () => {
-  it('accepts a decomposition whose channels are all in the recording and warns about the unused ones', () => {
-    const r = matchDecompositionToRecording(base, ['FZ', 'Cz', 'Pz', 'HEOG'], 'd.json');
-    expect(r.ok).toBe(true);
-    if (!r.ok) return;
-    expect(r.value.channels).toEqual(['FZ', 'Cz', 'Pz']);
-    expect(r.warnings[0]).toMatch(/HEOG/);
-  });
-  it('refuses a decomposition with channels the recording lacks, naming them', () => {
-    const r = matchDecompositionToRecording(base, ['Fz', 'Cz'], 'd.json');
-    expect(!r.ok && r.error.code).toBe('unknown-channel');
-    expect(!r.ok && r.error.message).toMatch(/not in the recording: Pz/);
-  });
-  it('refuses wrong shapes and non-finite values', () => {
-    const r1 = matchDecompositionToRecording({ ...base, mixing: new Float64Array(5) }, ['Fz', 'Cz', 'Pz'], 'd.json');
-    expect(!r1.ok && r1.error.code).toBe('bad-shape');
-    const W = base.unmixing.slice();
-    W[4] = Infinity;
-    const r2 = matchDecompositionToRecording({ ...base, unmixing: W }, ['Fz', 'Cz', 'Pz'], 'd.json');
-    expect(!r2.ok && r2.error.message).toMatch(/unmixing value 5 is Infinity/);
   });
 });
 
