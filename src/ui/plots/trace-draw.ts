@@ -6,7 +6,7 @@
  * with the grid, labels and events; a repaint then copies that picture and draws only the other layers
  * (e.g. the cleaned signal). The cache is keyed by the spec object, so a new spec redraws everything.
  */
-import { eventsInWindow, minMaxColumns, rowCentres, type WindowEvent } from './trace-layout.ts';
+import { eventsInWindow, formatScale, minMaxColumns, niceScaleBelow, rowCentres, type WindowEvent } from './trace-layout.ts';
 
 export interface TraceLayer {
   /** rows × length, channel-major, µV (or a.u.). */
@@ -42,6 +42,12 @@ export interface TraceSpec {
   readonly sideBySide?: boolean;
   /** Titles of the two panels in side-by-side mode. */
   readonly panelTitles?: readonly [string, string];
+  /**
+   * Unit of the rows' values, written on the scale bars (default "µV"). A bar of a 1-2-5 length that fits
+   * one row is drawn at the right end of the last row for the shared `rowSpan`, and beside each row whose
+   * own span (`rowSpans`) differs from it; null draws no bar.
+   */
+  readonly unit?: string | null;
 }
 
 const BOTTOM = 18;
@@ -199,6 +205,57 @@ function paintLayers(ctx: CanvasRenderingContext2D, spec: TraceSpec, g: Geometry
   }
 }
 
+/**
+ * Rows that carry a scale bar: the last row for the shared span, and each row whose own span differs from
+ * the shared one (e.g. a component's row above sensors). Returns [row, span] pairs.
+ */
+export function scaleBarRows(spec: Pick<TraceSpec, 'rowLabels' | 'rowSpan' | 'rowSpans'>): [number, number][] {
+  const n = spec.rowLabels.length;
+  if (n === 0) return [];
+  const spanOf = (r: number) => (spec.rowSpans ? spec.rowSpans[r] : spec.rowSpan);
+  const out: [number, number][] = [];
+  let sharedAt = -1;
+  for (let r = 0; r < n; r++) {
+    const s = spanOf(r);
+    if (Math.abs(s - spec.rowSpan) > 1e-9 * Math.max(1, Math.abs(spec.rowSpan))) out.push([r, s]);
+    else sharedAt = r;
+  }
+  if (sharedAt >= 0) out.push([sharedAt, spec.rowSpan]);
+  return out.sort((a, b) => a[0] - b[0]);
+}
+
+/** A vertical bar of a 1-2-5 length with its value, at the right end of the row (last panel). */
+function paintScaleBars(ctx: CanvasRenderingContext2D, spec: TraceSpec, g: Geometry): void {
+  const unit = spec.unit === undefined ? 'µV' : spec.unit;
+  if (unit === null || g.rowH <= 0) return;
+  const x = panelX(g, g.panels - 1) + g.plotW - 4;
+  ctx.font = FONT;
+  ctx.textBaseline = 'middle';
+  for (const [r, span] of scaleBarRows(spec)) {
+    if (!(span > 0) || !Number.isFinite(span)) continue;
+    const value = niceScaleBelow(span);
+    const h = (value / span) * g.rowH;
+    const yc = g.centres[r];
+    const text = formatScale(value, unit);
+    const w = ctx.measureText(text).width;
+    ctx.fillStyle = 'rgba(255, 253, 248, 0.85)';
+    ctx.fillRect(x - w - 8, yc - 7, w + 6, 14);
+    ctx.strokeStyle = '#1d232b';
+    ctx.lineWidth = 2;
+    ctx.beginPath();
+    ctx.moveTo(x, yc - h / 2);
+    ctx.lineTo(x, yc + h / 2);
+    ctx.moveTo(x - 3, yc - h / 2);
+    ctx.lineTo(x + 3, yc - h / 2);
+    ctx.moveTo(x - 3, yc + h / 2);
+    ctx.lineTo(x + 3, yc + h / 2);
+    ctx.stroke();
+    ctx.fillStyle = '#1d232b';
+    ctx.fillText(text, x - w - 5, yc);
+  }
+  ctx.textBaseline = 'alphabetic';
+}
+
 const backgrounds = new WeakMap<TraceSpec, HTMLCanvasElement>();
 
 /** Paints `spec` into `canvas` at the device pixel ratio, reusing the cached background of the spec. */
@@ -227,4 +284,5 @@ export function drawTraces(canvas: HTMLCanvasElement, spec: TraceSpec): void {
   ctx.drawImage(bg, 0, 0);
   ctx.setTransform(dpr, 0, 0, dpr, 0, 0);
   paintLayers(ctx, spec, g, false);
+  paintScaleBars(ctx, spec, g);
 }

@@ -40,6 +40,67 @@ export function robustRowSpan(data: ArrayLike<number>, nRows: number, length: nu
   return 6 * spreads[Math.min(spreads.length - 1, Math.floor(0.95 * (spreads.length - 1) + 0.5))];
 }
 
+/**
+ * A row span (µV per row spacing) that lets a trace's events show: twice the 99.5th percentile of
+ * |x − median|, so the rare large deflections that make a component (a blink, a heartbeat) reach the row's
+ * edge instead of crossing into the rows beside it, while on Gaussian noise it matches the ±3 robust SD of
+ * `robustRowSpan` within about 7 % (2 × 2.81 σ against 6 σ; the 99.5th percentile of |N(0, 1)| is 2.807,
+ * a standard normal table). Ours; docs/methods.md §18. Returns 1 for empty/flat data.
+ */
+export function peakRowSpan(data: ArrayLike<number>, length: number, offset = 0): number {
+  const vals: number[] = [];
+  for (let t = 0; t < length; t++) {
+    const v = data[offset + t];
+    if (Number.isFinite(v)) vals.push(v);
+  }
+  if (vals.length === 0) return 1;
+  const sorted = Float64Array.from(vals).sort();
+  const med = median(sorted);
+  for (let i = 0; i < sorted.length; i++) sorted[i] = Math.abs(sorted[i] - med);
+  sorted.sort();
+  const q = sorted[Math.min(sorted.length - 1, Math.floor(0.995 * (sorted.length - 1) + 0.5))];
+  return q > 0 ? 2 * q : 1;
+}
+
+const STEPS_125 = [1, 2, 5];
+
+/** The smallest value of the 1-2-5 sequence (…, 0.5, 1, 2, 5, 10, 20, …) at or above `v` (> 0); 1 otherwise. */
+export function niceScaleAbove(v: number): number {
+  if (!(v > 0) || !Number.isFinite(v)) return 1;
+  let e = Math.floor(Math.log10(v));
+  for (let guard = 0; guard < 3; guard++, e++) {
+    for (const m of STEPS_125) {
+      const c = m * 10 ** e;
+      if (c >= v * (1 - 1e-9)) return +c.toPrecision(3);
+    }
+  }
+  return +(10 ** (e + 1)).toPrecision(3);
+}
+
+/** The largest value of the 1-2-5 sequence at or below `v` (> 0): the length of a scale bar that fits. */
+export function niceScaleBelow(v: number): number {
+  if (!(v > 0) || !Number.isFinite(v)) return 1;
+  const above = niceScaleAbove(v);
+  return above <= v * (1 + 1e-9) ? above : stepScale(above, -1);
+}
+
+/** One step along the 1-2-5 sequence from `v` (itself on it): up (+1) or down (−1). */
+export function stepScale(v: number, dir: 1 | -1): number {
+  const e = Math.floor(Math.log10(v) + 1e-9);
+  const m = Math.round(v / 10 ** e);
+  const i = STEPS_125.indexOf(m);
+  if (i < 0) return niceScaleAbove(v);
+  const j = i + dir;
+  if (j < 0) return +(5 * 10 ** (e - 1)).toPrecision(3);
+  if (j >= STEPS_125.length) return +(10 ** (e + 1)).toPrecision(3);
+  return +(STEPS_125[j] * 10 ** e).toPrecision(3);
+}
+
+/** A scale value with its unit for labels: "50 µV", "0.5 µV", "2000 µV". */
+export function formatScale(v: number, unit = 'µV'): string {
+  return `${+v.toPrecision(3)}\u00a0${unit}`;
+}
+
 function median(sorted: Float64Array): number {
   const n = sorted.length;
   return n % 2 ? sorted[(n - 1) / 2] : 0.5 * (sorted[n / 2 - 1] + sorted[n / 2]);

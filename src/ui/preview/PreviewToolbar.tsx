@@ -1,5 +1,6 @@
 /** Window position and length (zoom), vertical gain, overlay / side by side, and the channels shown. */
-import { clampWindowStart } from '../plots/trace-layout.ts';
+import type { RecordingEvent } from '../../core/recording.ts';
+import { clampWindowStart, formatScale, stepScale } from '../plots/trace-layout.ts';
 import { EventMarkerSelect } from '../plots/EventMarkerSelect.tsx';
 
 export interface PreviewSettings {
@@ -8,25 +9,30 @@ export interface PreviewSettings {
   /** Decomposition channel indices drawn, top to bottom. */
   readonly channels: readonly number[];
   readonly mode: 'overlay' | 'side-by-side';
-  /** Vertical magnification (1 = about ±3 robust SD per row). */
-  readonly gain: number;
+  /**
+   * Vertical scale in µV per division (one row spacing), on the 1-2-5 sequence; null = chosen from the
+   * window (about ±3 robust SD per row, rounded up to the sequence).
+   */
+  readonly uvPerDiv: number | null;
   /** Event label prefixes drawn as markers; null = all. */
   readonly markers: ReadonlySet<string> | null;
 }
 
 export interface PreviewToolbarProps {
   readonly settings: PreviewSettings;
+  /** The scale in use, µV per division (the chosen one, or the one picked from the window). */
+  readonly uvPerDiv: number;
   readonly durationS: number;
   readonly channels: readonly string[];
   readonly rows: Int32Array;
   readonly regionRows: readonly number[];
-  readonly events: readonly { label: string; source?: string }[];
+  readonly events: readonly RecordingEvent[];
   readonly onChange: (patch: Partial<PreviewSettings>) => void;
 }
 
 const LENGTHS_S = [2, 5, 10, 20, 30, 60];
 
-export function PreviewToolbar({ settings, durationS, channels, rows, regionRows, events, onChange }: PreviewToolbarProps) {
+export function PreviewToolbar({ settings, uvPerDiv, durationS, channels, rows, regionRows, events, onChange }: PreviewToolbarProps) {
   const { startS, lengthS } = settings;
   const step = (dir: number) => onChange({ startS: clampWindowStart(startS + dir * lengthS * 0.8, lengthS, durationS) });
   const present = channels.map((_, c) => c).filter((c) => rows[c] >= 0);
@@ -49,17 +55,22 @@ export function PreviewToolbar({ settings, durationS, channels, rows, regionRows
         </select>
       </label>
       <span className="gain" role="group" aria-label="Vertical scale">
-        <button type="button" onClick={() => onChange({ gain: settings.gain / 1.5 })} aria-label="Smaller traces">−</button>
-        ×{settings.gain.toFixed(2)}
-        <button type="button" onClick={() => onChange({ gain: settings.gain * 1.5 })} aria-label="Larger traces">+</button>
+        <button type="button" onClick={() => onChange({ uvPerDiv: stepScale(uvPerDiv, 1) })} aria-label="Smaller traces (more µV per division)">−</button>
+        <span data-testid="preview-scale">{formatScale(uvPerDiv)}/div</span>
+        <button type="button" onClick={() => onChange({ uvPerDiv: stepScale(uvPerDiv, -1) })} aria-label="Larger traces (fewer µV per division)">+</button>
+        {settings.uvPerDiv !== null ? (
+          <button type="button" onClick={() => onChange({ uvPerDiv: null })} title="Scale chosen from the shown window">auto</button>
+        ) : null}
       </span>
+      {/* A toggle labelled with its own mode: pressed = side by side, unpressed = overlaid. */}
       <button
         type="button"
         data-testid="preview-mode"
         aria-pressed={settings.mode === 'side-by-side'}
         onClick={() => onChange({ mode: settings.mode === 'overlay' ? 'side-by-side' : 'overlay' })}
+        title={settings.mode === 'overlay' ? 'Now overlaid; press to show original and cleaned side by side' : 'Now side by side; press to overlay'}
       >
-        {settings.mode === 'overlay' ? 'side by side' : 'overlay'}
+        side by side
       </button>
       <EventMarkerSelect events={events} shown={settings.markers} onChange={(markers) => onChange({ markers })} />
       <label className="channel-select">

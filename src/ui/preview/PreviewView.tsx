@@ -37,10 +37,11 @@ import { decompositionMontage } from '../plots/montage-positions.ts';
 import { TopographyMap } from '../plots/TopographyMap.tsx';
 import { TracePlot } from '../plots/TracePlot.tsx';
 import { drawTraces, type TraceSpec } from '../plots/trace-draw.ts';
-import { clampWindowStart, markerEvents, robustRowSpan } from '../plots/trace-layout.ts';
+import { clampWindowStart, markerEvents, niceScaleAbove, robustRowSpan } from '../plots/trace-layout.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
+import { ComponentStrip } from './ComponentStrip.tsx';
 import { PreviewToolbar, type PreviewSettings } from './PreviewToolbar.tsx';
-import { RegionErpPanel, RegionSpectraPanel } from './RegionPanels.tsx';
+import { RegionErpPanel, RegionSpectraPanel, type SpectraScope } from './RegionPanels.tsx';
 import { RegionControls } from './RegionControls.tsx';
 import {
   defaultTraceChannels,
@@ -51,6 +52,7 @@ import {
   removedSetFromDecisions,
 } from './preview-logic.ts';
 import { usePreviewWindow } from './usePreviewWindow.ts';
+import { useWholeSpectra } from './useWholeSpectra.ts';
 import './preview.css';
 
 export function PreviewView() {
@@ -90,7 +92,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
     lengthS: 10,
     channels: defaultTraceChannels(rows, 16),
     mode: 'overlay',
-    gain: 1,
+    uvPerDiv: null,
     markers: null,
   }));
   const startS = clampWindowStart(settings.startS, settings.lengthS, durationS);
@@ -133,7 +135,9 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
 
   // --- traces ------------------------------------------------------------------------------------------
   const [tracesBox, tracesWidth] = useElementWidth<HTMLDivElement>(900);
-  const rowSpan = useMemo(() => robustRowSpan(original, n, length), [original, n, length]);
+  // µV per division (one row spacing): the reviewer's choice, else ±3 robust SD rounded up to 1-2-5.
+  const autoSpan = useMemo(() => niceScaleAbove(robustRowSpan(original, n, length)), [original, n, length]);
+  const uvPerDiv = settings.uvPerDiv ?? autoSpan;
   const spec = useMemo((): TraceSpec | null => {
     if (!win) return null;
     const labels = settings.channels.map((c) => decomposition.channels[c]);
@@ -151,12 +155,12 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
         { data: win.original, colour: side ? '#1d232b' : '#b9b3a4', lineWidth: side ? 1 : 1.6, panel: 0, fixed: true },
         { data: win.cleaned, colour: side ? '#1d232b' : '#1f4e8c', lineWidth: 1, panel: 1 },
       ],
-      rowSpan: rowSpan / settings.gain,
+      rowSpan: uvPerDiv,
       events: markerEvents(recording.events, settings.markers),
       sideBySide: side,
       panelTitles: ['original', 'cleaned'],
     };
-  }, [win, settings.channels, settings.mode, settings.gain, settings.markers, decomposition.channels, length, fs, start, rowSpan, recording.events, tracesWidth]);
+  }, [win, settings.channels, settings.mode, uvPerDiv, settings.markers, decomposition.channels, length, fs, start, recording.events, tracesWidth]);
   specRef.current = spec;
 
   // --- figures that follow the verdicts (recomputed per version) ---------------------------------------
@@ -191,15 +195,20 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
     () => (erpPlan ? regionErpAfter(erpPlan.before, erpPlan.componentErps, erpPlan.regionWeights, removed) : null),
     [erpPlan, removed],
   );
-  const spectra = useMemo(() => {
-    if (!win || length < 16) return null;
+  const [spectraScope, setSpectraScope] = useState<SpectraScope>('recording');
+  const windowSpectra = useMemo(() => {
+    if (spectraScope !== 'window' || !win || length < 16) return null;
     return regionSpectra(regionMean(win.original, length, roiRows), regionMean(win.cleaned, length, roiRows), fs);
-  }, [win, version, length, roiRows, fs]);
+  }, [spectraScope, win, version, length, roiRows, fs]);
+  const whole = useWholeSpectra(spectraScope === 'recording', recording, decomposition, rows, roiRows, removed);
+  const spectra = spectraScope === 'window' ? windowSpectra : whole.spectra;
 
   return (
     <section className="preview-view" data-testid="preview-view" aria-label="Cleaned signal preview">
+      <ComponentStrip nComponents={k} />
       <PreviewToolbar
         settings={{ ...settings, startS }}
+        uvPerDiv={uvPerDiv}
         durationS={durationS}
         channels={decomposition.channels}
         rows={rows}
@@ -223,7 +232,8 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
             <canvas data-testid="preview-traces" width={900} height={160} aria-label="computing the window" />
           )}
           <p className="note">
-            {settings.mode === 'overlay' ? 'Grey: original; blue: cleaned.' : 'Left: original; right: cleaned.'} Removed:{' '}
+            {settings.mode === 'overlay' ? 'Grey: original; blue: cleaned.' : 'Left: original; right: cleaned.'} One row
+            spacing is {uvPerDiv} µV (scale bar, bottom right). Removed:{' '}
             <span data-testid="preview-removed-count">{removed.size}</span> of {k} components.
             {/* For tests only, never shown: a checksum of the cleaned window and the last update's duration. */}
             <span hidden data-testid="preview-cleaned-checksum">{checksum}</span>
@@ -265,7 +275,16 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
             windowS={roi.windowS}
             pending={erpPlan === null && !(erp && erp.key.every((v, i) => v === erpKey[i]))}
           />
-          <RegionSpectraPanel spectra={spectra} aim={aim} bandHz={roi.bandHz} regionLabel={regionLabel} />
+          <RegionSpectraPanel
+            spectra={spectra}
+            aim={aim}
+            bandHz={roi.bandHz}
+            regionLabel={regionLabel}
+            scope={spectraScope}
+            onScope={setSpectraScope}
+            pending={spectraScope === 'recording' && whole.pending}
+            error={spectraScope === 'recording' ? whole.error : null}
+          />
         </div>
       </div>
     </section>

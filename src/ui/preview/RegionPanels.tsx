@@ -1,6 +1,6 @@
 /**
  * Beside the traces: the region's ERP before/after (or band power for the oscillations aim), and the
- * region's spectra before/after in the shown window.
+ * region's spectra before/after over the whole recording (computed in a worker) or the shown window.
  */
 import type { Aim } from '../../core/review/vocabulary.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
@@ -59,18 +59,35 @@ export function RegionErpPanel({ times, before, after, nEpochs, eventLabel, regi
   );
 }
 
+/** What the spectra average: the whole recording, or the window shown beside them. */
+export type SpectraScope = 'recording' | 'window';
+
 export interface RegionSpectraPanelProps {
   readonly spectra: RegionSpectra | null;
   readonly aim: Aim;
   readonly bandHz: readonly [number, number];
   readonly regionLabel: string;
+  readonly scope?: SpectraScope;
+  readonly onScope?: (scope: SpectraScope) => void;
+  /** Newer spectra are being computed (the ones shown belong to the previous verdicts). */
+  readonly pending?: boolean;
+  readonly error?: string | null;
 }
 
-/** Spectra of the region before/after in the shown window; band power before/after for the oscillations aim. */
-export function RegionSpectraPanel({ spectra, aim, bandHz, regionLabel }: RegionSpectraPanelProps) {
+/** Spectra of the region before/after; band power before/after for the oscillations aim. */
+export function RegionSpectraPanel({ spectra, aim, bandHz, regionLabel, scope = 'window', onScope, pending = false, error = null }: RegionSpectraPanelProps) {
   const bp = spectra ? regionBandPower(spectra, bandHz) : null;
+  const controls = onScope ? (
+    <label>
+      Over{' '}
+      <select value={scope} onChange={(e) => onScope(e.target.value as SpectraScope)} data-testid="preview-spectra-scope">
+        <option value="recording">the whole recording</option>
+        <option value="window">the shown window</option>
+      </select>
+    </label>
+  ) : undefined;
   return (
-    <ExportablePanel title="Spectra before / after" context="preview" className="panel-region-spectra">
+    <ExportablePanel title="Spectra before / after" context="preview" className="panel-region-spectra" controls={controls}>
       {spectra ? (
         <SpectrumPlot
           series={[
@@ -82,7 +99,7 @@ export function RegionSpectraPanel({ spectra, aim, bandHz, regionLabel }: Region
           title={`Spectra at ${regionLabel}`}
         />
       ) : (
-        <p>The window is too short for a spectrum.</p>
+        <p>{error ?? (scope === 'recording' ? 'Computing the spectra of the whole recording…' : 'The window is too short for a spectrum.')}</p>
       )}
       {bp ? (
         <dl className={`region-figures ${aim === 'oscillations' ? 'emphasis' : ''}`}>
@@ -92,7 +109,10 @@ export function RegionSpectraPanel({ spectra, aim, bandHz, regionLabel }: Region
           <dd><span data-testid="preview-band-after">{formatValue(bp.after, 3)}</span> µV²</dd>
         </dl>
       ) : null}
-      <p className="note">Welch PSD of the mean of {regionLabel} over the shown window.</p>
+      <p className="note" data-testid="preview-spectra-note" aria-busy={pending}>
+        Welch PSD of the mean of {regionLabel} over {scope === 'recording' ? 'the whole recording' : 'the shown window'}
+        {pending && spectra ? ' (updating…)' : ''}.
+      </p>
     </ExportablePanel>
   );
 }

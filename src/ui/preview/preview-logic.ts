@@ -99,3 +99,11 @@ export function defaultTraceChannels(rows: ArrayLike<number>, max = 16): number[
   for (let c = 0; c < rows.length && out.length < max; c++) if (rows[c] >= 0) out.push(c);
   return out;
 }
+
+/**
+ * The verdict the preview strip's toggle sets: a removed component is restored as keep (the reviewer has
+ * watched the cleaned signal and chose to keep it); any other is removed.
+ */
+export function stripToggleVerdict(current: ReviewDecision['verdict']): ReviewDecision['verdict'] {
+  return current === 'remove' ? 'keep' : 'remove';
+}
