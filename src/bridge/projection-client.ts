@@ -7,6 +7,7 @@
 import { wrap, type Remote } from 'comlink';
 import type { ProjectionApi } from '../../workers/projection.worker.ts';
 import type { WindowActivationsInput } from '../core/review/preview-projection.ts';
+import type { WholeRegionSpectra, WholeRegionSpectraInput } from '../core/review/whole-spectra.ts';
 
 const IDLE_MS = 10_000;
 
@@ -39,6 +40,7 @@ function scheduleIdleShutdown(): void {
     worker = null;
     remote = null;
     idleTimer = null;
+    sentSamples = null;
   }, IDLE_MS);
 }
 
@@ -50,6 +52,35 @@ export async function windowActivationsInWorker(...input: WindowActivationsInput
   pending++;
   try {
     return await api().activations(...input);
+  } finally {
+    pending--;
+    scheduleIdleShutdown();
+  }
+}
+
+/** The samples the running worker holds, and their id. */
+let sentSamples: { data: Float32Array; id: number } | null = null;
+let nextSamplesId = 1;
+
+/**
+ * Region spectra before/after over the whole recording (src/core/review/whole-spectra.ts), computed in the
+ * worker. The samples cross once per recording (shared, not copied, when they live on a
+ * SharedArrayBuffer); later calls send only the weights of the removed set.
+ */
+export async function wholeRegionSpectraInWorker(input: WholeRegionSpectraInput): Promise<WholeRegionSpectra> {
+  pending++;
+  try {
+    const { data, ...rest } = input;
+    const plain = { ...rest, rows: Array.from(rest.rows), roi: [...rest.roi] };
+    for (let attempt = 0; attempt < 2; attempt++) {
+      const fresh = !sentSamples || sentSamples.data !== data;
+      if (fresh) sentSamples = { data, id: nextSamplesId++ };
+      const id = sentSamples!.id;
+      const out = await api().wholeSpectra(id, fresh ? data : null, plain);
+      if (out) return out;
+      sentSamples = null;
+    }
+    throw new Error('the projection worker did not keep the recording samples');
   } finally {
     pending--;
     scheduleIdleShutdown();
