@@ -8,7 +8,7 @@ import type { LoadedRecording } from '../../core/recording.ts';
 import { extractWindow } from '../../core/review/preview-projection.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { TracePlot } from '../plots/TracePlot.tsx';
-import { clampWindowStart, markerEvents, robustRowSpan } from '../plots/trace-layout.ts';
+import { clampWindowStart, markerEvents, niceScaleAbove, peakRowSpan, robustRowSpan } from '../plots/trace-layout.ts';
 import { EventMarkerSelect } from '../plots/EventMarkerSelect.tsx';
 import type { TraceSpec } from '../plots/trace-draw.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
@@ -63,9 +63,10 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
     sensors.forEach((c, r) => {
       for (let t = 0; t < L; t++) data[(r + 1) * L + t] = win[c * L + t];
     });
-    // The component row gets its own scale so its shape shows even when it is small at the sensors.
-    const sensorSpan = sensors.length ? robustRowSpan(data.subarray(L), sensors.length, L) : 1;
-    const rowSpans = Float64Array.from({ length: nRows }, (_, r) => (r === 0 ? robustRowSpan(act, 1, L) : sensorSpan));
+    // The component row gets its own scale, to its robust peak so its events (blinks, beats) fit the row;
+    // the sensors share ±3 robust SD; both on the 1-2-5 sequence so the scale bars read (docs/methods.md §18).
+    const sensorSpan = niceScaleAbove(sensors.length ? robustRowSpan(data.subarray(L), sensors.length, L) : 1);
+    const rowSpans = Float64Array.from({ length: nRows }, (_, r) => (r === 0 ? niceScaleAbove(peakRowSpan(act, L)) : sensorSpan));
     return {
       width: Math.max(420, boxWidth),
       height: 60 + 46 * nRows,
@@ -116,8 +117,8 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
       <div ref={box} className="trace-box" />
       <TracePlot spec={spec} ariaLabel={`Component ${index} time course with ${sensors.length} sensor traces`} />
       <p className="note">
-        Top row: the component back-projected to its strongest channel (µV, own vertical scale); below: the sensors on a shared
-        scale. Dashed lines: events.
+        Top row: the component back-projected to its strongest channel (µV, scaled to its peak); below: the sensors on a shared
+        scale. Scale bars at the right; dashed lines: events.
       </p>
     </ExportablePanel>
   );
