@@ -61,6 +61,27 @@ export function divergingColor(value: number, maxAbs: number): Rgb {
   return labToRgb(l, a, b);
 }
 
+/**
+ * Sequential scale for quantities that run from 0 up (a share of variance, 0…1), ours, in CIELAB like the
+ * diverging one: t = clamp(value / max, 0, 1), L*(t) = 97 − 62 t (lightness alone orders the values, so it
+ * reads in greyscale), C*(t) = 14 + 36 t, hue 88° (pale yellow) → 300° (deep violet) through red, so it never
+ * shares the diverging scale's blue-for-negative. NaN gives the neutral grey.
+ */
+export function sequentialLab(t: number): [number, number, number] {
+  const u = Math.max(0, Math.min(1, t));
+  const l = 97 - 62 * u;
+  const c = 14 + 36 * u;
+  const h = ((88 - 148 * u + 360) % 360) * (Math.PI / 180);
+  return [l, c * Math.cos(h), c * Math.sin(h)];
+}
+
+/** sRGB colour (0–255) of `value` on the sequential scale from 0 (near white) to `max` (deep violet). */
+export function sequentialColor(value: number, max: number): Rgb {
+  if (Number.isNaN(value)) return [...NO_DATA] as Rgb;
+  const [l, a, b] = sequentialLab(max > 0 ? value / max : 0);
+  return labToRgb(l, a, b);
+}
+
 /** CSS `rgb(r, g, b)` string of `divergingColor(value, maxAbs)`. */
 export function paletteCss(value: number, maxAbs: number): string {
   const [r, g, b] = divergingColor(value, maxAbs);

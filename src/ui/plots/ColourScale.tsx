@@ -1,14 +1,17 @@
 /**
- * A vertical colour bar for a diverging palette symmetric about zero, with ticks. Rendered as SVG
- * (stacked rects, no gradient ids, so several bars on one page never clash).
+ * A vertical colour bar with ticks: the diverging palette symmetric about zero (−maxAbs … +maxAbs), or the
+ * sequential one from 0 to maxAbs. Rendered as SVG (stacked rects, no gradient ids, so several bars on one
+ * page never clash).
  */
 import { scaleLinear, format } from 'd3';
-import { divergingColor } from '../../core/headmodel/palette.ts';
-import { colourTicks } from './colour-scale.ts';
+import { divergingColor, sequentialColor } from '../../core/headmodel/palette.ts';
+import { colourTicks, sequentialTicks } from './colour-scale.ts';
 
 export interface ColourScaleProps {
-  /** The palette runs from −maxAbs (bottom) to +maxAbs (top). */
+  /** The palette runs from −maxAbs (bottom) to +maxAbs (top); from 0 to maxAbs when sequential. */
   readonly maxAbs: number;
+  /** Default 'diverging'. */
+  readonly kind?: 'diverging' | 'sequential';
   readonly height: number;
   /** Bar width in px (default 10). */
   readonly width?: number;
@@ -18,16 +21,18 @@ export interface ColourScaleProps {
   readonly steps?: number;
 }
 
-export function ColourScale({ maxAbs, height, width = 10, unit, steps = 32 }: ColourScaleProps) {
-  const y = scaleLinear().domain([-maxAbs, maxAbs]).range([height, 0]);
-  const ticks = colourTicks(maxAbs, 4);
+export function ColourScale({ maxAbs, height, width = 10, unit, steps = 32, kind = 'diverging' }: ColourScaleProps) {
+  const sequential = kind === 'sequential';
+  const lo = sequential ? 0 : -maxAbs;
+  const y = scaleLinear().domain([lo, maxAbs]).range([height, 0]);
+  const ticks = sequential ? sequentialTicks(maxAbs, 4) : colourTicks(maxAbs, 4);
   const fmt = format('.2~g');
   const step = height / steps;
   return (
     <g className="colour-scale">
       {Array.from({ length: steps }, (_, i) => {
-        const v = maxAbs - ((i + 0.5) / steps) * 2 * maxAbs;
-        const [r, g, b] = divergingColor(v, maxAbs);
+        const v = maxAbs - ((i + 0.5) / steps) * (maxAbs - lo);
+        const [r, g, b] = sequential ? sequentialColor(v, maxAbs) : divergingColor(v, maxAbs);
         return <rect key={i} x={0} y={i * step} width={width} height={step + 0.5} fill={`rgb(${r},${g},${b})`} />;
       })}
       <rect x={0} y={0} width={width} height={height} fill="none" stroke="#555" strokeWidth={0.5} />

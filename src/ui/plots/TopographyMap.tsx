@@ -1,12 +1,13 @@
 /**
  * Scalp topography of one set of channel weights (a component's map, or variance removed per channel):
- * spherical-spline picture from the head-model plan, diverging palette symmetric about zero, head outline
- * with nose and ears, electrode dots. The picture is a PNG inside an SVG `<image>`, so the whole map exports
+ * spherical-spline picture from the head-model plan, painted over the electrodes' hull plus a small margin
+ * with a smooth edge (topography-plans.ts MAP_CLIP), diverging palette symmetric about zero (or sequential
+ * from 0 for shares), head outline with nose and ears, electrode dots. The picture is a PNG inside an SVG `<image>`, so the whole map exports
  * as one SVG. Polarity of a component map is arbitrary; the caller says so near the map.
  */
 import { useMemo } from 'react';
-import { divergingColor } from '../../core/headmodel/palette.ts';
-import { symmetricLimit, gridToRgba } from './colour-scale.ts';
+import { divergingColor, sequentialColor } from '../../core/headmodel/palette.ts';
+import { gridToRgba, sequentialLimit, symmetricLimit } from './colour-scale.ts';
 import { headOutlinePaths } from './head-outline.ts';
 import { rgbaToDataUrl } from './raster-image.ts';
 import { topographyPlanFor } from './topography-plans.ts';
@@ -29,8 +30,10 @@ export interface TopographyMapProps {
   readonly colourBar?: boolean;
   /** Unit written under the colour bar (e.g. "a.u.", "µV²"). */
   readonly unit?: string;
-  /** Fixed ±limit of the palette; default: the largest |value| in the picture. */
+  /** Fixed ±limit of the palette (top of a sequential one); default: the largest |value| in the picture. */
   readonly maxAbs?: number;
+  /** 'diverging' (default; signed maps, symmetric about 0) or 'sequential' (0 … max, e.g. a share per channel). */
+  readonly scale?: 'diverging' | 'sequential';
 }
 
 /** Grid resolution for a drawn size: half the pixels, between 32 and 128 (the browser smooths the rest). */
@@ -39,17 +42,18 @@ export function topographyResolution(size: number): number {
 }
 
 export function TopographyMap({
-  weights, positionsUnit, size = 96, title, electrodes = true, labels, colourBar = false, unit, maxAbs,
+  weights, positionsUnit, size = 96, title, electrodes = true, labels, colourBar = false, unit, maxAbs, scale = 'diverging',
 }: TopographyMapProps) {
+  const sequential = scale === 'sequential';
   const resolution = topographyResolution(size);
   const plan = useMemo(() => topographyPlanFor(positionsUnit, resolution), [positionsUnit, resolution]);
   const grid = useMemo(() => plan.render(weights), [plan, weights]);
-  const limit = maxAbs ?? symmetricLimit(grid);
+  const limit = maxAbs ?? (sequential ? sequentialLimit(grid) : symmetricLimit(grid));
   const href = useMemo(
-    () => rgbaToDataUrl(gridToRgba(grid, limit, divergingColor), plan.size, plan.size),
-    [grid, limit, plan],
+    () => rgbaToDataUrl(gridToRgba(grid, limit, sequential ? sequentialColor : divergingColor, undefined, plan.alpha), plan.size, plan.size),
+    [grid, limit, plan, sequential],
   );
-  const scale = size / plan.size;
+  const px = size / plan.size;
   const frame = { cx: size / 2, cy: size / 2, radius: size / 2 / plan.extent };
   const outline = headOutlinePaths(frame);
   const pad = size * 0.08;
@@ -60,6 +64,7 @@ export function TopographyMap({
   return (
     <svg
       className="topography-map"
+      data-scale={scale}
       width={size + 2 * pad + barWidth}
       height={size + 2 * pad}
       viewBox={`${-pad} ${-pad} ${size + 2 * pad + barWidth} ${size + 2 * pad}`}
@@ -83,8 +88,8 @@ export function TopographyMap({
             return (
               <circle
                 key={i}
-                cx={x * scale}
-                cy={y * scale}
+                cx={x * px}
+                cy={y * px}
                 r={dotR}
                 fill={known ? '#111' : 'none'}
                 stroke="#111"
@@ -98,7 +103,7 @@ export function TopographyMap({
       ) : null}
       {colourBar ? (
         <g transform={`translate(${size + pad}, ${size * 0.1})`}>
-          <ColourScale maxAbs={limit} height={size * 0.8} unit={unit} />
+          <ColourScale maxAbs={limit} height={size * 0.8} unit={unit} kind={scale} />
         </g>
       ) : null}
     </svg>

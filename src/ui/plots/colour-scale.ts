@@ -41,18 +41,36 @@ export function colourTicks(maxAbs: number, count = 5): number[] {
   return ticks.sort((a, b) => a - b);
 }
 
+/**
+ * Tick values for a sequential colour bar from 0 to `max` (a share, a variance): 0 and `max` always in.
+ */
+export function sequentialTicks(max: number, count = 4): number[] {
+  const ticks = scaleLinear().domain([0, max]).ticks(count);
+  if (!ticks.includes(0)) ticks.unshift(0);
+  return ticks;
+}
+
+/** Largest finite value of `values` (at least 0), for the top of a sequential scale; 1 when none is positive. */
+export function sequentialLimit(values: ArrayLike<number>): number {
+  let m = 0;
+  for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i]) && values[i] > m) m = values[i];
+  return m > 0 ? m : 1;
+}
+
 /** An RGB palette: value in [−maxAbs, maxAbs] → [r, g, b] bytes (0–255). */
 export type DivergingPalette = (value: number, maxAbs: number) => readonly [number, number, number];
 
 /**
  * Paints a map grid (row-major, `NaN` = outside the head) into RGBA bytes with `palette`. NaN pixels get
- * alpha 0 so the page shows through; every other pixel is opaque. Writes into `out` when given.
+ * alpha 0 so the page shows through; every other pixel is opaque, or takes `alpha` (0…1 per pixel, e.g. a
+ * scalp map's smooth edge) when given. Writes into `out` when given.
  */
 export function gridToRgba(
   grid: ArrayLike<number>,
   maxAbs: number,
   palette: DivergingPalette,
   out = new Uint8ClampedArray(grid.length * 4),
+  alpha?: ArrayLike<number>,
 ): Uint8ClampedArray {
   for (let i = 0; i < grid.length; i++) {
     const v = grid[i];
@@ -65,7 +83,7 @@ export function gridToRgba(
     out[o] = r;
     out[o + 1] = g;
     out[o + 2] = b;
-    out[o + 3] = 255;
+    out[o + 3] = alpha ? Math.round(255 * Math.max(0, Math.min(1, alpha[i]))) : 255;
   }
   return out;
 }

@@ -12,12 +12,21 @@ import { createTopographyPlan, type TopographyPlan as CorePlan } from '../../cor
  */
 export const MAP_EXTENT = 1.15;
 
+/**
+ * The painted area: the electrodes' convex hull plus half a 10-20 step (the 10 % step is 0.2 in ρ, so 0.1 ρ
+ * ≈ 9° of arc), the outer half of that margin fading to transparent (ours). Beyond it the spline would
+ * extrapolate values no electrode measured.
+ */
+export const MAP_CLIP = { marginRho: 0.1, featherRho: 0.05 } as const;
+
 export interface MontagePlan {
   readonly size: number;
   readonly extent: number;
   /** Electrode centres in picture pixels (x, y per channel of the full montage; NaN when unknown). */
   readonly electrodePx: Float64Array;
-  /** Picture (row-major size × size, NaN outside the head) of one weight per channel of the full montage. */
+  /** Opacity per pixel, 0…1 (the clip's smooth edge; 0 where nothing is painted). */
+  readonly alpha: Float32Array;
+  /** Picture (row-major size × size, NaN outside the painted area) of one weight per channel of the full montage. */
   render(weights: Float64Array): Float32Array;
 }
 
@@ -38,7 +47,7 @@ function buildPlan(positionsUnit: Float64Array, size: number): MontagePlan {
   const n = Math.floor(positionsUnit.length / 3);
   const sub = new Float64Array(known.length * 3);
   known.forEach((c, j) => sub.set(positionsUnit.subarray(3 * c, 3 * c + 3), 3 * j));
-  const core: CorePlan | null = known.length >= 3 ? createTopographyPlan(sub, { size, extent: MAP_EXTENT }) : null;
+  const core: CorePlan | null = known.length >= 3 ? createTopographyPlan(sub, { size, extent: MAP_EXTENT, clip: MAP_CLIP }) : null;
   const electrodePx = new Float64Array(2 * n).fill(NaN);
   if (core) {
     known.forEach((c, j) => {
@@ -52,6 +61,7 @@ function buildPlan(positionsUnit: Float64Array, size: number): MontagePlan {
     size,
     extent: MAP_EXTENT,
     electrodePx,
+    alpha: core ? core.alpha : new Float32Array(size * size),
     render(weights: Float64Array): Float32Array {
       if (!core) return new Float32Array(size * size).fill(NaN);
       // An unknown weight contributes 0 rather than turning the whole spline into NaN.

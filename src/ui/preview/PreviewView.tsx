@@ -259,6 +259,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
                 colourBar
                 unit="share"
                 maxAbs={1}
+                scale="sequential"
               />
             ) : (
               <p>{montage.drawable ? 'Computing…' : 'No electrode positions, so no map.'}</p>

@@ -55,3 +55,55 @@ describe('createTopographyPlan', () => {
     expect(img[r * 32 + c]).toBeCloseTo(expected, 5);
   });
 });
+
+describe('clipping to the electrodes (convex hull plus a margin)', () => {
+  it('finds the convex hull of a square with an inside point (monotone chain, Andrew 1979)', async () => {
+    const { convexHull } = await import('../../../src/core/headmodel/topography.ts');
+    const hull = convexHull([0, 0, 1, 0, 1, 1, 0, 1, 0.5, 0.5, 0.5, 0]);
+    expect(hull).toEqual([[0, 0], [1, 0], [1, 1], [0, 1]]);
+  });
+
+  it('measures signed distance to the hull: minus the edge distance inside, the boundary distance outside (plane geometry)', async () => {
+    const { convexHull, signedHullDistance } = await import('../../../src/core/headmodel/topography.ts');
+    const hull = convexHull([0, 0, 1, 0, 1, 1, 0, 1]);
+    expect(signedHullDistance(hull, 0.5, 0.5)).toBeCloseTo(-0.5, 12);
+    expect(signedHullDistance(hull, 1.3, 0.5)).toBeCloseTo(0.3, 12);
+    expect(signedHullDistance(hull, 1.3, 1.4)).toBeCloseTo(0.5, 12); // 3-4-5 triangle to the corner
+  });
+
+  it('paints only within the margin of the outermost electrodes and fades the last part of it smoothly', async () => {
+    const { convexHull, signedHullDistance } = await import('../../../src/core/headmodel/topography.ts');
+    const size = 64;
+    const extent = 1.15;
+    const clip = { marginRho: 0.1, featherRho: 0.05 };
+    const p = createTopographyPlan(electrodes, { size, extent, clip });
+    const hull = convexHull(projectAzimuthalEquidistant(electrodes));
+    let faded = 0;
+    for (let r = 0; r < size; r++)
+      for (let c = 0; c < size; c++) {
+        const i = r * size + c;
+        const px = (-1 + (2 * c + 1) / size) * extent;
+        const py = -(-1 + (2 * r + 1) / size) * extent;
+        const d = signedHullDistance(hull, px, py);
+        if (d > clip.marginRho) expect(p.mask[i]).toBe(0);
+        if (d <= clip.marginRho - clip.featherRho && Math.hypot(px, py) <= extent) expect(p.alpha[i]).toBe(1);
+        if (p.alpha[i] > 0 && p.alpha[i] < 1) faded++;
+        if (!p.mask[i]) expect(p.alpha[i]).toBe(0);
+      }
+    expect(faded).toBeGreaterThan(0);
+    // Every electrode's own pixel is fully painted.
+    for (let e = 0; e < names.length; e++) {
+      const c = Math.floor(((p.electrodeXY[2 * e] + 1) / 2) * size);
+      const r = Math.floor(((p.electrodeXY[2 * e + 1] + 1) / 2) * size);
+      expect(p.alpha[r * size + c]).toBe(1);
+    }
+    // The rendered picture is NaN exactly where nothing is painted.
+    const img = p.render(new Float64Array(names.length).fill(1));
+    for (let i = 0; i < img.length; i++) expect(Number.isNaN(img[i])).toBe(!p.mask[i]);
+  });
+
+  it('keeps the whole disc without a clip (alpha = mask)', () => {
+    const plan = createTopographyPlan(electrodes, { size: 32 });
+    for (let i = 0; i < plan.mask.length; i++) expect(plan.alpha[i]).toBe(plan.mask[i]);
+  });
+});

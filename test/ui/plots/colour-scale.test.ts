@@ -48,3 +48,33 @@ describe('gridToRgba', () => {
     expect(buf[3]).toBe(255);
   });
 });
+
+describe('sequential scale for shares (0 … max)', () => {
+  it('ticks from 0 to the top and takes the largest finite value as the top', async () => {
+    const { sequentialTicks, sequentialLimit } = await import('../../../src/ui/plots/colour-scale.ts');
+    expect(sequentialTicks(1, 4)).toEqual([0, 0.2, 0.4, 0.6, 0.8, 1]);
+    expect(sequentialLimit([0.1, NaN, 0.4, -2])).toBe(0.4);
+    expect(sequentialLimit([NaN])).toBe(1);
+  });
+  it('darkens monotonically from 0 to max, so the order reads in greyscale (CIELAB L*, CIE 15:2004)', async () => {
+    const { sequentialLab, sequentialColor } = await import('../../../src/core/headmodel/palette.ts');
+    let last = Infinity;
+    for (let i = 0; i <= 10; i++) {
+      const [l] = sequentialLab(i / 10);
+      expect(l).toBeLessThan(last);
+      last = l;
+    }
+    // Rec. 709 luma of the sRGB bytes falls too (ITU-R BT.709).
+    const luma = (v: number) => {
+      const [r, g, b] = sequentialColor(v, 1);
+      return 0.2126 * r + 0.7152 * g + 0.0722 * b;
+    };
+    expect(luma(0)).toBeGreaterThan(luma(0.5));
+    expect(luma(0.5)).toBeGreaterThan(luma(1));
+    expect(sequentialColor(NaN, 1)).toEqual([150, 150, 150]);
+  });
+  it('paints per-pixel opacity when given (the scalp map edge)', () => {
+    const rgba = gridToRgba([0, 0, NaN], 1, () => [10, 20, 30], undefined, [1, 0.5, 1]);
+    expect(Array.from(rgba)).toEqual([10, 20, 30, 255, 10, 20, 30, 128, 0, 0, 0, 0]);
+  });
+});

@@ -39,3 +39,20 @@ describe('topographyPlanFor', () => {
     expect(img[0]).toBeNaN(); // the corner is outside the head
   });
 });
+
+describe('the painted area (electrode hull plus MAP_CLIP margin)', () => {
+  it('leaves unpainted a point of the head between Fpz and T8, well outside the hull of the electrodes', async () => {
+    const { MAP_CLIP } = await import('../../../src/ui/plots/topography-plans.ts');
+    const plan = topographyPlanFor(positions, 64);
+    // ρ = 0.8 at 45°: 0.23 ρ outside the Fpz–T8 edge (x + y = 0.8), beyond the 0.1 ρ margin (plane geometry).
+    const x = 0.8 * Math.SQRT1_2;
+    const c = Math.floor(((x / MAP_EXTENT + 1) / 2) * 64);
+    const r = Math.floor(((-x / MAP_EXTENT + 1) / 2) * 64);
+    expect(plan.alpha[r * 64 + c]).toBe(0);
+    expect(plan.render(Float64Array.from([1, 1, 1, 1, 1, 1, 1, NaN]))[r * 64 + c]).toBeNaN();
+    // Cz, at the centre, is fully painted; some pixels fade (the smooth edge).
+    expect(plan.alpha[32 * 64 + 32]).toBe(1);
+    expect(Array.from(plan.alpha).some((a) => a > 0 && a < 1)).toBe(true);
+    expect(MAP_CLIP.marginRho).toBeGreaterThan(MAP_CLIP.featherRho);
+  });
+});
