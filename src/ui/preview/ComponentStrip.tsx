@@ -8,7 +8,7 @@
  * aria-current), preview-strip-toggle-<n> (its remove toggle, aria-pressed when removed),
  * preview-strip-select-<n> (its select button).
  */
-import { UNDECIDED } from '../../core/review/decisions-file.ts';
+import { UNDECIDED, type ReviewDecision } from '../../core/review/decisions-file.ts';
 import { useWorkbench } from '../../state/index.ts';
 import { VERDICT_GLYPH } from '../board/VerdictMark.tsx';
 import { stripToggleVerdict } from './preview-logic.ts';
@@ -22,6 +22,20 @@ export function ComponentStrip({ nComponents }: ComponentStripProps) {
   const selected = useWorkbench((s) => s.selected);
   const decide = useWorkbench((s) => s.decide);
   const select = useWorkbench((s) => s.select);
+  return <ComponentStripView nComponents={nComponents} decisions={decisions} selected={selected} decide={decide} select={select} />;
+}
+
+export interface ComponentStripViewProps {
+  readonly nComponents: number;
+  /** Keyed 1-based. */
+  readonly decisions: Readonly<Record<number, ReviewDecision>>;
+  readonly selected: number | null;
+  readonly decide: (index: number, patch: Partial<ReviewDecision>) => void;
+  readonly select: (index: number) => void;
+}
+
+/** The strip itself, from plain props (the store wiring is ComponentStrip). */
+export function ComponentStripView({ nComponents, decisions, selected, decide, select }: ComponentStripViewProps) {
   const items = Array.from({ length: nComponents }, (_, i) => i + 1);
   return (
     <ol className="component-strip" aria-label="Components: remove or restore while watching the cleaned signal" data-testid="preview-strip">
