@@ -1,20 +1,19 @@
 /**
- * Recording worker (wiring only): parses a recording with its sidecars off the main thread, hashes the
- * recording file, moves the samples into a SharedArrayBuffer (when the page is cross-origin isolated) so the
- * page and every other worker read one copy, and writes cleaned recordings.
+ * Recording worker (wiring only): parses a recording with its sidecars off the main thread (the loader every
+ * CLI command uses, src/core/formats/recording-loader.ts), hashes the recording file, moves the samples into a
+ * SharedArrayBuffer (when the page is cross-origin isolated) so the page and every other worker read one
+ * copy, and writes cleaned recordings (src/core/recording-input.ts, src/core/formats/edf-writer.ts).
  */
 import { expose, transfer } from 'comlink';
 import { blobByteSource } from '../src/core/formats/byte-source.ts';
-import { loadRecording } from '../src/core/formats/recording-loader.ts';
+import { loadRecording, readOtherRateBlocks } from '../src/core/formats/recording-loader.ts';
+import { isRecordingFileName } from '../src/core/formats/recording-file-name.ts';
 import { sha256Hex } from '../src/core/formats/sha256.ts';
-import { writeEdfChunks } from '../src/core/formats/edf-writer.ts';
-import { cleanedEdfInput, cleanedRecordingSamples } from '../src/core/review/clean.ts';
-import { readEdfSignals } from '../src/core/formats/edf.ts';
+import { writeEdf } from '../src/core/formats/edf-writer.ts';
+import { cleanedRecordingInput } from '../src/core/recording-input.ts';
 import type { LoadedRecording, SignalBlock } from '../src/core/recording.ts';
 import type { Decomposition } from '../src/core/decomposition.ts';
 import type { ParseError } from '../src/core/formats/parse-result.ts';
-
-const RECORDING_EXT = /\.(edf|bdf|rec)$/i;
 
 /** Copies a Float32Array into shared memory when allowed (one copy for page and workers). */
 function toShared(data: Float32Array): Float32Array {
@@ -42,11 +41,12 @@ export interface CleanedExportRequest {
 
 const api = {
   async load(files: File[], onProgress?: (fraction: number) => void): Promise<LoadResult> {
-    const main = files.find((f) => RECORDING_EXT.test(f.name));
     onProgress?.(0.05);
     const parsed = await loadRecording(files.map((f) => blobByteSource(f, f.name)));
     if (!parsed.ok) return { ok: false, error: parsed.error };
     onProgress?.(0.8);
+    // The hash is of the file the loader chose (the first recording file is not always it).
+    const main = files.find((f) => f.name === parsed.value.fileName) ?? files.find((f) => isRecordingFileName(f.name));
     const sha256 = main ? await sha256Hex(new Uint8Array(await main.arrayBuffer())) : '';
     onProgress?.(1);
     const rec = parsed.value;
@@ -54,46 +54,31 @@ const api = {
     return { ok: true, recording, sha256, warnings: parsed.warnings };
   },
 
-  /** The cleaned recording as EDF+/BDF+ bytes (transferred, not copied). */
-  async writeCleaned(req: CleanedExportRequest, onProgress?: (fraction: number) => void): Promise<Uint8Array> {
+  /**
+   * The cleaned recording as EDF+/BDF+ bytes (transferred, not copied). Channels at other rates than the
+   * reviewed block are copied from the recording file; without the file they are left out and a warning says so.
+   */
+  async writeCleaned(req: CleanedExportRequest, onProgress?: (fraction: number) => void): Promise<{ bytes: Uint8Array; warnings: string[] }> {
     const rec = req.recording;
-    const cleaned = cleanedRecordingSamples(rec, req.decomposition, req.removed, (f) => onProgress?.(0.7 * f));
-    const blocks: SignalBlock[] = [{ ...rec.signals, data: cleaned }];
-    // Channels at other rates are not in the reviewed block: copy them from the file, unchanged.
-    const inBlock = new Set(rec.signals.labels);
-    const others = rec.channels.filter((c) => !inBlock.has(c.label));
-    const main = req.files?.find((f) => RECORDING_EXT.test(f.name) && f.name === rec.fileName) ?? req.files?.find((f) => RECORDING_EXT.test(f.name));
-    let info = rec as typeof rec;
-    if (others.length > 0) {
-      if (!main) {
-        info = { ...rec, channels: rec.channels.filter((c) => inBlock.has(c.label)) };
-      } else {
-        const source = blobByteSource(main, main.name);
-        const rates = [...new Set(others.map((c) => c.sampleRate))];
-        for (const rate of rates) {
-          const res = await readEdfSignals(source, rec, { channels: others.filter((c) => c.sampleRate === rate).map((c) => c.label) });
-          if (!res.ok) throw new Error(res.error.message);
-          blocks.push(res.value);
-        }
-      }
+    const main = req.files?.find((f) => f.name === rec.fileName) ?? req.files?.find((f) => isRecordingFileName(f.name));
+    let otherBlocks: SignalBlock[] = [];
+    if (main && rec.channels.length > rec.signals.labels.length) {
+      const res = await readOtherRateBlocks(blobByteSource(main, main.name), rec);
+      if (!res.ok) throw new Error(res.error.message);
+      otherBlocks = res.value;
     }
+    const { input, warnings } = cleanedRecordingInput(rec, {
+      decomposition: req.decomposition,
+      removed: req.removed,
+      otherBlocks,
+      family: req.format.startsWith('BDF') ? 'BDF' : 'EDF',
+      keepIdentity: req.keepIdentity,
+      onProgress: (f) => onProgress?.(0.7 * f),
+    });
     onProgress?.(0.8);
-    const cleanedLabels = new Set(req.removed.length > 0 ? req.decomposition.channels.map((l) => l.toLowerCase()) : []);
-    const input = cleanedEdfInput(info, blocks, cleanedLabels, req.format.startsWith('BDF') ? 'BDF' : 'EDF', req.keepIdentity);
-    const parts: Uint8Array[] = [];
-    let total = 0;
-    for (const part of writeEdfChunks(input)) {
-      parts.push(part);
-      total += part.length;
-    }
-    const out = new Uint8Array(total);
-    let o = 0;
-    for (const p of parts) {
-      out.set(p, o);
-      o += p.length;
-    }
+    const bytes = writeEdf(input);
     onProgress?.(1);
-    return transfer(out, [out.buffer]);
+    return transfer({ bytes, warnings }, [bytes.buffer]);
   },
 };
 

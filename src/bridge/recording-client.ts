@@ -29,7 +29,7 @@ export function readRecordingInWorker(files: readonly File[], signal: AbortSigna
   return withWorker<LoadResult>(signal, async (api) => (await api.load([...files], proxy(onProgress))) as LoadResult);
 }
 
-/** Writes the cleaned recording (EDF+/BDF+ bytes) in a worker. */
-export function writeCleanedInWorker(req: CleanedExportRequest, signal: AbortSignal, onProgress: (f: number) => void): Promise<Uint8Array> {
+/** Writes the cleaned recording (EDF+/BDF+ bytes) in a worker, with warnings about channels it could not copy. */
+export function writeCleanedInWorker(req: CleanedExportRequest, signal: AbortSignal, onProgress: (f: number) => void): Promise<{ bytes: Uint8Array; warnings: string[] }> {
   return withWorker(signal, (api) => api.writeCleaned(req, proxy(onProgress)));
 }

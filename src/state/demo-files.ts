@@ -3,6 +3,8 @@
  * recordings as asset URLs fetched from the page's own origin, text sidecars (TSV/JSON) as strings inside
  * the bundle — a data: URL would be refused by the Content-Security-Policy's connect-src 'self'.
  */
+import { isRecordingFileName } from '../core/formats/recording-file-name.ts';
+
 const binaryUrls = import.meta.glob('/demo-data/sub-01/**/*.{edf,bdf}', { query: '?url', import: 'default' }) as Record<string, () => Promise<string>>;
 const textFiles = import.meta.glob('/demo-data/sub-01/**/*.{tsv,json,csv}', { query: '?raw', import: 'default' }) as Record<string, () => Promise<string>>;
 
@@ -31,6 +33,6 @@ export async function demoFiles(signal: AbortSignal): Promise<File[]> {
     if (isGroundTruth(path)) continue;
     out.push(new File([await load()], baseName(path), { type: 'text/plain' }));
   }
-  if (!out.some((f) => /\.(edf|bdf)$/i.test(f.name))) throw new Error('no demo recording was bundled (run `winnow simulate` into demo-data/sub-01/eeg/)');
+  if (!out.some((f) => isRecordingFileName(f.name))) throw new Error('no demo recording was bundled (run `winnow simulate` into demo-data/sub-01/eeg/)');
   return out;
 }

@@ -2,6 +2,8 @@
  * Sorts the files a user dropped or picked into the recording (with its BIDS sidecars), a decomposition
  * and a decisions file, by name and extension alone (the parsers judge the content later).
  */
+import { isRecordingFileName } from '../core/formats/recording-file-name.ts';
+
 export interface SortedFiles<F extends { readonly name: string }> {
   readonly recordingFiles: F[];
   readonly decompositionFiles: F[];
@@ -10,7 +12,6 @@ export interface SortedFiles<F extends { readonly name: string }> {
   readonly ignored: F[];
 }
 
-const RECORDING = /\.(edf|bdf|rec)$/i;
 const SIDECAR = /_(channels|electrodes|events)\.tsv$|_(coordsystem|eeg|events|channels|electrodes)\.json$|^(channels|electrodes|events)\.tsv$|^coordsystem\.json$/i;
 const DECISIONS = /decisions?[^/]*\.(json|tsv)$/i;
 const DECOMPOSITION = /(decomposition|mixing|unmixing|weights|ica)[^/]*\.(json|tsv|csv|txt)$|\.csv$/i;
@@ -24,7 +25,7 @@ export function sortParticipantFiles<F extends { readonly name: string }>(files:
   let decisionsFile: F | null = null;
   for (const f of files) {
     const name = baseName(f.name);
-    if (RECORDING.test(name) || SIDECAR.test(name)) recordingFiles.push(f);
+    if (isRecordingFileName(name) || SIDECAR.test(name)) recordingFiles.push(f);
     else if (DECISIONS.test(name)) decisionsFile ??= f;
     else if (DECOMPOSITION.test(name)) decompositionFiles.push(f);
     else ignored.push(f);
@@ -33,7 +34,7 @@ export function sortParticipantFiles<F extends { readonly name: string }>(files:
 }
 
 /** True when at least one file is a recording (EDF/BDF). */
-export const hasRecording = (files: readonly { readonly name: string }[]) => files.some((f) => RECORDING.test(baseName(f.name)));
+export const hasRecording = (files: readonly { readonly name: string }[]) => files.some((f) => isRecordingFileName(baseName(f.name)));
 
 /** The decomposition file to read among several, and how: our JSON, or a matrix of the kind its name says. */
 export function sortDecompositionFiles<F extends { readonly name: string }>(

@@ -29,12 +29,15 @@ export interface WorkbenchServices {
   computeDecomposition(recording: LoadedRecording, recordingSha256: string, options: DecomposeOptions, signal: AbortSignal, onProgress: OnFraction): Promise<{ decomposition: Decomposition; sha256: string; json: string }>;
   /** Per-component evidence and suggestions (1-based index) for the aim. */
   computeEvidence(recording: LoadedRecording, decomposition: Decomposition, aim: Aim, signal: AbortSignal, onProgress: OnFraction): Promise<ComponentEvidence[]>;
-  /** The cleaned recording as EDF+/BDF+ bytes, computed off the main thread. */
+  /**
+   * The cleaned recording as EDF+/BDF+ bytes, computed off the main thread; `warnings` name channels that
+   * could not be copied (channels at other rates when the recording file is no longer at hand).
+   */
   writeCleaned(
     req: { recording: LoadedRecording; decomposition: Decomposition; removed: number[]; format: 'EDF+C' | 'BDF+C'; keepIdentity: boolean },
     signal: AbortSignal,
     onProgress: OnFraction,
-  ): Promise<Uint8Array>;
+  ): Promise<{ bytes: Uint8Array; warnings: readonly string[] }>;
   /** The demo participant's files (recording, sidecars, decomposition when shipped). */
   demoInput(signal: AbortSignal): Promise<ParticipantInput>;
   /** Autosave store (IndexedDB in the browser). Key = recording hash + decomposition hash. */

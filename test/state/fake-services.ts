@@ -40,7 +40,7 @@ export function fakeServices(saved = new Map<string, SavedReview>()): WorkbenchS
       return { decomposition, sha256: 'c'.repeat(64), json: '{}' };
     },
     computeEvidence: async () => evidence,
-    writeCleaned: async () => new Uint8Array(0),
+    writeCleaned: async () => ({ bytes: new Uint8Array(0), warnings: [] }),
     demoInput: async () => ({ recordingFiles: [], decompositionFiles: [] }),
     loadReview: async (key: string) => saved.get(key) ?? null,
     saveReview: async (key: string, review: SavedReview) => void saved.set(key, review),
