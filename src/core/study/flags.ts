@@ -5,7 +5,7 @@
  * consistent estimate of the standard deviation for normal data; Hampel 1974, J. Am. Stat. Assoc.
  * 69:383–393; Leys et al. 2013, J. Exp. Soc. Psychol. 49:764–766, who discuss cut-offs of 2.5 and 3; Winnow takes
  * the more conservative 3 [ours]).
- * docs/methods.md §18.
+ * docs/methods.md §19.
  */
 
 export function median(values: readonly number[]): number {
