@@ -2,17 +2,18 @@
  * Exports a panel's figure(s) as SVG or PNG, entirely in the page (blob downloads; nothing leaves the
  * machine). Every `<svg>` and `<canvas>` inside the panel is placed at its on-screen offset in one SVG
  * document: SVG plots are copied as nested `<svg>` elements (XMLSerializer), canvases become PNG `<image>`s
- * (data URLs, allowed by the CSP's img-src). The PNG is that SVG drawn onto a canvas at 2× and saved with
- * `toBlob`. Browser only.
+ * (data URLs, allowed by the CSP's img-src), and HTML `<table>`s (the evidence table) are drawn as SVG text
+ * rows (table-figure.ts). The PNG is that SVG drawn onto a canvas at 2× and saved with `toBlob`. Browser only.
  */
 import type { PanelFormat } from './export-names.ts';
 import { saveBlob } from '../layout/download.ts';
+import { tableFigure, type TableFigureRow } from './table-figure.ts';
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
 
 /** Builds one standalone SVG document string from the figures inside `panel`. */
 export function panelToSvg(panel: HTMLElement, title?: string): { svg: string; width: number; height: number } {
-  const figures = Array.from(panel.querySelectorAll<SVGSVGElement | HTMLCanvasElement>('svg, canvas')).filter(
+  const figures = Array.from(panel.querySelectorAll<SVGSVGElement | HTMLCanvasElement | HTMLTableElement>('svg, canvas, table')).filter(
     // nested svgs are copied with their parent
     (el) => !(el instanceof SVGSVGElement && el.parentElement?.closest('svg')),
   );
@@ -41,7 +42,15 @@ export function panelToSvg(panel: HTMLElement, title?: string): { svg: string; w
     const y = Math.round(r.top - origin.top) + titleH;
     width = Math.max(width, x + r.width);
     height = Math.max(height, y + r.height);
-    if (el instanceof HTMLCanvasElement) {
+    if (el instanceof HTMLTableElement) {
+      const fig = tableFigure(readTable(el));
+      const copy = doc.importNode(new DOMParser().parseFromString(fig.svg, 'image/svg+xml').documentElement, true);
+      copy.setAttribute('x', String(x));
+      copy.setAttribute('y', String(y));
+      width = Math.max(width, x + fig.width);
+      height = Math.max(height, y + fig.height);
+      root.appendChild(copy);
+    } else if (el instanceof HTMLCanvasElement) {
       const img = doc.createElementNS(SVG_NS, 'image');
       img.setAttribute('x', String(x));
       img.setAttribute('y', String(y));
@@ -66,6 +75,15 @@ export function panelToSvg(panel: HTMLElement, title?: string): { svg: string; w
   bg.setAttribute('width', String(width));
   bg.setAttribute('height', String(height));
   return { svg: new XMLSerializer().serializeToString(doc), width, height };
+}
+
+/** The text of a table's header cells and body rows as shown (a row with class "flagged" is flagged). */
+function readTable(table: HTMLTableElement): { header: string[]; rows: TableFigureRow[] } {
+  const text = (cell: Element) => (cell.textContent ?? '').replace(/\s+/g, ' ').trim();
+  const headRow = table.tHead?.rows[0] ?? table.rows[0];
+  const header = headRow ? Array.from(headRow.cells, text) : [];
+  const bodyRows = Array.from(table.tBodies).flatMap((b) => Array.from(b.rows));
+  return { header, rows: bodyRows.map((r) => ({ cells: Array.from(r.cells, text), flagged: r.classList.contains('flagged') })) };
 }
 
 /** Rasterises an SVG document string to a PNG blob at `scale` × its size. */
