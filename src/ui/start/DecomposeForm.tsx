@@ -3,6 +3,17 @@ import { useState } from 'react';
 import { useWorkbench } from '../../state/index.ts';
 import { DEFAULT_DECOMPOSE } from '../../state/session-slice.ts';
 import type { DecomposeOptions } from '../../state/types.ts';
+import { formatEstimate } from '../../core/ica/time-estimate.ts';
+import { TIMING_SECONDS, useMethodTimes, type MethodTimes } from './useMethodTimes.ts';
+
+const METHOD_NAMES = { picard: 'Picard', infomax: 'extended Infomax' } as const;
+
+/** "Picard — about 40 s here", "… — timing…" while the short run goes, or the bare name when it failed. */
+export function methodLabel(method: keyof typeof METHOD_NAMES, times: MethodTimes, timing: boolean): string {
+  const t = times[method];
+  if (t === 'failed' || (!t && !timing)) return METHOD_NAMES[method];
+  return `${METHOD_NAMES[method]} — ${t ? `${formatEstimate(t)} here` : 'timing…'}`;
+}
 
 export function DecomposeForm() {
   const decomposeCurrent = useWorkbench((s) => s.decomposeCurrent);
@@ -11,6 +22,9 @@ export function DecomposeForm() {
   const [method, setMethod] = useState<DecomposeOptions['method']>(DEFAULT_DECOMPOSE.method);
   const [seed, setSeed] = useState<number>(DEFAULT_DECOMPOSE.seed);
   const [highpassHz, setHighpass] = useState<number>(DEFAULT_DECOMPOSE.highpassHz);
+  const recording = useWorkbench((s) => s.recording);
+  const times = useMethodTimes(recording, DEFAULT_DECOMPOSE.seed, DEFAULT_DECOMPOSE.highpassHz);
+  const timing = recording !== null && typeof Worker !== 'undefined';
   return (
     <section className="decompose-form" aria-label="Decomposition" data-testid="decompose-form">
       <h2>No decomposition yet</h2>
@@ -23,10 +37,13 @@ export function DecomposeForm() {
         <label>
           Method{' '}
           <select value={method} onChange={(e) => setMethod(e.target.value as DecomposeOptions['method'])} data-testid="decompose-method">
-            <option value="picard">Picard (faster)</option>
-            <option value="infomax">extended Infomax (slower)</option>
+            <option value="picard">{methodLabel('picard', times, timing)}</option>
+            <option value="infomax">{methodLabel('infomax', times, timing)}</option>
           </select>
         </label>
+        <p className="note" data-testid="decompose-times-note">
+          Times: a short run of each method on the first {TIMING_SECONDS} s of this recording, scaled to its length.
+        </p>
         <label>
           Seed <input type="number" value={seed} step={1} onChange={(e) => setSeed(e.target.valueAsNumber)} data-testid="decompose-seed" />
         </label>
