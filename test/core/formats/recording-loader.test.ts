@@ -52,7 +52,7 @@ describe('loadRecording', () => {
       [1.5, 'stimulus', 'events-tsv', 0.3],
       [2, 'response', 'events-tsv', undefined],
     ]);
-    // fewer than 16 electrodes: directions about the origin; Cz straight up, Fp1 normalised
+    // fewer than 4 electrodes fix no sphere (sphere-fit.ts): directions about the origin; Cz straight up, Fp1 normalised
     const pos = Array.from(rec.positions!);
     expect(pos.slice(3, 6)).toEqual([0, 0, 1]);
     expect(Math.hypot(pos[0], pos[1], pos[2])).toBeCloseTo(1, 12);
