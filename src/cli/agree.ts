@@ -14,15 +14,20 @@
  *   disagreements       indices whose verdicts differ, ascending
  *   reasons             the same four fields (and note) over the reasons of the components both reviewers
  *                       removed; a removal without a reason counts as its own category "none"
+ *
+ * `winnow agree <study-A/> <study-B/>`: every *_decisions.json under each folder, matched by recording and
+ * decomposition hashes (never by name): { recordings: [{ recording, other, …the fields above }],
+ * pooled: { recordings, components, observedAgreement, expectedAgreement, kappa, reasons },
+ * unmatched: { a, b } } — pooled κ over all matched components of all recordings.
  */
-import { readFile } from 'node:fs/promises';
-import { basename } from 'node:path';
+import { readdir, readFile, stat } from 'node:fs/promises';
+import { basename, join, relative, sep } from 'node:path';
 import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { parseDecisionsJson, type DecisionsFile } from '../core/review/decisions-file.ts';
 import { agreementByKey, type KeyedAgreement } from '../core/review/kappa.ts';
 import { REASON_CODES, VERDICTS } from '../core/review/vocabulary.ts';
 
-const USAGE = 'usage: winnow agree <decisions-A.json> <decisions-B.json>';
+const USAGE = 'usage: winnow agree <decisions-A.json> <decisions-B.json> | winnow agree <study-A/> <study-B/>';
 
 /** Help text for `winnow agree --help` (first line: the usage). */
 export const usage = `${USAGE}
@@ -31,6 +36,8 @@ Compares two reviewers' decisions files for the same recording and decomposition
 Cohen's kappa over the verdicts (keep, remove, undecided), the indices where the verdicts differ, and
 kappa over the reasons of the components both reviewers removed. Components are matched by index.
 Files for different recordings or decompositions are refused (exit 2).
+Two folders (study exports holding *_decisions.json) give one row per recording, matched by the
+recording and decomposition hashes, plus the pooled agreement over every matched component.
 
 options:
   -h, --help                show this help
@@ -68,11 +75,13 @@ function agreementJson(a: KeyedAgreement, what: string): Record<string, unknown>
   return out;
 }
 
-export async function run(args: string[], io: CliIo): Promise<number> {
-  const { positionals } = parseCommandArgs('agree', args, {});
-  if (positionals.length !== 2) throw new CliError(`winnow agree: give exactly two decisions files (${USAGE})`, 2);
-  const [pathA, pathB] = positionals;
-  const [a, b] = [await load(pathA), await load(pathB)];
+interface Compared {
+  readonly verdictPairs: { key: number; a: string; b: string }[];
+  readonly reasonPairs: { key: number; a: string; b: string }[];
+}
+
+/** Pairs of verdicts (every index in either file) and of reasons (indices both removed), matched by index. */
+function compare(a: DecisionsFile, b: DecisionsFile, pathA: string, pathB: string, io: CliIo): Compared {
   for (const [key, what] of [['recordingSha256', 'recording'], ['decompositionSha256', 'decomposition']] as const) {
     if (a[key] !== b[key])
       throw new CliError(
@@ -80,7 +89,6 @@ export async function run(args: string[], io: CliIo): Promise<number> {
         2,
       );
   }
-
   const byIndex = (f: DecisionsFile) => new Map(f.components.map((c) => [c.index, c]));
   const mapA = byIndex(a);
   const mapB = byIndex(b);
@@ -90,22 +98,89 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     if (missing.length > 0) io.stderr(`warning: ${path}: no entry for component${missing.length === 1 ? '' : 's'} ${missing.join(', ')}; counted as undecided\n`);
   }
   const verdictOf = (map: typeof mapA, i: number) => map.get(i)?.verdict ?? 'undecided';
-
-  const verdicts = agreementByKey(
-    indices.map((i) => ({ key: i, a: verdictOf(mapA, i), b: verdictOf(mapB, i) })),
-    VERDICTS,
-  );
   const bothRemoved = indices.filter((i) => verdictOf(mapA, i) === 'remove' && verdictOf(mapB, i) === 'remove');
-  const reasons = agreementByKey(
-    bothRemoved.map((i) => ({ key: i, a: mapA.get(i)?.reason ?? 'none', b: mapB.get(i)?.reason ?? 'none' })),
-    [...REASON_CODES, 'none'],
-  );
+  return {
+    verdictPairs: indices.map((i) => ({ key: i, a: verdictOf(mapA, i), b: verdictOf(mapB, i) })),
+    reasonPairs: bothRemoved.map((i) => ({ key: i, a: mapA.get(i)?.reason ?? 'none', b: mapB.get(i)?.reason ?? 'none' })),
+  };
+}
 
-  const out = {
+function agreementOf(c: Compared): Record<string, unknown> {
+  const verdicts = agreementByKey(c.verdictPairs, VERDICTS);
+  const reasons = agreementByKey(c.reasonPairs, [...REASON_CODES, 'none']);
+  return {
     ...agreementJson(verdicts, 'verdicts'),
     disagreements: verdicts.disagreements,
     reasons: agreementJson(reasons, 'reasons among the components both removed'),
   };
+}
+
+/** Every decisions file (*_decisions.json) under a folder, relative "/"-separated paths, sorted. */
+async function decisionsFilesUnder(root: string): Promise<string[]> {
+  const out: string[] = [];
+  async function walk(dir: string): Promise<void> {
+    for (const e of await readdir(dir, { withFileTypes: true })) {
+      if (e.name.startsWith('.')) continue;
+      const p = join(dir, e.name);
+      if (e.isDirectory()) await walk(p);
+      else if (e.name.endsWith('_decisions.json')) out.push(relative(root, p).split(sep).join('/'));
+    }
+  }
+  await walk(root);
+  return out.sort();
+}
+
+const isFolder = (p: string) => stat(p).then((s) => s.isDirectory(), () => false);
+
+/**
+ * Two study exports (folders of *_decisions.json, e.g. derivatives/winnow/): recordings are matched by
+ * their recording and decomposition hashes, never by file name; one row per recording plus the pooled
+ * agreement over every component of every matched recording.
+ */
+async function compareStudies(dirA: string, dirB: string, io: CliIo): Promise<Record<string, unknown>> {
+  const loadAll = async (dir: string) => {
+    const files = await decisionsFilesUnder(dir);
+    if (files.length === 0) throw new CliError(`${dir}: no *_decisions.json files in the folder`, 2);
+    const out: { path: string; file: DecisionsFile }[] = [];
+    for (const f of files) out.push({ path: f, file: await load(join(dir, ...f.split('/'))) });
+    return out;
+  };
+  const [a, b] = [await loadAll(dirA), await loadAll(dirB)];
+  const keyOf = (f: DecisionsFile) => `${f.recordingSha256}:${f.decompositionSha256}`;
+  const bByKey = new Map(b.map((x) => [keyOf(x.file), x]));
+  const rows: Record<string, unknown>[] = [];
+  const pooled: Compared = { verdictPairs: [], reasonPairs: [] };
+  const matched = new Set<string>();
+  let offset = 0;
+  for (const x of a) {
+    const y = bByKey.get(keyOf(x.file));
+    if (!y) continue;
+    matched.add(keyOf(x.file));
+    const c = compare(x.file, y.file, join(dirA, x.path), join(dirB, y.path), io);
+    rows.push({ recording: x.path, other: y.path, ...agreementOf(c) });
+    // pooled keys: components of different recordings never collide
+    for (const p of c.verdictPairs) pooled.verdictPairs.push({ ...p, key: offset + p.key });
+    for (const p of c.reasonPairs) pooled.reasonPairs.push({ ...p, key: offset + p.key });
+    offset += 1_000_000;
+  }
+  const onlyA = a.filter((x) => !matched.has(keyOf(x.file))).map((x) => x.path);
+  const onlyB = b.filter((x) => !matched.has(keyOf(x.file))).map((x) => x.path);
+  for (const [list, dir] of [[onlyA, dirA], [onlyB, dirB]] as const)
+    if (list.length > 0) io.stderr(`warning: ${dir}: ${list.length} decisions file${list.length > 1 ? 's' : ''} with no counterpart for the same recording: ${list.join(', ')}\n`);
+  if (rows.length === 0) throw new CliError(`winnow agree: ${dirA} and ${dirB} share no recording (matched by recording and decomposition hashes)`, 2);
+  const pooledJson = agreementOf(pooled);
+  // pooled disagreements are reported per recording; the pooled row keeps only the counts
+  delete pooledJson.disagreements;
+  return { recordings: rows, pooled: { recordings: rows.length, ...pooledJson }, unmatched: { a: onlyA, b: onlyB } };
+}
+
+export async function run(args: string[], io: CliIo): Promise<number> {
+  const { positionals } = parseCommandArgs('agree', args, {});
+  if (positionals.length !== 2) throw new CliError(`winnow agree: give exactly two decisions files or two study folders (${USAGE})`, 2);
+  const [pathA, pathB] = positionals;
+  const [dirA, dirB] = [await isFolder(pathA), await isFolder(pathB)];
+  if (dirA !== dirB) throw new CliError(`winnow agree: give two decisions files or two folders, not one of each (${dirA ? pathA : pathB} is a folder)`, 2);
+  const out = dirA ? await compareStudies(pathA, pathB, io) : agreementOf(compare(await load(pathA), await load(pathB), pathA, pathB, io));
   io.stdout(`${JSON.stringify(out, null, 2)}\n`);
   return 0;
 }

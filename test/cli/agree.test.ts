@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mkdtemp, rm, writeFile } from 'node:fs/promises';
+import { mkdir, mkdtemp, rm, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { main } from '../../src/cli/winnow.ts';
@@ -211,5 +211,57 @@ describe('winnow agree', () => {
     const io = memoryIo();
     expect(await main(['agree', 'one.json'], io)).toBe(2);
     expect(io.err).toMatch(/^error: winnow agree: give exactly two decisions files/);
+  });
+
+  it('two study folders: one row per recording matched by hashes, and the pooled κ over all of them equals the Cohen example (N = 200, κ = .492)', async () => {
+    const t = fixture.cohen1968_table1;
+    const cats: Verdict[] = ['keep', 'remove', 'undecided'];
+    // the 200 rated components split over two recordings (odd and even positions), so only the pooled table is Cohen's
+    const rec: { a: Entry[]; b: Entry[] }[] = [{ a: [], b: [] }, { a: [], b: [] }];
+    let n = 0;
+    for (let i = 0; i < 3; i++)
+      for (let j = 0; j < 3; j++)
+        for (let k = 0; k < Math.round(t.proportions[i][j] * t.N); k++, n++) {
+          const r = rec[n % 2];
+          const index = r.a.length + 1;
+          r.a.push({ index, verdict: cats[i], reason: cats[i] === 'remove' ? 'blink' : null });
+          r.b.push({ index, verdict: cats[j], reason: cats[j] === 'remove' ? 'blink' : null });
+        }
+    const hash = (c: string) => c.repeat(64);
+    const folders = ['study-a', 'study-b'].map((f) => join(dir, f));
+    for (const [r, data] of rec.entries()) {
+      for (const [k, folder] of folders.entries()) {
+        // reviewer B's export names its files differently: matching is by hashes, never by name
+        const sub = join(folder, `sub-0${r + 1}`, 'eeg');
+        await mkdir(sub, { recursive: true });
+        const name = k === 0 ? `sub-0${r + 1}_task-x_desc-winnow_decisions.json` : `sub-0${r + 1}_task-x_desc-second_decisions.json`;
+        await writeFile(join(sub, name), decisions(k === 0 ? data.a : shuffled(data.b, 99 + r), { recordingSha256: hash(String(r + 1)), decompositionSha256: hash('d') }));
+      }
+    }
+    // a recording only reviewer A has: reported, not compared
+    await mkdir(join(folders[0], 'sub-09', 'eeg'), { recursive: true });
+    await writeFile(join(folders[0], 'sub-09', 'eeg', 'sub-09_task-x_desc-winnow_decisions.json'), decisions([{ index: 1, verdict: 'keep' }], { recordingSha256: hash('9') }));
+    const { code, io, json } = await agree(folders[0], folders[1]);
+    expect(code, io.err).toBe(0);
+    expect(json.recordings).toHaveLength(2);
+    expect(json.recordings.map((r: { components: number }) => r.components)).toEqual([100, 100]);
+    expect(json.pooled.recordings).toBe(2);
+    expect(json.pooled.components).toBe(200);
+    expect(json.pooled.observedAgreement).toBeCloseTo(t.computed.p_o, 12);
+    expect(json.pooled.expectedAgreement).toBeCloseTo(t.computed.p_e, 12);
+    expect(json.pooled.kappa.toFixed(3)).toBe(t.published_kappa.toFixed(3));
+    expect(json.unmatched.a).toEqual(['sub-09/eeg/sub-09_task-x_desc-winnow_decisions.json']);
+    expect(io.err).toMatch(/^warning: .*study-a: 1 decisions file with no counterpart/m);
+  });
+
+  it('a file and a folder, or folders without decisions files, exit 2 naming them', async () => {
+    const empty = join(dir, 'empty-study');
+    await mkdir(empty, { recursive: true });
+    const one = await agree(empty, join(dir, 'cohen-a.json'));
+    expect(one.code).toBe(2);
+    expect(one.io.err).toMatch(/^error: .*not one of each/);
+    const none = await agree(empty, empty);
+    expect(none.code).toBe(2);
+    expect(none.io.err).toMatch(/^error: .*empty-study: no \*_decisions\.json files/);
   });
 });
