@@ -50,3 +50,116 @@ export function mixingColumn(mixing: Float64Array, n: number, k: number, i: numb
   for (let c = 0; c < n; c++) out[c] = mixing[c * k + i];
   return out;
 }
+
+// ---------------------------------------------------------------------------------------------------------
+// The reviewer's four questions: which evidence rows and fired rules answer each.
+
+/** The questions the focus view is organised around, in reading order. */
+export type QuestionId = 'where' | 'when' | 'locked' | 'frequencies';
+
+export interface Question {
+  readonly id: QuestionId;
+  /** The question as the reviewer asks it. */
+  readonly title: string;
+  /** Short name for narrow places. */
+  readonly short: string;
+  /** evidence-rows.ts row keys that answer it. */
+  readonly rowKeys: readonly string[];
+  /** Prefixes of FiredRule.measure (suggest.ts) that belong to it. */
+  readonly measures: readonly string[];
+}
+
+export const QUESTIONS: readonly Question[] = [
+  {
+    id: 'where', title: 'Where does it come from?', short: 'where',
+    rowKeys: ['variance', 'strongest', 'frontal', 'frontalShare', 'antisym', 'focality', 'rv', 'region'],
+    measures: ['varianceShare', 'focality', 'frontalGradient', 'frontalShare', 'lateralAntisymmetry', 'dipole'],
+  },
+  {
+    id: 'when', title: 'When does it happen?', short: 'when',
+    rowKeys: ['kurtosis', 'steps', 'eogV', 'eogH', 'cardiac'],
+    measures: ['kurtosis', 'stepLikeness', 'eogCorrelation', 'cardiac'],
+  },
+  {
+    id: 'locked', title: 'Is it locked to the task?', short: 'locked',
+    rowKeys: ['locking', 'itc', 'movement'],
+    measures: ['erp', 'stepLocking', 'timeLocking'],
+  },
+  {
+    id: 'frequencies', title: 'Which frequencies?', short: 'frequencies',
+    rowKeys: ['exponent', 'alpha', 'alphaProminence', 'hf', 'hfSlope', 'line', 'linePeak', 'lf'],
+    measures: ['oneOverF', 'alphaProminence', 'highFrequencyShare', 'highFrequencySlope', 'lowFrequencyShare', 'mainsShare', 'linePeakRatio'],
+  },
+];
+
+const measureMatches = (measure: string, prefix: string) => measure === prefix || measure.startsWith(`${prefix}.`);
+
+/** The question a fired rule's measure belongs to, or null when none claims it. */
+export function questionOfMeasure(measure: string): QuestionId | null {
+  return QUESTIONS.find((q) => q.measures.some((p) => measureMatches(measure, p)))?.id ?? null;
+}
+
+/** The question an evidence row belongs to, or null when none claims it. */
+export function questionOfRow(key: string): QuestionId | null {
+  return QUESTIONS.find((q) => q.rowKeys.includes(key))?.id ?? null;
+}
+
+/** Items split by question (in QUESTIONS order), with the ones no question claims under `other`. */
+export function byQuestion<T>(items: readonly T[], questionOf: (item: T) => QuestionId | null): { readonly [K in QuestionId | 'other']: T[] } {
+  const out: { [K in QuestionId | 'other']: T[] } = { where: [], when: [], locked: [], frequencies: [], other: [] };
+  for (const it of items) out[questionOf(it) ?? 'other'].push(it);
+  return out;
+}
+
+/** The next question in `step` direction, wrapping around (arrow keys in the question list). */
+export function stepQuestion(current: QuestionId, step: number): QuestionId {
+  const i = QUESTIONS.findIndex((q) => q.id === current);
+  const n = QUESTIONS.length;
+  return QUESTIONS[(((i + step) % n) + n) % n].id;
+}
+
+/** A fired rule in words: "0.91 ≥ 0.6 (common practice)"; shares written as percentages. */
+export function firedRuleText(rule: { value: number; threshold: number; direction: string; source: string }, percent: boolean): string {
+  const f = (v: number) => (percent ? `${trimZero((v * 100).toFixed(0))} %` : trimZero(v.toPrecision(3)));
+  return `${f(rule.value)} ${rule.direction} ${f(rule.threshold)} (${rule.source})`;
+}
+
+/** Drops a trailing ".0…" and never writes a negative zero. */
+export function trimZero(s: string): string {
+  const t = s.includes('.') && !s.includes('e') ? s.replace(/0+$/, '').replace(/\.$/, '') : s;
+  return /^-0(\.0*)?$/.test(t) ? t.slice(1) : t;
+}
+
+/** Measures that are shares (0…1) and read best as percentages. */
+export const SHARE_MEASURES = /share|Share|focality|residualVariance|timeLockingStrength|lockedShare/;
+
+// ---------------------------------------------------------------------------------------------------------
+// Event-locked views computed on demand for any event selection (the evidence holds one epoched type).
+
+/**
+ * The back-projected activation of one component at channel c over the whole recording, µV: A[c,i] ·
+ * Σ_d W[i,d] (x_d(t) − m_d), read straight from the channel-major samples (`rows[d]` = data row of
+ * decomposition channel d, −1 when missing: that channel contributes nothing). The same convention as
+ * backProjectedActivation and the evidence's trial stack.
+ */
+export function componentTrace(
+  data: Float32Array,
+  nSamples: number,
+  rows: ArrayLike<number>,
+  unmixingRow: ArrayLike<number>,
+  channelMeans: ArrayLike<number> | null,
+  weight: number,
+): Float64Array {
+  const out = new Float64Array(nSamples);
+  let offset = 0;
+  for (let d = 0; d < rows.length; d++) {
+    const r = rows[d];
+    const w = unmixingRow[d];
+    if (r < 0 || w === 0) continue;
+    offset += w * (channelMeans ? channelMeans[d] : 0);
+    const base = r * nSamples;
+    for (let t = 0; t < nSamples; t++) out[t] += w * data[base + t];
+  }
+  for (let t = 0; t < nSamples; t++) out[t] = (out[t] - offset) * weight;
+  return out;
+}

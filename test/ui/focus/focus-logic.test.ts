@@ -40,3 +40,48 @@ describe('mixingColumn', () => {
     expect(Array.from(mixingColumn(A, 3, 2, 1))).toEqual([0.5, 0, 1]);
   });
 });
+
+describe('the four questions', () => {
+  it('gives every evidence row and every rule measure of the suggestion rules one question', async () => {
+    const { questionOfRow, questionOfMeasure, QUESTIONS } = await import('../../../src/ui/focus/focus-logic.ts');
+    expect(QUESTIONS.map((q) => q.title)).toEqual(['Where does it come from?', 'When does it happen?', 'Is it locked to the task?', 'Which frequencies?']);
+    // Measures the rules compare (src/core/review/suggest.ts check(…) calls).
+    const measures = ['alphaProminence', 'cardiac.peak', 'dipole.distanceFromCentreMm', 'dipole.residualVariance', 'eogCorrelation.horizontal',
+      'eogCorrelation.vertical', 'erp.timeLockingStrength', 'focality.share', 'frontalGradient', 'highFrequencyShare', 'highFrequencySlope',
+      'kurtosis', 'lateralAntisymmetry', 'lowFrequencyShare', 'mainsShare', 'oneOverF.exponent', 'stepLikeness', 'stepLocking.share', 'varianceShare'];
+    for (const m of measures) expect(questionOfMeasure(m), m).not.toBeNull();
+    expect(questionOfMeasure('dipole.residualVariance')).toBe('where');
+    expect(questionOfMeasure('eogCorrelation.vertical')).toBe('when');
+    expect(questionOfMeasure('stepLocking.share')).toBe('locked');
+    expect(questionOfMeasure('oneOverF.exponent')).toBe('frequencies');
+    expect(questionOfMeasure('alphaProminenceX')).toBeNull(); // a prefix only matches whole path parts
+    expect(questionOfRow('rv')).toBe('where');
+    expect(questionOfRow('hf')).toBe('frequencies');
+  });
+  it('splits items by question and steps through the questions with wrap-around', async () => {
+    const { byQuestion, stepQuestion } = await import('../../../src/ui/focus/focus-logic.ts');
+    const g = byQuestion(['rv', 'hf', 'zzz'], (k) => (k === 'rv' ? 'where' : k === 'hf' ? 'frequencies' : null));
+    expect(g).toEqual({ where: ['rv'], when: [], locked: [], frequencies: ['hf'], other: ['zzz'] });
+    expect(stepQuestion('where', 1)).toBe('when');
+    expect(stepQuestion('where', -1)).toBe('frequencies');
+    expect(stepQuestion('frequencies', 1)).toBe('where');
+  });
+  it('writes a fired rule with its source and never a negative zero', async () => {
+    const { firedRuleText, trimZero } = await import('../../../src/ui/focus/focus-logic.ts');
+    expect(firedRuleText({ value: 0.912, threshold: 0.6, direction: '≥', source: 'common practice' }, true)).toBe('91 % ≥ 60 % (common practice)');
+    expect(firedRuleText({ value: 12.3456, threshold: 5, direction: '≥', source: 'ours' }, false)).toBe('12.3 ≥ 5 (ours)');
+    expect(trimZero('-0.0')).toBe('0');
+    expect(trimZero('2.50')).toBe('2.5');
+  });
+});
+
+describe('componentTrace', () => {
+  it('is A[c,i] · W[i,:] (x − m) over the whole recording, skipping missing channels (worked by hand)', async () => {
+    const { componentTrace } = await import('../../../src/ui/focus/focus-logic.ts');
+    // data rows: ch0 = [1, 2], ch1 = [10, 20]; decomposition channel 0 ↔ row 1, channel 1 ↔ row 0, channel 2 missing
+    const data = Float32Array.from([1, 2, 10, 20]);
+    const t = componentTrace(data, 2, [1, 0, -1], [1, 2, 5], [1, 0, 0], 0.5);
+    // ((10 − 1)·1 + 1·2) · 0.5 = 5.5 ; ((20 − 1) + 2·2) · 0.5 = 11.5
+    expect(Array.from(t)).toEqual([5.5, 11.5]);
+  });
+});
