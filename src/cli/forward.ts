@@ -10,7 +10,7 @@
  */
 import { readFile } from 'node:fs/promises';
 import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
-import { parseElectrodesTsv } from '../core/formats/bids.ts';
+import { readCliElectrodes } from './recording-files.ts';
 import { createHeadModel, dipolePotentials, type HeadModel, type HeadModelKind } from '../core/headmodel/forward.ts';
 import { fitSphere } from '../core/headmodel/sphere-fit.ts';
 
@@ -32,21 +32,10 @@ export interface LoadedElectrodes {
   positionsMm: Float64Array;
 }
 
-/** Reads and checks a BIDS electrodes.tsv: at least 8 rows, finite coordinates, unique names. */
+/** Reads (as the recording loader reads a paired one) and checks a BIDS electrodes.tsv: at least 8 rows, finite coordinates, unique names. */
 export async function loadElectrodes(path: string, io: CliIo): Promise<LoadedElectrodes> {
-  const text = await readTextFile(path);
-  let coordsystem: string | undefined;
-  if (path.endsWith('_electrodes.tsv')) {
-    try {
-      coordsystem = await readFile(path.replace(/_electrodes\.tsv$/, '_coordsystem.json'), 'utf8');
-    } catch {
-      coordsystem = undefined;
-    }
-  }
-  const res = parseElectrodesTsv(text, path, coordsystem);
-  if (!res.ok) throw new CliError(res.error.message, 2);
-  for (const w of res.warnings) if (!/assumed to be in mm/.test(w)) io.stderr(`warning: ${w}\n`);
-  const { names, positionsMm } = res.value;
+  // mm is the documented default of these commands (usage), so "assumed to be in mm" is not repeated.
+  const { names, positionsMm } = await readCliElectrodes(path, io, (w) => /assumed to be in mm/.test(w));
   const seen = new Set<string>();
   for (const [i, name] of names.entries()) {
     if (name === '') throw new CliError(`${path}: line ${i + 2} has an empty name`, 2);

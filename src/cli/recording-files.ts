@@ -11,7 +11,7 @@ import { CliError, type CliIo } from './cli-support.ts';
 import { openFileByteSource } from './node-byte-source.ts';
 import { bytesByteSource, type ByteSource } from '../core/formats/byte-source.ts';
 import type { ParseResult } from '../core/formats/parse-result.ts';
-import { openRecording, readRecordingSignals, type OpenedRecording, type ReadSignalsOptions, type RecordingSidecars } from '../core/formats/recording-loader.ts';
+import { openRecording, readElectrodes, readRecordingSignals, type OpenedRecording, type ReadSignalsOptions, type RecordingSidecars } from '../core/formats/recording-loader.ts';
 import type { LoadedRecording } from '../core/recording.ts';
 
 /** Opens a recording for a command, turning a missing/unreadable file into an exit-2 error naming it. */
@@ -67,6 +67,27 @@ export function orFail<T>(res: ParseResult<T>): T {
   return res.value;
 }
 
+/** An electrodes.tsv named on the command line, with its sibling `*_coordsystem.json` when there is one. */
+async function electrodeSidecars(path: string): Promise<{ electrodes: ByteSource; coordsystem?: ByteSource }> {
+  const electrodes = await readSidecar(path);
+  const coordsystem = path.endsWith('_electrodes.tsv')
+    ? await readSidecar(path.replace(/_electrodes\.tsv$/, '_coordsystem.json')).catch(() => undefined)
+    : undefined;
+  return coordsystem ? { electrodes, coordsystem } : { electrodes };
+}
+
+/**
+ * Electrode positions (mm) of an electrodes.tsv named on the command line, read as the recording loader reads
+ * a paired one (readElectrodes, with the sibling coordsystem.json); warnings go to stderr unless `quiet` says so.
+ */
+export async function readCliElectrodes(path: string, io: CliIo, quiet: (warning: string) => boolean = () => false): Promise<{ names: string[]; positionsMm: Float64Array }> {
+  const { electrodes, coordsystem } = await electrodeSidecars(path);
+  const res = await readElectrodes(electrodes, coordsystem);
+  const value = orFail(res);
+  if (res.ok) for (const w of res.warnings) if (!quiet(w)) io.stderr(`warning: ${w}\n`);
+  return value;
+}
+
 /**
  * Opens the recording at `path` through the loader: header, annotations and sidecars, no samples yet. A
  * sibling `*_coordsystem.json` of an explicit `*_electrodes.tsv` is read too (its unit). Close when done.
@@ -75,11 +96,7 @@ export async function openCliRecording(path: string, paths: SidecarPaths = {}): 
   const sidecars: RecordingSidecars = {};
   if (paths.channels !== undefined) sidecars.channels = await readSidecar(paths.channels);
   if (paths.events !== undefined) sidecars.events = await readSidecar(paths.events);
-  if (paths.electrodes !== undefined) {
-    sidecars.electrodes = await readSidecar(paths.electrodes);
-    if (paths.electrodes.endsWith('_electrodes.tsv'))
-      sidecars.coordsystem = await readSidecar(paths.electrodes.replace(/_electrodes\.tsv$/, '_coordsystem.json')).catch(() => undefined);
-  }
+  if (paths.electrodes !== undefined) Object.assign(sidecars, await electrodeSidecars(paths.electrodes));
   const source = await openRecordingSource(path);
   try {
     const files = [source, ...(await eegSidecarsBeside(path))];

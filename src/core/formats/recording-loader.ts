@@ -142,6 +142,17 @@ async function readText(source: ByteSource): Promise<string> {
 }
 
 
+/** Electrode positions of an electrodes.tsv (mm; the unit from its coordsystem.json when given), named by base name. */
+export async function readElectrodes(
+  electrodes: ByteSource,
+  coordsystem?: ByteSource,
+): Promise<ParseResult<{ file: string; names: string[]; positionsMm: Float64Array }>> {
+  const name = byteSourceBaseName(electrodes.name);
+  const parsed = parseElectrodesTsv(await readText(electrodes), name, coordsystem ? await readText(coordsystem) : undefined);
+  if (!parsed.ok) return parsed;
+  return parseOk({ file: name, names: parsed.value.names, positionsMm: parsed.value.positionsMm }, parsed.warnings);
+}
+
 /**
  * When several recordings are given, the one a set of files is about: the BIDS data file (suffix `eeg`), or
  * `recording.edf`/`.bdf` as the simulator names its sensor data (next to e.g. `neural.edf`).
@@ -255,12 +266,11 @@ export async function openRecording(files: ByteSource[], opts: LoadRecordingOpti
   let electrodes: OpenedRecording['electrodes'] = null;
   const elSide = given.electrodes ?? pickSidecar(files, ent, 'electrodes', '.tsv');
   if (elSide) {
-    const name = byteSourceBaseName(elSide.name);
     const cs = given.coordsystem ?? pickSidecar(files, { ...ent, ...bidsNameParts(elSide.name).entities }, 'coordsystem', '.json');
-    const parsed = parseElectrodesTsv(await readText(elSide), name, cs ? await readText(cs) : undefined);
+    const parsed = await readElectrodes(elSide, cs);
     if (!parsed.ok) return parsed;
     warnings.push(...parsed.warnings);
-    electrodes = { file: name, names: parsed.value.names, positionsMm: parsed.value.positionsMm };
+    electrodes = parsed.value;
   }
 
   // mains frequency from *_eeg.json
