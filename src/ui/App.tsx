@@ -12,6 +12,8 @@ import { TopBar } from './layout/TopBar.tsx';
 import { ProgressOverlay } from './layout/ProgressOverlay.tsx';
 import { NoticeBar } from './layout/NoticeBar.tsx';
 import { ResumeBanner } from './layout/ResumeBanner.tsx';
+import { SaveStatus } from './layout/SaveStatus.tsx';
+import { ConfirmDialog } from './layout/ConfirmDialog.tsx';
 import { ExportPanel } from './layout/ExportPanel.tsx';
 import { HelpPanel } from './help/HelpPanel.tsx';
 import { useReviewKeys } from './layout/useReviewKeys.ts';
@@ -37,7 +39,9 @@ export function App() {
     <div className="shell" data-screen={screen}>
       <TopBar onHelp={() => setHelpOpen((o) => !o)} onExport={() => setExportOpen((o) => !o)} exportOpen={exportOpen} helpOpen={helpOpen} />
       <NoticeBar />
+      <SaveStatus />
       <ResumeBanner />
+      <ConfirmDialog />
       <ProgressOverlay />
       {exportOpen && <ExportPanel onClose={() => setExportOpen(false)} />}
       {helpOpen && <HelpPanel onClose={() => setHelpOpen(false)} />}

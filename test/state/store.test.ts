@@ -1,9 +1,6 @@
 import { afterEach, describe, expect, it } from 'vitest';
-import { IDBFactory } from 'fake-indexeddb';
-import { workbenchStore, selectDecidedCount, selectRemovedIndices, selectUndecidedIndices } from '../../src/state/index.ts';
+import { workbenchStore, selectDecidedCount, selectRemovedIndices, selectSuggestion, selectSuggestions, selectUndecidedIndices } from '../../src/state/index.ts';
 import { setWorkbenchServices, reviewKey } from '../../src/state/services.ts';
-import { startAutosave } from '../../src/state/autosave.ts';
-import { openReviewDb } from '../../src/state/review-db.ts';
 import { decisionsJsonFromState, decisionsTsvFromState } from '../../src/state/exports.ts';
 import { fakeServices } from './fake-services.ts';
 
@@ -116,6 +113,24 @@ describe('session slice', () => {
     expect(st().recording).toBeNull();
   });
 
+  it('re-suggests at once when the aim or a threshold changes, without computing the evidence again', async () => {
+    const services = fakeServices();
+    setWorkbenchServices(services);
+    await st().loadParticipant({ recordingFiles: [edf()], decompositionFiles: [json()] });
+    expect(services.evidenceCalls).toBe(1);
+    const erp = selectSuggestions(st());
+    expect(selectSuggestions(st())).toBe(erp); // memoised: same inputs, same map
+    expect(erp.get(1)!.suggestion).toMatchObject({ verdict: 'remove', reason: 'blink' });
+    expect(erp.get(1)!.rules.some((r) => r.measure === 'eogCorrelation.vertical' && r.value === 0.95)).toBe(true);
+    st().setAim('oscillations');
+    expect(selectSuggestions(st())).not.toBe(erp);
+    // a blink EOG threshold above the component's r = 0.95: the EOG rule no longer fires
+    st().setThresholds({ eogCorrelation: 0.99 });
+    expect(selectSuggestion(1)(st())!.rules.some((r) => r.measure === 'eogCorrelation.vertical')).toBe(false);
+    expect(services.evidenceCalls).toBe(1);
+    expect(st().evidence).toHaveLength(3);
+  });
+
   it('restores exactly the exported decisions into a fresh session (JSON round trip)', async () => {
     setWorkbenchServices(fakeServices());
     await st().loadParticipant({ recordingFiles: [edf()], decompositionFiles: [json()] });
@@ -126,7 +141,9 @@ describe('session slice', () => {
     const before = { decisions: st().decisions, aim: st().aim };
     const exported = decisionsJsonFromState(st())!;
     const parsed = JSON.parse(exported);
-    expect(parsed.components[0].suggested).toEqual({ verdict: 'keep', reason: 'neural', because: [] }); // conservative aim's suggestion
+    // the conservative aim's suggestion, computed from the evidence (a blink goes for every aim)
+    expect(parsed.components[0].suggested).toMatchObject({ verdict: 'remove', reason: 'blink' });
+    expect(parsed.components[0].suggested.because).toEqual([...selectSuggestion(1)(st())!.suggestion.because]);
     expect(parsed.reviewer).toBe('R. One');
 
     workbenchStore.setState(workbenchStore.getInitialState(), true);
@@ -159,48 +176,4 @@ describe('session slice', () => {
   });
 });
 
-describe('autosave', () => {
-  it('writes every decision change to IndexedDB under both hashes, and a reopened store offers it back', async () => {
-    const factory = new IDBFactory();
-    const db = await openReviewDb(factory);
-    const services = fakeServices();
-    services.loadReview = (key) => db.load(key);
-    services.saveReview = (key, review) => db.save(key, review);
-    setWorkbenchServices(services);
-    const handle = startAutosave(workbenchStore, async () => services);
-    await st().loadParticipant({ recordingFiles: [edf()], decompositionFiles: [json()] });
-    st().decide(2, { verdict: 'remove', reason: 'muscle' });
-    st().decide(2, { note: 'temporal bursts' });
-    await handle.flush();
-    const saved = await db.load(reviewKey('r'.repeat(64), 'd'.repeat(64)));
-    expect(saved?.decisions).toEqual({ 2: { verdict: 'remove', reason: 'muscle', note: 'temporal bursts' } });
-    handle.stop();
-
-    // A new page: same files, fresh store.
-    workbenchStore.setState(workbenchStore.getInitialState(), true);
-    await st().loadParticipant({ recordingFiles: [edf()], decompositionFiles: [json()] });
-    expect(st().resumeOffer?.decisions).toEqual(saved?.decisions);
-    db.close();
-  });
-
-  it('does not overwrite a saved review while its resume offer is unanswered', async () => {
-    const key = reviewKey('r'.repeat(64), 'd'.repeat(64));
-    const saved = new Map([[key, {
-      savedAt: '2026-12-01T12:00:00.000Z', aim: 'erp' as const, reviewer: '',
-      decisions: { 1: { verdict: 'keep' as const, reason: 'neural' as const, note: '' } },
-    }]]);
-    const services = fakeServices(saved);
-    setWorkbenchServices(services);
-    const handle = startAutosave(workbenchStore, async () => services);
-    await st().loadParticipant({ recordingFiles: [edf()], decompositionFiles: [json()] });
-    expect(st().resumeOffer).not.toBeNull();
-    st().setAim('oscillations');
-    await handle.flush();
-    expect(saved.get(key)?.decisions).toEqual({ 1: { verdict: 'keep', reason: 'neural', note: '' } });
-    st().resume(false);
-    st().decide(2, { verdict: 'remove' });
-    await handle.flush();
-    expect(saved.get(key)?.decisions).toEqual({ 2: { verdict: 'remove', reason: null, note: '' } });
-    handle.stop();
-  });
-});
+// Autosave and the saved-review history: test/state/review-persistence.test.ts.

@@ -10,10 +10,13 @@ import { filesFromDataTransfer } from './collect-dropped.ts';
 import { openFiles } from './open-files.ts';
 import { RecordingSummary } from './RecordingSummary.tsx';
 import { DecomposeForm } from './DecomposeForm.tsx';
+import { SavedReviews } from './SavedReviews.tsx';
+import { recomputeEvidence } from '../../state/recompute-evidence.ts';
 
 export function StartScreen() {
   const recording = useWorkbench((s) => s.recording);
   const hasDecomposition = useWorkbench((s) => s.decomposition !== null);
+  const hasEvidence = useWorkbench((s) => s.evidence !== null);
   const busy = useWorkbench((s) => s.progress !== null);
   const loadDemo = useWorkbench((s) => s.loadDemo);
   const setScreen = useWorkbench((s) => s.setScreen);
@@ -88,16 +91,28 @@ export function StartScreen() {
       </div>
       {recording && (
         <>
-          {hasDecomposition ? (
+          {hasDecomposition && hasEvidence ? (
             <p className="back-to-board">
               <button type="button" onClick={() => setScreen('board')} data-testid="back-to-board">Back to the board</button>
             </p>
+          ) : hasDecomposition ? (
+            !busy && (
+              <>
+                <p className="recompute-evidence" data-testid="recompute-panel">
+                  The recording and its decomposition are loaded, but the evidence for each component was not computed (the step was
+                  cancelled or failed).{' '}
+                  <button type="button" onClick={() => void recomputeEvidence()} data-testid="recompute-evidence">Compute evidence again</button>
+                </p>
+                <DecomposeForm />
+              </>
+            )
           ) : (
             !busy && <DecomposeForm />
           )}
           <RecordingSummary recording={recording} />
         </>
       )}
+      <SavedReviews />
     </section>
   );
 }

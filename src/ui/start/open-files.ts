@@ -4,6 +4,7 @@
  */
 import { workbenchStore } from '../../state/index.ts';
 import { hasRecording, sortParticipantFiles } from '../../state/participant-files.ts';
+import { confirmSwitchParticipant } from '../../state/review-history.ts';
 
 export interface OpenExtras {
   readonly decompositionFiles?: readonly File[];
@@ -30,11 +31,16 @@ export function openFiles(files: readonly File[], extras: OpenExtras = {}): void
     return;
   }
   const decompositionFiles = sorted.decompositionFiles.length > 0 ? sorted.decompositionFiles : [...(extras.decompositionFiles ?? [])];
-  void s.loadParticipant({
-    recordingFiles: sorted.recordingFiles,
-    decompositionFiles,
-    decisionsFile: sorted.decisionsFile ?? extras.decisionsFile ?? null,
-    // Without a decomposition, stop after reading: the recording is listed and a decomposition offered.
-    decompose: null,
+  // Mid-review, opening another recording replaces the participant: ask first (the review stays saved).
+  const name = sorted.recordingFiles.find((f) => /\.(edf|bdf|rec)$/i.test(f.name))?.name ?? sorted.recordingFiles[0]?.name ?? 'the recording';
+  void confirmSwitchParticipant(name).then((ok) => {
+    if (!ok) return;
+    void workbenchStore.getState().loadParticipant({
+      recordingFiles: sorted.recordingFiles,
+      decompositionFiles,
+      decisionsFile: sorted.decisionsFile ?? extras.decisionsFile ?? null,
+      // Without a decomposition, stop after reading: the recording is listed and a decomposition offered.
+      decompose: null,
+    });
   });
 }
