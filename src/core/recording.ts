@@ -95,8 +95,27 @@ export interface PowerLine {
   readonly sidecar: string | null;
 }
 
+/** The reference as the sidecars state it (BIDS: channels.tsv `reference` column, *_eeg.json EEGReference). */
+export interface RecordingReference {
+  /** Distinct `reference` values of the EEG rows of channels.tsv, joined by "; "; null when none given. */
+  readonly channels: string | null;
+  /** EEGReference of the paired *_eeg.json; null when none given. */
+  readonly eegJson: string | null;
+}
+
+/** A sidecar read with the recording (paired by name, or named on the command line). */
+export interface PairedSidecar {
+  readonly kind: 'channels' | 'events' | 'electrodes' | 'coordsystem' | 'eeg';
+  /** Base name of the file. */
+  readonly file: string;
+}
+
 /** A recording ready for review: info plus the samples of its main-rate channels (µV). */
 export interface LoadedRecording extends RecordingInfo {
+  /** The sidecars read with it, in the order read; absent when read without the loader. */
+  readonly sidecars?: readonly PairedSidecar[];
+  /** The reference the sidecars state; absent when read without the loader. */
+  readonly reference?: RecordingReference;
   /** From the paired *_eeg.json (recording-loader.ts); absent when the recording was read without sidecars. */
   readonly powerLine?: PowerLine;
   readonly signals: SignalBlock;

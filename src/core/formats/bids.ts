@@ -104,6 +104,8 @@ export interface ChannelsTsvRow {
   type: ChannelType;
   units: string;
   status: 'good' | 'bad';
+  /** The optional `reference` column (absent, empty or "n/a": undefined). */
+  reference?: string;
 }
 
 /** *_channels.tsv: required name, type, units; optional status (good / bad / n/a → good). */
@@ -136,7 +138,8 @@ export function parseChannelsTsv(text: string, fileName: string): ParseResult<Ch
       else if (s !== 'good' && s !== 'n/a' && s !== '')
         warnings.push(`${fileName}: line ${line} status "${row[c.status]}" is not good, bad or n/a; treated as good`);
     }
-    out.push({ name, type: type as ChannelType, units: row[c.units].trim(), status });
+    const reference = c.reference !== undefined ? row[c.reference].trim() : '';
+    out.push({ name, type: type as ChannelType, units: row[c.units].trim(), status, ...(reference !== '' && reference !== 'n/a' ? { reference } : {}) });
   }
   return parseOk(out, warnings);
 }
@@ -264,6 +267,8 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
 export interface EegSidecar {
   /** Hz; null when the field is absent or "n/a". */
   readonly powerLineFrequency: number | null;
+  /** EEGReference (REQUIRED by BIDS); null when absent, empty or not text. */
+  readonly reference?: string | null;
 }
 
 /**
@@ -286,7 +291,9 @@ export function parseEegJson(text: string, fileName: string): ParseResult<EegSid
   else if (v === 'n/a') powerLineFrequency = null;
   else if (typeof v === 'number' && Number.isFinite(v) && v > 0) powerLineFrequency = v;
   else warnings.push(`${fileName}: PowerLineFrequency is ${JSON.stringify(v)}, not a frequency in Hz or "n/a"`);
-  return parseOk({ powerLineFrequency }, warnings);
+  const ref = (json as Record<string, unknown>).EEGReference;
+  const reference = typeof ref === 'string' && ref.trim() !== '' && ref.trim() !== 'n/a' ? ref.trim() : null;
+  return parseOk({ powerLineFrequency, reference }, warnings);
 }
 
 const PLAIN_NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/;

@@ -33,7 +33,7 @@ import { parseChannelsTsv, parseEegJson, parseElectrodesTsv, parseEventsTsv } fr
 import { iterateEdfSignals, readEdfInfo, readEdfSignals, type EdfReadOptions, type EdfSignalChunk } from './edf.ts';
 import { parseFail, parseOk, type ParseResult } from './parse-result.ts';
 import { isRecordingFileName, recordingStem } from './recording-file-name.ts';
-import type { ChannelInfo, LoadedRecording, PowerLine, RecordingEvent, RecordingInfo, SignalBlock } from '../recording.ts';
+import type { ChannelInfo, LoadedRecording, PairedSidecar, PowerLine, RecordingEvent, RecordingInfo, RecordingReference, SignalBlock } from '../recording.ts';
 import { matchMontage } from '../headmodel/montage-1020.ts';
 import { electrodeDirections } from '../headmodel/sphere-fit.ts';
 
@@ -73,6 +73,9 @@ export interface OpenedRecording {
   /** The electrodes.tsv read (positions in mm as written, names as written), or null: the 10-20 layout. */
   readonly electrodes: { readonly file: string; readonly names: readonly string[]; readonly positionsMm: Float64Array } | null;
   readonly powerLine: PowerLine;
+  /** The sidecars read, in the order read. */
+  readonly sidecars: readonly PairedSidecar[];
+  readonly reference: RecordingReference;
   readonly warnings: readonly string[];
 }
 
@@ -125,7 +128,10 @@ function pickSidecar(files: ByteSource[], recEntities: Record<string, string>, s
  * The mains frequency stated by the *_eeg.json paired with `recordingName` among `files` (same pairing as the
  * other sidecars). Parse faults become warnings: the mains frequency only tunes the spectrum measures.
  */
-export async function readPowerLine(files: ByteSource[], recordingName: string): Promise<{ powerLine: PowerLine; warnings: string[] }> {
+export async function readPowerLine(
+  files: ByteSource[],
+  recordingName: string,
+): Promise<{ powerLine: PowerLine; warnings: string[]; reference?: string | null }> {
   const side = pickSidecar(files, bidsNameParts(recordingName).entities, 'eeg', '.json');
   if (!side) return { powerLine: { hz: null, sidecar: null }, warnings: [] };
   const name = byteSourceBaseName(side.name);
@@ -134,7 +140,7 @@ export async function readPowerLine(files: ByteSource[], recordingName: string):
   const warnings = [...parsed.warnings];
   const v = parsed.value.powerLineFrequency;
   if (v !== null && v !== 50 && v !== 60) warnings.push(`${name}: PowerLineFrequency ${v} Hz is neither 50 nor 60; not used`);
-  return { powerLine: { hz: v === 50 || v === 60 ? v : null, sidecar: name }, warnings };
+  return { powerLine: { hz: v === 50 || v === 60 ? v : null, sidecar: name }, warnings, reference: parsed.value.reference ?? null };
 }
 
 async function readText(source: ByteSource): Promise<string> {
@@ -233,6 +239,8 @@ export async function openRecording(files: ByteSource[], opts: LoadRecordingOpti
   const ent = bidsNameParts(rec.name).entities;
   const given = opts.sidecars ?? {};
   let channels: ChannelInfo[] = info.channels.map((c) => ({ ...c }));
+  const sidecars: PairedSidecar[] = [];
+  let channelsReference: string | null = null;
 
   // channels.tsv: types and status
   const chSide = given.channels ?? pickSidecar(files, ent, 'channels', '.tsv');
@@ -241,6 +249,9 @@ export async function openRecording(files: ByteSource[], opts: LoadRecordingOpti
     const parsed = parseChannelsTsv(await readText(chSide), name);
     if (!parsed.ok) return parsed;
     warnings.push(...parsed.warnings);
+    sidecars.push({ kind: 'channels', file: name });
+    const refs = [...new Set(parsed.value.filter((r) => r.type === 'EEG' && r.reference).map((r) => r.reference as string))];
+    channelsReference = refs.length ? refs.join('; ') : null;
     const applied = applyChannelsTsv(channels, parsed.value, name, recName);
     if (!applied.ok) return applied;
     channels = applied.value;
@@ -254,6 +265,7 @@ export async function openRecording(files: ByteSource[], opts: LoadRecordingOpti
     const parsed = parseEventsTsv(await readText(evSide), name);
     if (!parsed.ok) return parsed;
     warnings.push(...parsed.warnings);
+    sidecars.push({ kind: 'events', file: name });
     const fromTsv = parsed.value;
     events = events.filter(
       (a) => a.source !== 'annotation' || !fromTsv.some((t) => t.label === a.label && Math.abs(t.onset - a.onset) <= 1e-3),
@@ -271,14 +283,18 @@ export async function openRecording(files: ByteSource[], opts: LoadRecordingOpti
     if (!parsed.ok) return parsed;
     warnings.push(...parsed.warnings);
     electrodes = parsed.value;
+    sidecars.push({ kind: 'electrodes', file: parsed.value.file });
+    if (cs) sidecars.push({ kind: 'coordsystem', file: byteSourceBaseName(cs.name) });
   }
 
   // mains frequency from *_eeg.json
   const mains = await readPowerLine(files, rec.name);
   warnings.push(...mains.warnings);
+  if (mains.powerLine.sidecar) sidecars.push({ kind: 'eeg', file: mains.powerLine.sidecar });
+  const reference: RecordingReference = { channels: channelsReference, eegJson: mains.reference ?? null };
 
   return parseOk(
-    { source: rec, info: { ...info, channels, events }, mainRate: mainRateOf(channels), electrodes, powerLine: mains.powerLine, warnings },
+    { source: rec, info: { ...info, channels, events }, mainRate: mainRateOf(channels), electrodes, powerLine: mains.powerLine, sidecars, reference, warnings },
     warnings,
   );
 }
@@ -324,7 +340,7 @@ export async function readRecordingSignals(opened: OpenedRecording, opts: ReadSi
     warnings.push(
       `${recName}: no electrode position for ${unmatched.join(', ')} (${opened.electrodes ? `not in ${opened.electrodes.file}` : 'not a 10-20/10-10 name'})`,
     );
-  return parseOk({ ...info, signals, positions, powerLine: opened.powerLine, warnings }, warnings);
+  return parseOk({ ...info, signals, positions, powerLine: opened.powerLine, sidecars: opened.sidecars, reference: opened.reference, warnings }, warnings);
 }
 
 /** Loads the recording in `files` with its sidecars and its main-rate samples. See the module comment. */

@@ -121,13 +121,16 @@ describe('formatTsv', () => {
 
 describe('parseEegJson (BIDS v1.11 EEG sidecar: PowerLineFrequency REQUIRED, Hz or "n/a")', () => {
   it('reads PowerLineFrequency in Hz, "n/a" as unknown, and warns when it is missing or not a frequency', () => {
-    expect(parseEegJson('{"TaskName":"x","PowerLineFrequency":60}', 'sub-01_task-x_eeg.json')).toEqual({ ok: true, value: { powerLineFrequency: 60 }, warnings: [] });
-    expect(parseEegJson('{"PowerLineFrequency":"n/a"}', 'a_eeg.json')).toEqual({ ok: true, value: { powerLineFrequency: null }, warnings: [] });
+    expect(parseEegJson('{"TaskName":"x","PowerLineFrequency":60}', 'sub-01_task-x_eeg.json')).toEqual({ ok: true, value: { powerLineFrequency: 60, reference: null }, warnings: [] });
+    expect(parseEegJson('{"PowerLineFrequency":"n/a"}', 'a_eeg.json')).toEqual({ ok: true, value: { powerLineFrequency: null, reference: null }, warnings: [] });
     const missing = parseEegJson('{"TaskName":"x"}', 'a_eeg.json');
     expect(missing.ok && missing.value.powerLineFrequency).toBeNull();
     expect(missing.ok && missing.warnings).toEqual(['a_eeg.json: no PowerLineFrequency (REQUIRED by BIDS)']);
     const text = parseEegJson('{"PowerLineFrequency":"60 Hz"}', 'a_eeg.json');
     expect(text.ok && text.warnings[0]).toMatch(/^a_eeg\.json: PowerLineFrequency is "60 Hz"/);
+    // EEGReference (REQUIRED by BIDS): free text naming the reference
+    expect(parseEegJson('{"PowerLineFrequency":50,"EEGReference":" linked mastoids "}', 'a_eeg.json')).toMatchObject({ value: { reference: 'linked mastoids' } });
+    expect(parseEegJson('{"PowerLineFrequency":50,"EEGReference":"n/a"}', 'a_eeg.json')).toMatchObject({ value: { reference: null } });
     const bad = parseEegJson('{', 'a_eeg.json');
     expect(!bad.ok && bad.error.message).toMatch(/^a_eeg\.json: not valid JSON/);
     expect(parseEegJson('[60]', 'a_eeg.json').ok).toBe(false);

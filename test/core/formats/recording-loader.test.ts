@@ -142,3 +142,27 @@ describe('loadRecording: mains frequency from *_eeg.json (BIDS v1.11 EEG: PowerL
     expect(broken.ok && broken.warnings.some((w) => /^sub-01_eeg\.json: not valid JSON .*; mains frequency not read$/.test(w))).toBe(true);
   });
 });
+
+describe('loadRecording: which sidecars were paired, and the reference they state (BIDS v1.11 EEG)', () => {
+  it('lists every sidecar read and reads channels.tsv `reference` and *_eeg.json EEGReference', async () => {
+    const r = await loadRecording([
+      recording('sub-01_task-rest_eeg.edf'),
+      text('name\ttype\tunits\treference\nFp1\tEEG\tuV\tCz\nCz\tEEG\tuV\tCz\nVEOG\tVEOG\tuV\tn/a\n', 'sub-01_task-rest_channels.tsv'),
+      text('onset\tduration\ttrial_type\n1.5\t0\tstimulus\n', 'sub-01_task-rest_events.tsv'),
+      text('{"PowerLineFrequency":50,"EEGReference":"Cz"}', 'sub-01_task-rest_eeg.json'),
+    ]);
+    if (!r.ok) throw new Error(r.error.message);
+    expect(r.value.sidecars).toEqual([
+      { kind: 'channels', file: 'sub-01_task-rest_channels.tsv' },
+      { kind: 'events', file: 'sub-01_task-rest_events.tsv' },
+      { kind: 'eeg', file: 'sub-01_task-rest_eeg.json' },
+    ]);
+    expect(r.value.reference).toEqual({ channels: 'Cz', eegJson: 'Cz' });
+  });
+  it('states no reference and no sidecars for a bare recording', async () => {
+    const r = await loadRecording([recording('recording.edf')]);
+    if (!r.ok) throw new Error(r.error.message);
+    expect(r.value.sidecars).toEqual([]);
+    expect(r.value.reference).toEqual({ channels: null, eegJson: null });
+  });
+});
