@@ -7,6 +7,7 @@ import type { StateCreator } from 'zustand';
 import { decisionsFromFile, parseDecisionsJson, parseDecisionsTsv } from '../core/review/decisions-file.ts';
 import { getWorkbenchServices, resumeOfferFrom, reviewKey, type OnFraction } from './services.ts';
 import { progressAt } from './task-progress.ts';
+import { confirmImport } from './replace-guards.ts';
 import { DEFAULT_ROI } from './view-slice.ts';
 import type { DecomposeOptions, SessionSlice, WorkbenchState } from './types.ts';
 import type { Decomposition } from '../core/decomposition.ts';
@@ -202,6 +203,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
           set({ notice: { kind: 'error', text: `${name}: component ${tooHigh.index} does not exist (the decomposition has ${n})` } });
           return false;
         }
+        if (!(await confirmImport(name, get(), f.components.length, false))) return false;
         get().replaceDecisions(decisionsFromFile(f), f.aim);
         set({ reviewer: f.reviewer, resumeOffer: null, notice: { kind: 'info', text: `Restored ${f.components.length} decisions from ${name}.` } });
         return true;
@@ -216,6 +218,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
         set({ notice: { kind: 'error', text: `${name}: component ${tooHigh} does not exist (the decomposition has ${n})` } });
         return false;
       }
+      if (!(await confirmImport(name, get(), Object.keys(parsed.value).length, true))) return false;
       get().replaceDecisions(parsed.value);
       set({ resumeOffer: null, notice: { kind: 'info', text: `Restored decisions from ${name} (TSV carries no hashes; check it belongs to this participant).` } });
       return true;
@@ -224,7 +227,8 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     resume: (accept) => {
       const offer = get().resumeOffer;
       set({ resumeOffer: null });
-      if (accept && offer) get().replaceDecisions(offer.decisions, offer.aim);
+      // Undo never reaches back past a resume (it would empty the resumed review).
+      if (accept && offer) { get().replaceDecisions(offer.decisions, offer.aim); set({ past: [], future: [] }); }
     },
 
     closeParticipant: () => {
