@@ -29,8 +29,8 @@ export interface StudyRecordingSummary {
   /** A readable key, e.g. "sub-01 task-walk". */
   readonly key: string;
   readonly removed: number;
-  /** Variance share (0…1) of the removed components. */
-  readonly removedVariance: number;
+  /** Variance share (0…1) of the removed components; null when not known (left out of that rule). */
+  readonly removedVariance: number | null;
   readonly reasons: readonly string[];
   readonly undecided: number;
   readonly aim: string | null;
@@ -45,14 +45,15 @@ export interface StudyFlag {
 
 const OCULAR = new Set(['blink', 'gaze']);
 
-function farFlags(rows: readonly StudyRecordingSummary[], pick: (r: StudyRecordingSummary) => number, rule: StudyFlag['rule'], what: string, fmt: (v: number) => string): StudyFlag[] {
+function farFlags(all: readonly StudyRecordingSummary[], pick: (r: StudyRecordingSummary) => number | null, rule: StudyFlag['rule'], what: string, fmt: (v: number) => string): StudyFlag[] {
+  const rows = all.filter((r) => pick(r) !== null);
   if (rows.length < 4) return [];
-  const values = rows.map(pick);
+  const values = rows.map((r) => pick(r) as number);
   const m = median(values);
   const spread = MAD_TO_SD * medianAbsoluteDeviation(values);
   const out: StudyFlag[] = [];
   for (const r of rows) {
-    const v = pick(r);
+    const v = pick(r) as number;
     // with no spread at all (every other recording identical), any difference is far
     const far = spread > 0 ? Math.abs(v - m) > FAR_CUTOFF * spread : v !== m;
     if (far) out.push({ key: r.key, rule, why: `${what} ${fmt(v)} is far from the study's median ${fmt(m)} (more than 3 scaled MAD = ${fmt(FAR_CUTOFF * spread)})` });
