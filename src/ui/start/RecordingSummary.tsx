@@ -1,4 +1,7 @@
-/** What was read from a recording: format, duration, rates, every channel and the events (plain text). */
+/**
+ * What was read from a recording: format, duration, rates, electrode positions, mains, reference, the
+ * sidecars paired with it, every channel and the events (plain text).
+ */
 import { useMemo } from 'react';
 import { mainsFrequency } from '../../core/formats/power-line.ts';
 import type { LoadedRecording } from '../../core/recording.ts';
@@ -12,6 +15,44 @@ export function eventCounts(recording: Pick<LoadedRecording, 'events'>): { label
     else m.set(e.label, { count: 1, firstOnset: e.onset });
   }
   return [...m.entries()].map(([label, v]) => ({ label, ...v })).sort((a, b) => b.count - a.count || a.label.localeCompare(b.label));
+}
+
+/** Whether electrode positions were found for the EEG channels read, and where from. */
+export function positionsText(recording: Pick<LoadedRecording, 'signals' | 'channels' | 'positions' | 'sidecars'>): string {
+  const types = new Map(recording.channels.map((c) => [c.label, c.type] as const));
+  const eeg = recording.signals.labels.map((l, j) => ({ l, j })).filter((x) => (types.get(x.l) ?? 'EEG') === 'EEG');
+  const p = recording.positions;
+  const found = p ? eeg.filter((x) => Number.isFinite(p[3 * x.j])).length : 0;
+  if (eeg.length === 0) return 'no EEG channels';
+  const file = recording.sidecars?.find((s) => s.kind === 'electrodes')?.file;
+  if (found === 0) return `none found for the ${eeg.length} EEG channels (no maps or dipoles)`;
+  const from = file ? `from ${file}` : 'idealised 10-20/10-10 positions by channel name (no electrodes.tsv)';
+  return `${found} of ${eeg.length} EEG channels, ${from}`;
+}
+
+/** The reference as channels.tsv and *_eeg.json state it, naming each source; "not stated" otherwise. */
+export function referenceText(recording: Pick<LoadedRecording, 'reference' | 'sidecars'>): string {
+  const r = recording.reference;
+  const file = (kind: string) => recording.sidecars?.find((s) => s.kind === kind)?.file ?? kind;
+  const parts: string[] = [];
+  if (r?.channels) parts.push(`${r.channels} (${file('channels')})`);
+  if (r?.eegJson && r.eegJson !== r.channels) parts.push(`${r.eegJson} (${file('eeg')})`);
+  else if (r?.eegJson && parts.length) parts[0] = `${r.channels} (${file('channels')}, ${file('eeg')})`;
+  return parts.length ? parts.join('; ') : 'not stated (no reference in channels.tsv or EEGReference in *_eeg.json)';
+}
+
+const SIDECAR_KIND: Record<string, string> = {
+  channels: 'channels',
+  events: 'events',
+  electrodes: 'electrode positions',
+  coordsystem: 'coordinate system',
+  eeg: 'recording description',
+};
+
+/** The sidecars read with the recording: "sub-01_channels.tsv (channels), …", or "none". */
+export function sidecarsText(recording: Pick<LoadedRecording, 'sidecars'>): string {
+  const s = recording.sidecars ?? [];
+  return s.length ? s.map((x) => `${x.file} (${SIDECAR_KIND[x.kind] ?? x.kind})`).join(', ') : 'none (the recording alone)';
 }
 
 export function formatDuration(seconds: number): string {
@@ -33,7 +74,10 @@ export function RecordingSummary({ recording }: { recording: LoadedRecording }) 
         <dt>Sample rates</dt><dd data-testid="recording-rates">{rates.map((r) => `${r} Hz`).join(', ')}</dd>
         <dt>Channels</dt><dd>{recording.channels.length} ({recording.signals.labels.length} at {recording.signals.sampleRate} Hz read for review)</dd>
         <dt>Start</dt><dd>{recording.header.start}</dd>
+        <dt>Electrode positions</dt><dd data-testid="recording-positions">{positionsText(recording)}</dd>
         <dt>Mains</dt><dd data-testid="recording-mains">{mainsFrequency(recording.powerLine).text}</dd>
+        <dt>Reference</dt><dd data-testid="recording-reference">{referenceText(recording)}</dd>
+        <dt>Sidecars paired</dt><dd data-testid="recording-sidecars">{sidecarsText(recording)}</dd>
       </dl>
       {recording.warnings.length > 0 && (
         <ul className="warnings" aria-label="Warnings">
