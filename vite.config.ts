@@ -1,5 +1,6 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
+import { serviceWorkerPlugin } from './bin/service-worker-plugin.ts';
 import { methodsPagePlugin } from './bin/methods-page.mjs';
 
 /**
@@ -24,7 +25,7 @@ const devHeaders: Record<string, string> = {
 };
 
 export default defineConfig({
-  plugins: [react(), methodsPagePlugin()],
+  plugins: [react(), methodsPagePlugin(), serviceWorkerPlugin('public')], // sw.js: the offline cache (bin/service-worker-plugin.ts)
   publicDir: 'public',
   server: { headers: devHeaders, port: 5173 },
   preview: { headers: securityHeaders, port: 4173 },

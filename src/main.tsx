@@ -8,3 +8,7 @@ createRoot(document.getElementById('root')!).render(
     <App />
   </StrictMode>,
 );
+
+// Offline after the first visit: the service worker caches this build (bin/service-worker-plugin.ts).
+if (import.meta.env.PROD && 'serviceWorker' in navigator)
+  navigator.serviceWorker.register(`${import.meta.env.BASE_URL}sw.js`).catch((e: unknown) => console.warn('offline cache not available:', e));
