@@ -15,37 +15,8 @@
  * idealised 10-20/10-10 layout by label; the recording's EDF+ annotations merged with --events (BIDS
  * events.tsv; a row with an annotation's label and onset replaces it).
  *
- * Output (format "winnow-evidence/1"):
- *   format, recording, decomposition   file names as given
- *   aim                                the aim whose suggestion is in `suggestion`
- *   lineHz, epochEvent, epochWindowS   settings used (epochEvent null when no events were epoched)
- *   lineHzSource                       where lineHz came from: "option", "sidecar" or "assumed"
- *   thresholds                         the threshold table used (src/core/review/thresholds.ts)
- *   warnings                           strings
- *   components: one object per component, in decomposition order —
- *     index                 1-based component number
- *     varianceShare         share (0–1) of the data's variance carried by the back-projected component
- *     spectrum              { frequencies (Hz), power (µV²/Hz at the strongest channel), powerDb, channel }
- *     oneOverFExponent     χ of P ∝ f^−χ, 2–40 Hz robust log–log fit; oneOverFOffset: log10 P at 1 Hz
- *     alphaPeakHz           7–14 Hz peak above the 1/f fit, or null; alphaProminence (log10 units)
- *     highFrequencyShare    BP(20, line−2) / BP(2, line−2); highFrequencySlope: log–log slope above 20 Hz
- *     mainsShare        Σ BP(h·line ± 1 Hz) / BP(1, fmax); linePeakRatio: P(line) / median neighbours
- *     lowFrequencyShare     BP(1, 4) / BP(1, 45)
- *     kurtosis              excess kurtosis of the activation
- *     focality              { share of map energy on one electrode, channel }
- *     frontalGradient, frontalShare, lateralAntisymmetry, stepLikeness   map and time-course ocular evidence
- *     eogCorrelation        { vertical, horizontal (|r|, or null), source, channels }
- *     cardiac               { bpm or null, peak (autocorrelation) }
- *     stepLocking           { share, event, nEpochs } or null
- *     erp                   { event, nEpochs, times (s), mean, lower, upper (µV, 95 % band), itc,
- *                             itcFrequencyHz, lockedShare, timeLockingStrength, permutationP } or null
- *     dipole                { position (mm, RAS), moment, residualVariance (0–1), atBoundary, region } or null
- *     strongestChannel      { index (0-based, decomposition order), label, weight }
- *     map                   scalp map (unit L2 norm), decomposition channel order
- *     suggestion            { verdict, reason, because } for --aim (default erp)
- *     suggestions           { erp, oscillations, conservative }, each { verdict, reason, because }
- *   Trial stacks (trials × time) are not written; the workbench computes them.
- *   NaN and infinite numbers are written as null.
+ * Output: the evidence file "winnow-evidence/1" (src/core/formats/evidence-file.ts lists the fields), with
+ * every component's suggestion for each aim and the rules that fired, computed at output time.
  */
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
@@ -55,7 +26,8 @@ import { openCliRecording, readCliSignals } from './recording-files.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import { computeEvidence, DEFAULT_EPOCH_WINDOW_S } from '../core/evidence/compute-evidence.ts';
 import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
-import type { ComponentEvidence } from '../core/evidence/types.ts';
+import { formatEvidenceJson } from '../core/formats/evidence-file.ts';
+import { suggestWithRules } from '../core/review/suggest.ts';
 import { parseDecompositionJson } from '../core/formats/decomposition-file.ts';
 import { matchDecompositionToRecording } from '../core/formats/decomposition-match.ts';
 import { evidenceInputOf } from '../core/recording-input.ts';
@@ -89,69 +61,6 @@ async function readTextFile(path: string): Promise<string> {
     const code = (e as NodeJS.ErrnoException).code;
     throw new CliError(`${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : (e as Error).message}`);
   }
-}
-
-const finite = (v: number) => (Number.isFinite(v) ? v : null);
-const list = (a: ArrayLike<number>) => Array.from(a, finite);
-
-/** The JSON object of one component (names documented at the top of this file). */
-export function componentJson(e: ComponentEvidence, aim: Aim): Record<string, unknown> {
-  return {
-    index: e.index,
-    varianceShare: finite(e.varianceShare),
-    spectrum: { frequencies: list(e.spectrum.frequencies), power: list(e.spectrum.power), powerDb: list(e.spectrum.powerDb), channel: e.strongestChannel.label },
-    oneOverFExponent: finite(e.oneOverF.exponent),
-    oneOverFOffset: finite(e.oneOverF.offset),
-    alphaPeakHz: e.alphaPeakHz,
-    alphaProminence: finite(e.alphaProminence),
-    highFrequencyShare: finite(e.highFrequencyShare),
-    highFrequencySlope: finite(e.highFrequencySlope),
-    mainsShare: finite(e.mainsShare),
-    linePeakRatio: finite(e.linePeakRatio),
-    lowFrequencyShare: finite(e.lowFrequencyShare),
-    kurtosis: finite(e.kurtosis),
-    focality: { share: finite(e.focality.share), channel: e.focality.channel },
-    frontalGradient: finite(e.frontalGradient),
-    frontalShare: finite(e.frontalShare),
-    lateralAntisymmetry: finite(e.lateralAntisymmetry),
-    stepLikeness: finite(e.stepLikeness),
-    eogCorrelation: {
-      vertical: e.eogCorrelation.vertical === null ? null : finite(e.eogCorrelation.vertical),
-      horizontal: e.eogCorrelation.horizontal === null ? null : finite(e.eogCorrelation.horizontal),
-      source: e.eogCorrelation.source,
-      channels: e.eogCorrelation.channels,
-    },
-    cardiac: { bpm: e.cardiac.bpm, peak: finite(e.cardiac.peak) },
-    stepLocking: e.stepLocking ? { share: finite(e.stepLocking.share), event: e.stepLocking.event, nEpochs: e.stepLocking.nEpochs } : null,
-    erp: e.erp
-      ? {
-          event: e.erp.event,
-          nEpochs: e.erp.nEpochs,
-          times: list(e.erp.times),
-          mean: list(e.erp.mean),
-          lower: list(e.erp.band.lower),
-          upper: list(e.erp.band.upper),
-          itc: finite(e.erp.itc),
-          itcFrequencyHz: finite(e.erp.itcFrequencyHz),
-          lockedShare: finite(e.erp.lockedShare),
-          timeLockingStrength: finite(e.erp.timeLockingStrength),
-          permutationP: e.erp.permutationP === undefined ? null : finite(e.erp.permutationP),
-        }
-      : null,
-    dipole: e.dipole
-      ? {
-          position: e.dipole.position.map(finite),
-          moment: e.dipole.moment.map(finite),
-          residualVariance: finite(e.dipole.residualVariance),
-          atBoundary: e.dipole.atBoundary,
-          region: e.dipole.region,
-        }
-      : null,
-    strongestChannel: { index: e.strongestChannel.index, label: e.strongestChannel.label, weight: finite(e.strongestChannel.weight) },
-    map: list(e.map),
-    suggestion: e.suggestions[aim],
-    suggestions: e.suggestions,
-  };
 }
 
 export async function run(args: string[], io: CliIo): Promise<number> {
@@ -207,33 +116,26 @@ export async function run(args: string[], io: CliIo): Promise<number> {
       lineHz: lineOverride as 50 | 60 | undefined,
       epochEvent: values['epoch-event'],
       window: epochWindow,
-      thresholds,
       // Sequential time-locking test up to 999 shuffles, so permutationP can reach 1/1000 (time-locking.ts).
       permutations: LOCKING_MAX_SHUFFLES,
     });
     if (mains.origin === 'assumed')
       io.stderr(`warning: ${basename(recordingPath)}: no PowerLineFrequency in a paired *_eeg.json and no --line-frequency; mains assumed to be 50 Hz\n`);
     const lineHz = mains.hz;
-    const result = computeEvidence({ ...input, aim });
+    const result = computeEvidence(input);
     for (const w of result.warnings) io.stderr(`warning: ${w}\n`);
-    const json = {
-      format: 'winnow-evidence/1',
-      recording: recordingPath,
-      decomposition: decompositionPath,
-      aim,
-      lineHz,
-      lineHzSource: mains.origin,
-      epochEvent: result.epochEvent,
-      epochWindowS: epochWindow,
-      thresholds,
-      warnings: result.warnings,
-      components: result.components.map((c) => componentJson(c, aim)),
+    const header = {
+      recording: recordingPath, decomposition: decompositionPath, aim, lineHz, lineHzSource: mains.origin,
+      epochEvent: result.epochEvent, epochWindowS: epochWindow, thresholds, warnings: result.warnings, maxShuffles: LOCKING_MAX_SHUFFLES,
     };
-    const text = `${JSON.stringify(json)}\n`;
+    const text = formatEvidenceJson(header, result.components);
     if (values.out !== undefined) {
       await writeFileAtomic(values.out, text);
       const counts = new Map<string, number>();
-      for (const c of result.components) counts.set(c.suggestions[aim].verdict, (counts.get(c.suggestions[aim].verdict) ?? 0) + 1);
+      for (const c of result.components) {
+        const v = suggestWithRules(c, aim, thresholds).suggestion.verdict;
+        counts.set(v, (counts.get(v) ?? 0) + 1);
+      }
       io.stdout(
         `${values.out}: evidence for ${result.components.length} components (aim ${aim}: ${[...counts].map(([v, n]) => `${n} ${v}`).join(', ')})\n`,
       );

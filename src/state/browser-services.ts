@@ -79,13 +79,13 @@ export const browserServices: WorkbenchServices = {
     return { decomposition, sha256: await sha256Hex(encoder.encode(json)), json };
   },
 
-  async computeEvidence(recording, decomposition, aim, signal, onProgress) {
+  async computeEvidence(recording, decomposition, signal, onProgress) {
     // The recording's inputs as every CLI command builds them (src/core/recording-input.ts); mains frequency
     // from the paired *_eeg.json, else 50 Hz (the recording summary says which). Sequential test up to 999
     // shuffles (p can reach 1/1000); unlocked components stop after ~tens.
     const { input } = evidenceInputOf(recording, decomposition, { permutations: LOCKING_MAX_SHUFFLES });
     const result = await computeEvidenceInWorker(
-      { ...input, aim },
+      input,
       signal,
       (f) => onProgress(f),
     );

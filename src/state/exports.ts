@@ -5,11 +5,11 @@
  */
 import { buildDecisionsFile, formatDecisionsJson, formatDecisionsTsv, type DecisionsFile } from '../core/review/decisions-file.ts';
 import { methodsText } from '../core/review/methods-text.ts';
-import { defaultThresholds } from '../core/review/thresholds.ts';
+import { resolveThresholds } from '../core/review/thresholds.ts';
 import { workbenchStore } from './store.ts';
 import { getWorkbenchServices } from './services.ts';
 import { progressAt } from './task-progress.ts';
-import { selectRemovedIndices } from './selectors.ts';
+import { selectRemovedIndices, selectSuggestions } from './selectors.ts';
 import type { WorkbenchState } from './types.ts';
 import { version } from '../../package.json';
 
@@ -26,7 +26,7 @@ export function exportStem(s: Pick<WorkbenchState, 'recording'>): string {
 /** The decisions file for the current review (null before a decomposition is loaded). */
 export function decisionsFileFromState(s: WorkbenchState, createdAt = new Date().toISOString()): DecisionsFile | null {
   if (!s.decomposition || s.recordingSha256 === null || s.decompositionSha256 === null) return null;
-  const byIndex = new Map((s.evidence ?? []).map((e) => [e.index, e] as const));
+  const suggestions = selectSuggestions(s);
   return buildDecisionsFile({
     aim: s.aim,
     reviewer: s.reviewer,
@@ -36,7 +36,7 @@ export function decisionsFileFromState(s: WorkbenchState, createdAt = new Date()
     decompositionSha256: s.decompositionSha256,
     nComponents: s.decomposition.nComponents,
     decisions: s.decisions,
-    suggestions: (i) => byIndex.get(i)?.suggestions[s.aim] ?? null,
+    suggestions: (i) => suggestions.get(i)?.suggestion ?? null,
   });
 }
 
@@ -50,9 +50,11 @@ export function decisionsTsvFromState(s: WorkbenchState): string | null {
   return f ? formatDecisionsTsv(f) : null;
 }
 
-export function methodsTextFromState(s: WorkbenchState): string | null {
+/** `residualWarnings`: what the decomposition missed (review/residual.ts), when the caller measured it. */
+export function methodsTextFromState(s: WorkbenchState, residualWarnings?: readonly string[]): string | null {
   if (!s.decomposition || !s.recording) return null;
   const byIndex = new Map((s.evidence ?? []).map((e) => [e.index, e] as const));
+  const suggestions = selectSuggestions(s);
   return methodsText({
     software: SOFTWARE,
     recordingFileName: s.recording.fileName,
@@ -61,7 +63,9 @@ export function methodsTextFromState(s: WorkbenchState): string | null {
     aim: s.aim,
     decisions: s.decisions,
     varianceShare: (i) => byIndex.get(i)?.varianceShare ?? null,
-    thresholds: defaultThresholds,
+    thresholds: resolveThresholds(s.thresholds),
+    ...(s.evidence ? { firedRules: (i: number) => suggestions.get(i)?.rules ?? null } : {}),
+    ...(residualWarnings ? { residualWarnings } : {}),
   });
 }
 

@@ -19,6 +19,8 @@ function pushPast(past: ReviewSlice['past'], decisions: ReviewSlice['decisions']
 
 export const createReviewSlice: StateCreator<WorkbenchState, [], [], ReviewSlice> = (set, get) => ({
   aim: 'erp',
+  thresholds: {},
+  setThresholds: (thresholds) => set({ thresholds }),
   decisions: {},
   reviewer: '',
   past: [],

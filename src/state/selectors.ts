@@ -3,6 +3,10 @@
  * (or memoised by the caller): they build a new value on each call.
  */
 import { UNDECIDED } from '../core/review/decisions-file.ts';
+import type { ComponentEvidence } from '../core/evidence/types.ts';
+import { suggestWithRules, type SuggestionWithRules } from '../core/review/suggest.ts';
+import { resolveThresholds, type Thresholds } from '../core/review/thresholds.ts';
+import type { Aim } from '../core/review/vocabulary.ts';
 import type { ReviewDecision, WorkbenchState } from './types.ts';
 
 export const selectRecording = (s: WorkbenchState) => s.recording;
@@ -76,3 +80,37 @@ export const selectDecompositionPositions = (s: WorkbenchState): Float64Array | 
   positionsCache.set(decomposition, { recording, positions: out });
   return out;
 };
+
+/** The suggestions of every component for one aim and threshold table, by 1-based index. */
+export type SuggestionMap = ReadonlyMap<number, SuggestionWithRules>;
+
+const EMPTY_SUGGESTIONS: SuggestionMap = new Map();
+let suggestionsMemo: { evidence: readonly ComponentEvidence[]; aim: Aim; thresholds: Partial<Thresholds>; map: SuggestionMap } | null = null;
+
+/**
+ * Pure: each component's suggestion with its fired rules (review/suggest.ts suggestWithRules) for `aim` and
+ * the threshold overrides; no evidence is recomputed.
+ */
+export function suggestionsFor(evidence: readonly ComponentEvidence[] | null, aim: Aim, thresholds: Partial<Thresholds> = {}): SuggestionMap {
+  if (!evidence) return EMPTY_SUGGESTIONS;
+  const t = resolveThresholds(thresholds);
+  return new Map(evidence.map((e) => [e.index, suggestWithRules(e, aim, t)] as const));
+}
+
+/**
+ * Every component's suggestion for the current aim and thresholds, memoised on (evidence, aim, thresholds):
+ * the same Map (and the same entries) until one of the three changes, so it may be used without useShallow.
+ * Changing the aim or a threshold re-suggests at once (the rules are cheap); the evidence stays as it is.
+ */
+export const selectSuggestions = (s: WorkbenchState): SuggestionMap => {
+  if (!s.evidence) return EMPTY_SUGGESTIONS;
+  const thresholds = s.thresholds ?? {};
+  const m = suggestionsMemo;
+  if (m && m.evidence === s.evidence && m.aim === s.aim && m.thresholds === thresholds) return m.map;
+  const map = suggestionsFor(s.evidence, s.aim, thresholds);
+  suggestionsMemo = { evidence: s.evidence, aim: s.aim, thresholds, map };
+  return map;
+};
+
+/** The suggestion (with fired rules) of a 1-based component for the current aim and thresholds, or null. */
+export const selectSuggestion = (index: number) => (s: WorkbenchState): SuggestionWithRules | null => selectSuggestions(s).get(index) ?? null;

@@ -27,8 +27,8 @@ export interface WorkbenchServices {
   readDecomposition(files: readonly File[], recording: LoadedRecording, recordingSha256: string, signal: AbortSignal): Promise<{ decomposition: Decomposition; sha256: string }>;
   /** Computes a decomposition in a worker; `sha256` is of its JSON serialisation (what an export would store). */
   computeDecomposition(recording: LoadedRecording, recordingSha256: string, options: DecomposeOptions, signal: AbortSignal, onProgress: OnFraction): Promise<{ decomposition: Decomposition; sha256: string; json: string }>;
-  /** Per-component evidence and suggestions (1-based index) for the aim. */
-  computeEvidence(recording: LoadedRecording, decomposition: Decomposition, aim: Aim, signal: AbortSignal, onProgress: OnFraction): Promise<ComponentEvidence[]>;
+  /** Per-component evidence (1-based index), measures only: suggestions come from selectSuggestions for any aim. */
+  computeEvidence(recording: LoadedRecording, decomposition: Decomposition, signal: AbortSignal, onProgress: OnFraction): Promise<ComponentEvidence[]>;
   /**
    * The cleaned recording as EDF+/BDF+ bytes, computed off the main thread; `warnings` name channels that
    * could not be copied (channels at other rates when the recording file is no longer at hand).

@@ -95,7 +95,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     signal.throwIfAborted();
     set({ decomposition: made.decomposition, decompositionSha256: made.sha256, decompositionJson: made.json ?? null, evidence: null, decisions: {}, past: [], future: [] });
     const evidence = await step('Computing evidence', controller, (p) =>
-      services.computeEvidence(recording, made.decomposition, get().aim, signal, p),
+      services.computeEvidence(recording, made.decomposition, signal, p),
     );
     signal.throwIfAborted();
     set({ evidence, selected: made.decomposition.nComponents > 0 ? 1 : null });

@@ -5,6 +5,7 @@
 import type { LoadedRecording } from '../core/recording.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import type { ComponentEvidence } from '../core/evidence/types.ts';
+import type { Thresholds } from '../core/review/thresholds.ts';
 import type { Aim, ReasonCode, Verdict } from '../core/review/vocabulary.ts';
 import type { ReviewDecision } from '../core/review/decisions-file.ts';
 
@@ -82,6 +83,9 @@ export interface RecordingSlice {
 
 export interface ReviewSlice {
   aim: Aim;
+  /** Threshold overrides for the suggestions (empty: the defaults of review/thresholds.ts); re-suggests without recomputing evidence. */
+  thresholds: Partial<Thresholds>;
+  setThresholds: (thresholds: Partial<Thresholds>) => void;
   /** Key = 1-based component index. A component without an entry is undecided. */
   decisions: Record<number, ReviewDecision>;
   /** Reviewer name written into exports (empty when not given). */

@@ -3,6 +3,7 @@ import type { WorkbenchServices, SavedReview } from '../../src/state/services.ts
 import type { LoadedRecording } from '../../src/core/recording.ts';
 import type { Decomposition } from '../../src/core/decomposition.ts';
 import type { ComponentEvidence } from '../../src/core/evidence/types.ts';
+import { syntheticEvidence } from '../ui/plots/synthetic-evidence.ts';
 
 export const recording = {
   fileName: 'sub-01_eeg.edf', format: 'EDF+C',
@@ -20,16 +21,25 @@ export const decomposition: Decomposition = {
   recordingSha256: 'r'.repeat(64),
 };
 
-export const evidence = [1, 2, 3].map((index) => ({
-  index, varianceShare: 0.1 * index,
-  suggestions: {
-    erp: { verdict: index === 1 ? 'remove' : 'keep', reason: index === 1 ? 'blink' : 'neural', because: ['fake'] },
-    oscillations: { verdict: 'keep', reason: 'neural', because: [] },
-    conservative: { verdict: 'keep', reason: 'neural', because: [] },
-  },
-})) as unknown as ComponentEvidence[];
+/**
+ * Measures only (the suggestions come from suggestWithRules): component 1 is a blink (r = 0.95 with the
+ * VEOG, frontal map, slow spectrum), components 2 and 3 are brain-like (diffuse map, dipole RV 4 %, 1/f², alpha).
+ */
+export const evidence: ComponentEvidence[] = [1, 2, 3].map((index) =>
+  syntheticEvidence(index, {
+    varianceShare: 0.1 * index,
+    focality: { share: 0.2, channel: 'Oz' },
+    ...(index === 1
+      ? {
+          eogCorrelation: { vertical: 0.95, horizontal: 0.1, source: 'EOG channels', channels: { vertical: 'VEOG', horizontal: 'HEOG' } },
+          frontalGradient: 4, frontalShare: 0.6, lateralAntisymmetry: -0.8, lowFrequencyShare: 0.85, kurtosis: 8, alphaPeakHz: null, alphaProminence: 0,
+          dipole: null, erp: null, timeLocking: [],
+        }
+      : {}),
+  }),
+);
 
-export function fakeServices(saved = new Map<string, SavedReview>()): WorkbenchServices & { saved: Map<string, SavedReview>; decomposeCalls: number } {
+export function fakeServices(saved = new Map<string, SavedReview>()): WorkbenchServices & { saved: Map<string, SavedReview>; decomposeCalls: number; evidenceCalls: number } {
   const s = {
     saved,
     decomposeCalls: 0,
@@ -39,7 +49,11 @@ export function fakeServices(saved = new Map<string, SavedReview>()): WorkbenchS
       s.decomposeCalls++;
       return { decomposition, sha256: 'c'.repeat(64), json: '{}' };
     },
-    computeEvidence: async () => evidence,
+    evidenceCalls: 0,
+    computeEvidence: async () => {
+      s.evidenceCalls++;
+      return evidence;
+    },
     writeCleaned: async () => ({ bytes: new Uint8Array(0), warnings: [] }),
     demoInput: async () => ({ recordingFiles: [], decompositionFiles: [] }),
     loadReview: async (key: string) => saved.get(key) ?? null,

@@ -3,13 +3,15 @@
  * `computeEvidence` (compute-evidence.ts), read by the suggestion rules (review/suggest.ts), the impact
  * estimate (review/impact.ts), the workbench tiles and `winnow evidence`.
  *
+ * Measures only (issue 10 item 1): no verdicts. The suggestion for an aim and a threshold table is computed
+ * from this evidence by `suggestWithRules` (review/suggest.ts), so changing either never recomputes evidence.
+ *
  * Conventions: "activation" = row i of S = W (X − mean), arbitrary units. Spectra, averages and epoch
  * images are given for the component back-projected to its strongest channel (the channel with the
  * largest |A[c, i]|), i.e. activation × A[c, i], in µV; `strongestChannel.weight` is that factor, so
  * activation-unit values are recovered by dividing by it (power: by its square).
  */
 export type { Aim, ReasonCode, Suggestion, Verdict } from '../review/vocabulary.ts';
-import type { Aim, Suggestion } from '../review/vocabulary.ts';
 
 export interface SpectrumEvidence {
   /** Bin frequencies in Hz from 1 Hz to min(Nyquist, 100 Hz) (Welch bins, spacing fs / nfft). */
@@ -30,6 +32,12 @@ export interface OneOverFFit {
   readonly offset: number;
   /** Fit range in Hz. */
   readonly rangeHz: readonly [number, number];
+  /**
+   * Quality of the fit: R² of log10 P about the line over the fit range outside 7–14 Hz (spectrum-shape.ts
+   * oneOverFFitR2); 1 = perfect, ≤ 0 = the line explains nothing. NaN when it cannot be computed (always set
+   * by computeEvidence; optional for hand-built evidence).
+   */
+  readonly fitR2?: number;
 }
 
 export interface EogCorrelation {
@@ -70,8 +78,35 @@ export interface ErpEvidence {
   readonly timeLockingStrength: number;
   /** Phase-locked share before subtracting chance (0…1). */
   readonly lockedShare: number;
-  /** Permutation p-value of the locked share against shuffled event times ((1 + #≥) / (1 + nPerm)). */
+  /**
+   * Sequential permutation p-value of the locked share against shuffled event times, as computed
+   * (time-locking.ts: h / L when stopped early after h exceedances in L shuffles, else (1 + #≥) / (1 + n)).
+   */
   readonly permutationP?: number;
+  /** Shuffles actually run for `permutationP` (at most the requested number; fewer when stopped early). */
+  readonly shuffles?: number;
+}
+
+/**
+ * The time-locking test for one event type (trial_type), or one value of a chosen events.tsv column within
+ * that type (docs/methods.md §5). Every non-step type is tested, not only the epoched one.
+ */
+export interface TimeLockingTest {
+  /** The event type (trial_type value). */
+  readonly event: string;
+  /** The events.tsv column the events were narrowed by, and its value; absent for the whole type. */
+  readonly column?: string;
+  readonly value?: string;
+  /** Epochs that fitted inside the recording. */
+  readonly nEpochs: number;
+  /** Phase-locked share of single-trial variance (0…1). */
+  readonly lockedShare: number;
+  /** lockedShare minus its mean over shuffled event times (≤ 0: no more locking than chance). */
+  readonly strength: number;
+  /** Sequential permutation p-value, as computed (time-locking.ts); NaN when the test could not run. */
+  readonly p: number;
+  /** Shuffles actually run. */
+  readonly shuffles: number;
 }
 
 export interface TrialStack {
@@ -139,9 +174,14 @@ export interface ComponentEvidence {
   readonly cardiac: CardiacEvidence;
   /** Phase-locked share of activity around step events (mobile recordings), or null when no step events. */
   readonly stepLocking: { readonly share: number; readonly event: string; readonly nEpochs: number } | null;
+  /** The epoched event (EvidenceInput.epochEvent, default the most frequent non-step type): average, ITC, locking. */
   readonly erp: ErpEvidence | null;
+  /**
+   * Time-locking tested for every non-step event type (and, with EvidenceInput.lockColumn, for each value of
+   * that column within each type), in eventTypes order (most frequent first); empty without events. Always
+   * set by computeEvidence; optional for hand-built evidence.
+   */
+  readonly timeLocking?: readonly TimeLockingTest[];
   readonly trialStack: TrialStack | null;
   readonly dipole: DipoleEvidence | null;
-  /** The suggested verdict for each aim. */
-  readonly suggestions: Record<Aim, Suggestion>;
 }

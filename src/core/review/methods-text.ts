@@ -6,6 +6,7 @@ import type { Decomposition } from '../decomposition.ts';
 import type { Aim, ReasonCode } from './vocabulary.ts';
 import type { ReviewDecision } from './decisions-file.ts';
 import type { Thresholds } from './thresholds.ts';
+import type { FiredRule } from './suggest.ts';
 
 export interface MethodsTextInput {
   readonly software: string;
@@ -17,6 +18,17 @@ export interface MethodsTextInput {
   /** Variance share (0…1) per 1-based component, when evidence was computed. */
   readonly varianceShare?: (index: number) => number | null;
   readonly thresholds: Thresholds;
+  /** The rules that fired for the suggestion (suggestWithRules, same aim and thresholds) per 1-based component. */
+  readonly firedRules?: (index: number) => readonly FiredRule[] | null;
+  /** What the decomposition missed (review/residual.ts): one sentence with figures per warning. */
+  readonly residualWarnings?: readonly string[];
+}
+
+const ruleFigure = (v: number) => (!Number.isFinite(v) ? 'n/a' : Math.abs(v) >= 100 || Number.isInteger(v) ? v.toFixed(0) : v.toPrecision(2));
+
+/** "focality.share 0.91 ≥ 0.6 (common practice)": the comparison exactly as the rule read it. */
+export function firedRuleText(r: FiredRule): string {
+  return `${r.measure} ${ruleFigure(r.value)} ${r.direction} ${ruleFigure(r.threshold)} (${r.source})`;
 }
 
 const METHOD_NAMES: Record<Decomposition['method'], string> = {
@@ -81,6 +93,16 @@ export function methodsText(input: MethodsTextInput): string {
         `${kept} ${kept === 1 ? 'was' : 'were'} kept${undecided > 0 ? ` and ${undecided} left undecided ${undecided === 1 ? 'was' : 'were'} kept as well` : ''}.`,
     );
   }
+  if (input.firedRules && removed.length > 0) {
+    const lines = removed
+      .map((r) => {
+        const rules = input.firedRules!(r.index) ?? [];
+        const unique = [...new Set(rules.map(firedRuleText))];
+        return unique.length > 0 ? `${r.index}: ${unique.join(', ')}` : null;
+      })
+      .filter((x): x is string => x !== null);
+    if (lines.length > 0) parts.push(`The suggestion rules that held for the removed components were — ${lines.join('; ')}.`);
+  }
   parts.push(
     'The cleaned signal was obtained by subtracting the back-projection of the removed components, X − A_R S_R, ' +
       'which leaves the channel means and any activity outside the decomposition unchanged.',
@@ -89,5 +111,8 @@ export function methodsText(input: MethodsTextInput): string {
     `Suggested verdicts (which the reviewer could overrule) used these thresholds: ${thresholdSentence(input.thresholds)}. ` +
       'These are starting points, not validated cut-offs.',
   );
+  if (input.residualWarnings && input.residualWarnings.length > 0)
+    parts.push(`After cleaning, artefact remained that no removed component held: ${input.residualWarnings.join('; ')}.`);
+  else if (input.residualWarnings) parts.push('After cleaning, no remaining ocular, mains or heartbeat artefact was found on the cleaned channels.');
   return `${parts.join(' ')}\n`;
 }

@@ -37,8 +37,8 @@ import type { ComponentEvidence } from '../evidence/types.ts';
 import { defaultThresholds, thresholdSources, type ThresholdSource, type Thresholds } from './thresholds.ts';
 import type { Aim, ReasonCode, Suggestion } from './vocabulary.ts';
 
-/** What the rules read: the evidence without its suggestions. */
-export type SuggestionInput = Omit<ComponentEvidence, 'suggestions'>;
+/** What the rules read: the evidence (measures only; issue 10 item 1). */
+export type SuggestionInput = ComponentEvidence;
 
 export type Signature = 'blink' | 'gaze' | 'muscle' | 'cardiac' | 'mains' | 'contact' | 'movement' | 'neural';
 

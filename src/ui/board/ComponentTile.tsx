@@ -4,7 +4,7 @@
  * double click opens the focus view.
  */
 import { memo, useEffect, useRef } from 'react';
-import { selectComponentEvidence, selectDecision, useWorkbench } from '../../state/index.ts';
+import { selectComponentEvidence, selectDecision, selectSuggestion, useWorkbench } from '../../state/index.ts';
 import { TopographyMap } from '../plots/TopographyMap.tsx';
 import { SpectrumSparkline } from '../plots/SpectrumSparkline.tsx';
 import { VerdictMark } from './VerdictMark.tsx';
@@ -19,6 +19,7 @@ export interface ComponentTileProps {
 export const ComponentTile = memo(function ComponentTile({ index, positions }: ComponentTileProps) {
   const decision = useWorkbench(selectDecision(index));
   const evidence = useWorkbench(selectComponentEvidence(index));
+  const suggested = useWorkbench(selectSuggestion(index));
   const aim = useWorkbench((s) => s.aim);
   const selected = useWorkbench((s) => s.selected === index);
   const select = useWorkbench((s) => s.select);
@@ -32,8 +33,8 @@ export const ComponentTile = memo(function ComponentTile({ index, positions }: C
     if (!active || active === document.body || active.classList.contains('tile')) ref.current.focus({ preventScroll: true });
   }, [selected]);
 
-  const suggestion = evidence?.suggestions[aim] ?? null;
-  const figures = evidence ? tileFigures(evidence, aim) : [];
+  const suggestion = suggested?.suggestion ?? null;
+  const figures = evidence ? tileFigures(evidence, suggested) : [];
   const label = `Component ${index}: ${decision.verdict}${decision.reason ? `, ${decision.reason}` : ''}${
     suggestion ? `; suggested ${suggestion.verdict} (${suggestion.reason})` : ''}`;
 

@@ -4,7 +4,7 @@
  * Tab reaches all of them.
  */
 import { useEffect, useRef, useState } from 'react';
-import { selectComponentEvidence, selectDecision, useWorkbench } from '../../state/index.ts';
+import { selectDecision, selectSuggestion, useWorkbench } from '../../state/index.ts';
 import { VerdictMark } from './VerdictMark.tsx';
 import { VerdictButtons } from '../decision/VerdictButtons.tsx';
 import { ReasonSelect } from '../decision/ReasonSelect.tsx';
@@ -20,11 +20,11 @@ export function DecisionPanel() {
 
 function DecisionPanelFor({ index }: { index: number }) {
   const decision = useWorkbench(selectDecision(index));
-  const evidence = useWorkbench(selectComponentEvidence(index));
+  const suggested = useWorkbench(selectSuggestion(index));
   const aim = useWorkbench((s) => s.aim);
   const decide = useWorkbench((s) => s.decide);
   const setScreen = useWorkbench((s) => s.setScreen);
-  const suggestion = evidence?.suggestions[aim] ?? null;
+  const suggestion = suggested?.suggestion ?? null;
 
   const [note, setNote] = useState(decision.note);
   const timer = useRef<ReturnType<typeof setTimeout> | null>(null);

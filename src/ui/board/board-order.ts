@@ -11,6 +11,8 @@ import { UNDECIDED, type ReviewDecision } from '../../core/review/decisions-file
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
 import type { Aim, ReasonCode, Verdict } from '../../core/review/vocabulary.ts';
 import type { BoardFilter, BoardSort } from '../../state/types.ts';
+import type { SuggestionWithRules } from '../../core/review/suggest.ts';
+import { suggestionsFor, type SuggestionMap } from '../../state/selectors.ts';
 
 /** 0…1 share of the data's variance this component carries in what the aim measures (NaN-safe: 0). */
 export function impactOnAim(e: ComponentEvidence, aim: Aim): number {
@@ -36,13 +38,14 @@ export const IMPACT_MEANING: Record<Aim, string> = {
 const SUGGESTION_RANK: Record<Verdict, number> = { remove: 0, undecided: 1, keep: 2 };
 
 /** The reason shown for filtering: the reviewer's, else the suggestion's. */
-export function effectiveReason(d: ReviewDecision, e: ComponentEvidence | undefined, aim: Aim): ReasonCode | null {
-  return d.reason ?? e?.suggestions[aim]?.reason ?? null;
+export function effectiveReason(d: ReviewDecision, suggestion: SuggestionWithRules | null | undefined): ReasonCode | null {
+  return d.reason ?? suggestion?.suggestion.reason ?? null;
 }
 
 /**
  * 1-based component indices in board order after the filter. Ties keep component order. Components
- * without evidence sort last for evidence-based orders.
+ * without evidence sort last for evidence-based orders. `suggestions` are the current ones (selectSuggestions);
+ * by default those of `aim` with the default thresholds.
  */
 export function boardOrder(
   nComponents: number,
@@ -51,6 +54,7 @@ export function boardOrder(
   aim: Aim,
   sort: BoardSort,
   filter: BoardFilter,
+  suggestions: SuggestionMap = suggestionsFor(evidence, aim),
 ): number[] {
   const byIndex = new Map<number, ComponentEvidence>();
   for (const e of evidence ?? []) byIndex.set(e.index, e);
@@ -60,14 +64,14 @@ export function boardOrder(
     if (!e) return Infinity;
     if (sort === 'variance') return -e.varianceShare;
     if (sort === 'impact') return -impactOnAim(e, aim);
-    const s = e.suggestions[aim];
+    const s = suggestions.get(i)?.suggestion;
     return SUGGESTION_RANK[s?.verdict ?? 'undecided'] * 10 - e.varianceShare; // remove first, big first
   };
   const out: number[] = [];
   for (let i = 1; i <= nComponents; i++) {
     const d = decisions[i] ?? UNDECIDED;
     if (filter.verdict !== 'all' && d.verdict !== filter.verdict) continue;
-    if (filter.reason !== 'all' && effectiveReason(d, byIndex.get(i), aim) !== filter.reason) continue;
+    if (filter.reason !== 'all' && effectiveReason(d, suggestions.get(i)) !== filter.reason) continue;
     out.push(i);
   }
   const keys = new Map(out.map((i) => [i, keyOf(i)] as const));

@@ -3,7 +3,7 @@
  * unit. Pure: the tile only renders the list.
  */
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
-import type { Aim } from '../../core/review/vocabulary.ts';
+import type { SuggestionWithRules } from '../../core/review/suggest.ts';
 
 export interface TileFigure {
   readonly label: string;
@@ -48,10 +48,10 @@ const BY_REASON: Record<string, readonly string[]> = {
   unclear: ['rv', 'eog', 'hf'],
 };
 
-/** Three figures for the tile, chosen by the suggested reason for `aim`. */
-export function tileFigures(e: ComponentEvidence, aim: Aim): TileFigure[] {
+/** Three figures for the tile, chosen by the suggested reason (selectSuggestion: current aim and thresholds). */
+export function tileFigures(e: ComponentEvidence, suggestion: SuggestionWithRules | null): TileFigure[] {
   const all = allTileFigures(e);
-  const ids = BY_REASON[e.suggestions[aim]?.reason ?? 'unclear'] ?? BY_REASON.unclear;
+  const ids = BY_REASON[suggestion?.suggestion.reason ?? 'unclear'] ?? BY_REASON.unclear;
   return ids.map((id) => all[id]);
 }
 

@@ -1,6 +1,6 @@
 /** The board's current order (sorted and filtered), memoised on its inputs. */
 import { useMemo } from 'react';
-import { selectComponentCount, useWorkbench } from '../../state/index.ts';
+import { selectComponentCount, selectSuggestions, useWorkbench } from '../../state/index.ts';
 import { boardOrder } from './board-order.ts';
 
 export function useBoardOrder(): number[] {
@@ -10,5 +10,6 @@ export function useBoardOrder(): number[] {
   const aim = useWorkbench((s) => s.aim);
   const sort = useWorkbench((s) => s.boardSort);
   const filter = useWorkbench((s) => s.boardFilter);
-  return useMemo(() => boardOrder(n, evidence, decisions, aim, sort, filter), [n, evidence, decisions, aim, sort, filter]);
+  const suggestions = useWorkbench(selectSuggestions);
+  return useMemo(() => boardOrder(n, evidence, decisions, aim, sort, filter, suggestions), [n, evidence, decisions, aim, sort, filter, suggestions]);
 }

@@ -1,7 +1,7 @@
 /** Installs the review keys (layout/review-keys.ts) on the window for the page's lifetime. */
 import { useEffect, useRef } from 'react';
 import { REASON_CODES } from '../../core/review/vocabulary.ts';
-import { BOARD_SORTS, workbenchStore } from '../../state/index.ts';
+import { BOARD_SORTS, selectSuggestions, workbenchStore } from '../../state/index.ts';
 import { boardOrder, nextUndecided } from '../board/board-order.ts';
 import { reviewActionForKey, type KeyTarget, type ReviewAction } from './review-keys.ts';
 
@@ -43,7 +43,7 @@ export function runReviewAction(action: ReviewAction, h: ReviewKeyHandlers, targ
   const s = workbenchStore.getState();
   const reviewing = s.evidence !== null && s.decomposition !== null;
   const n = s.decomposition?.nComponents ?? 0;
-  const order = () => boardOrder(n, s.evidence, s.decisions, s.aim, s.boardSort, s.boardFilter);
+  const order = () => boardOrder(n, s.evidence, s.decisions, s.aim, s.boardSort, s.boardFilter, selectSuggestions(s));
   const move = (step: number) => {
     const o = order();
     if (o.length === 0) return;
@@ -79,8 +79,7 @@ export function runReviewAction(action: ReviewAction, h: ReviewKeyHandlers, targ
       s.decide(sel, { verdict: action });
       return true;
     case 'accept-suggestion': {
-      const e = sel === null ? undefined : s.evidence?.find((x) => x.index === sel);
-      const sug = e?.suggestions[s.aim];
+      const sug = sel === null ? undefined : selectSuggestions(s).get(sel)?.suggestion;
       if (sel === null || !sug) return false;
       s.decide(sel, { verdict: sug.verdict, reason: sug.reason });
       return true;

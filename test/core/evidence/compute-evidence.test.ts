@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { Decomposition } from '../../../src/core/decomposition.ts';
-import { computeEvidence, defaultEpochEvent } from '../../../src/core/evidence/compute-evidence.ts';
-import { mulberry32 } from '../../../src/core/evidence/time-locking.ts';
+import { computeEvidence, defaultEpochEvent, type EvidenceEvent } from '../../../src/core/evidence/compute-evidence.ts';
+import { LOCKING_MAX_SHUFFLES, LOCKING_STOP_AFTER, mulberry32 } from '../../../src/core/evidence/time-locking.ts';
 
 const fs = 256;
 const n = fs * 20;
@@ -64,14 +64,18 @@ describe('computeEvidence', () => {
     expect(r.components[0].eogCorrelation.vertical!).toBeLessThan(0.1);
   });
 
-  it('gives every component a suggestion for every aim and reports stage timings', () => {
-    for (const c of r.components) expect(Object.keys(c.suggestions).sort()).toEqual(['conservative', 'erp', 'oscillations']);
-    for (const stage of ['activations', 'spectra', 'epochs', 'dipoles', 'total']) expect(r.timings[stage]).toBeGreaterThanOrEqual(0);
+  it('returns measures only: no verdicts, and without events no event-locked evidence', () => {
+    for (const c of r.components) expect(c).not.toHaveProperty('suggestions');
     expect(r.components[0].erp).toBeNull();
+    expect(r.components[0].timeLocking).toEqual([]);
+  });
+
+  it('reports the quality of the 1/f fit', () => {
+    for (const c of r.components) expect(typeof c.oneOverF.fitR2).toBe('number');
   });
 
   it('epochs the most frequent non-step event type (BIDS trial_type) by default', () => {
-    const events = [
+    const events: EvidenceEvent[] = [
       { onset: 1, duration: 0, label: 'tone', columns: { condition: 'standard' } },
       { onset: 2, duration: 0, label: 'tone', columns: { condition: 'rare' } },
       { onset: 3, duration: 0, label: 'step', columns: { foot: 'left' } },
@@ -84,5 +88,69 @@ describe('computeEvidence', () => {
     expect(withEvents.epochEvent).toBe('tone');
     expect(withEvents.components[0].erp?.nEpochs).toBe(2);
     expect(withEvents.components[0].trialStack?.data.length).toBe(2 * withEvents.components[0].trialStack!.length);
+  });
+});
+
+describe('computeEvidence: time-locking tested for every event type (sequential permutation test)', () => {
+  // Two channels, identity decomposition, 60 s at 256 Hz. Component 1: unit Gaussian noise plus a 0.3 s
+  // half-sine of amplitude 3 after every "tone" with condition "rare" (nothing after "standard"); component 2:
+  // noise only. A third event type, "button", falls at random times; "step" events are never tested.
+  const fsL = 256;
+  const nL = 60 * fsL;
+  const rand = mulberry32(11);
+  const gauss = () => Math.sqrt(-2 * Math.log(1 - rand())) * Math.cos(2 * Math.PI * rand());
+  const events: EvidenceEvent[] = [];
+  for (let k = 0; k < 56; k++) events.push({ onset: 1 + k, duration: 0, label: 'tone', columns: { condition: k % 2 === 0 ? 'rare' : 'standard' } });
+  for (let k = 0; k < 20; k++) events.push({ onset: 1.5 + 2.8 * k + 0.3 * rand(), duration: 0, label: 'button' });
+  for (let k = 0; k < 12; k++) events.push({ onset: 2.25 + 4 * k, duration: 0, label: 'step' });
+  const a1 = Float64Array.from({ length: nL }, () => gauss());
+  for (const e of events)
+    if (e.columns?.condition === 'rare') {
+      const at = Math.round(e.onset * fsL);
+      for (let j = 0; j < 0.3 * fsL; j++) a1[at + j] += 3 * Math.sin((Math.PI * j) / (0.3 * fsL));
+    }
+  const data = new Float32Array(2 * nL);
+  for (let t = 0; t < nL; t++) {
+    data[t] = a1[t];
+    data[nL + t] = gauss();
+  }
+  const identity = Float64Array.from([1, 0, 0, 1]);
+  const decomposition: Decomposition = { channels: ['Cz', 'Pz'], nChannels: 2, nComponents: 2, mixing: identity, unmixing: identity, channelMeans: null, method: 'imported', rank: 2, iterations: 0, converged: true, preprocessing: { filter: 'none', highpassHz: null, lowpassHz: null, reference: 'as recorded', excludedChannels: [] }, recordingSha256: '' };
+  const r = computeEvidence({ data, nChannels: 2, nSamples: nL, sampleRate: fsL, labels: ['Cz', 'Pz'], decomposition, dipoleFit: null, events, lockColumn: 'condition' });
+  const [locked, noise] = r.components;
+  const find = (c: typeof locked, event: string, value?: string) => c.timeLocking!.find((t) => t.event === event && t.value === value)!;
+
+  it('tests every non-step type, most frequent first, and each value of the chosen column within it', () => {
+    expect(locked.timeLocking!.map((t) => [t.event, t.column ?? null, t.value ?? null])).toEqual([
+      ['tone', null, null],
+      ['tone', 'condition', 'rare'],
+      ['tone', 'condition', 'standard'],
+      ['button', null, null],
+    ]);
+    expect(find(locked, 'tone', 'rare').nEpochs).toBe(28);
+  });
+
+  it('finds the rare condition locked with p at the floor of 999 shuffles, 1 / (1 + 999) (Phipson & Smyth 2010)', () => {
+    const rare = find(locked, 'tone', 'rare');
+    expect(rare.shuffles).toBe(LOCKING_MAX_SHUFFLES);
+    expect(rare.p).toBeCloseTo(1 / (1 + LOCKING_MAX_SHUFFLES), 12);
+    expect(rare.strength).toBeGreaterThan(0.05);
+    expect(find(locked, 'tone', 'rare').strength).toBeGreaterThan(find(locked, 'tone').strength);
+  });
+
+  it('stops early where nothing is locked (Besag & Clifford 1991): p = h / L after h exceedances', () => {
+    for (const t of [find(locked, 'tone', 'standard'), find(locked, 'button'), ...noise.timeLocking!]) {
+      expect(t.shuffles).toBeLessThan(LOCKING_MAX_SHUFFLES);
+      expect(t.p).toBeCloseTo(LOCKING_STOP_AFTER / t.shuffles, 12);
+      expect(t.p).toBeGreaterThan(0.01);
+    }
+  });
+
+  it('keeps the ERP for the epoched type and carries its shuffle count', () => {
+    expect(r.epochEvent).toBe('tone');
+    expect(locked.erp!.event).toBe('tone');
+    expect(locked.erp!.nEpochs).toBe(56);
+    expect(locked.erp!.shuffles).toBe(find(locked, 'tone').shuffles);
+    expect(locked.erp!.permutationP).toBe(find(locked, 'tone').p);
   });
 });

@@ -13,6 +13,7 @@ import type { Decomposition } from '../../../src/core/decomposition.ts';
 import { computeEvidence, type EvidenceResult } from '../../../src/core/evidence/compute-evidence.ts';
 import { lockedShare } from '../../../src/core/evidence/time-locking.ts';
 import { AIMS } from '../../../src/core/review/vocabulary.ts';
+import { suggestAllAims } from '../../../src/core/review/suggest.ts';
 import { extractEpochs } from '../../../src/core/signal/epochs.ts';
 import type { SimulatedSession, TrueSource } from '../../../src/core/simulate/truth.ts';
 
@@ -97,30 +98,32 @@ export function expectClassVerdicts(s: SimulatedSession, dec: Decomposition, res
     const { component, r } = matchSource(src, dec);
     if (r < minR) continue;
     const e = result.components[component];
+    // Suggestions are computed from the evidence (issue 10 item 1), here with the default thresholds.
+    const suggestions = suggestAllAims(e);
     const where = `seed ${s.seed}, ${s.labels.length} ch, source ${src.id} → component ${component + 1} (map r = ${r.toFixed(2)})`;
-    const say = (aim: string) => `${where}, ${aim}: ${JSON.stringify(e.suggestions[aim as 'erp'])}`;
+    const say = (aim: string) => `${where}, ${aim}: ${JSON.stringify(suggestions[aim as 'erp'])}`;
     if (src.class === 'blink' || src.class === 'gaze') {
-      for (const aim of AIMS) expect(e.suggestions[aim].verdict, say(aim)).toBe('remove');
-      for (const aim of AIMS) expect(['blink', 'gaze'], say(aim)).toContain(e.suggestions[aim].reason);
+      for (const aim of AIMS) expect(suggestions[aim].verdict, say(aim)).toBe('remove');
+      for (const aim of AIMS) expect(['blink', 'gaze'], say(aim)).toContain(suggestions[aim].reason);
       count(src.class);
     } else if (src.class === 'neural' && (/^(alpha|mu)-/.test(src.id) || eventLockedNeural(s, src))) {
-      for (const aim of AIMS) expect(e.suggestions[aim].verdict, say(aim)).toBe('keep');
+      for (const aim of AIMS) expect(suggestions[aim].verdict, say(aim)).toBe('keep');
       count(/^(alpha|mu)-/.test(src.id) ? 'rhythm' : 'event-locked');
     } else if (src.class === 'muscle') {
       if (e.erp && e.erp.permutationP !== undefined && e.erp.permutationP <= 0.05 && e.erp.timeLockingStrength >= 0.02) continue; // time-locked
       // A map concentrated on one electrode reads as a poor contact whatever its spectrum (issue 10 item 2;
       // docs/suggestion-rules.md): such a muscle source is removed as contact for every aim.
       if (e.focality.share >= 0.6) {
-        for (const aim of AIMS) expect(e.suggestions[aim], say(aim)).toMatchObject({ verdict: 'remove', reason: 'contact' });
+        for (const aim of AIMS) expect(suggestions[aim], say(aim)).toMatchObject({ verdict: 'remove', reason: 'contact' });
         count('muscle');
         continue;
       }
-      expect(e.suggestions.erp.verdict, say('erp')).toBe('keep');
-      expect(e.suggestions.oscillations.verdict, say('oscillations')).toBe('remove');
-      expect(e.suggestions.oscillations.reason, say('oscillations')).toBe('muscle');
+      expect(suggestions.erp.verdict, say('erp')).toBe('keep');
+      expect(suggestions.oscillations.verdict, say('oscillations')).toBe('remove');
+      expect(suggestions.oscillations.reason, say('oscillations')).toBe('muscle');
       count('muscle');
     } else if (src.class === 'contact') {
-      for (const aim of AIMS) expect(e.suggestions[aim], say(aim)).toMatchObject({ verdict: 'remove', reason: 'contact' });
+      for (const aim of AIMS) expect(suggestions[aim], say(aim)).toMatchObject({ verdict: 'remove', reason: 'contact' });
       count('contact');
     }
   }

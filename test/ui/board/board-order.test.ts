@@ -1,14 +1,15 @@
 import { describe, expect, it } from 'vitest';
 import { boardOrder, impactOnAim, nextUndecided } from '../../../src/ui/board/board-order.ts';
 import type { ComponentEvidence } from '../../../src/core/evidence/types.ts';
+import type { SuggestionWithRules } from '../../../src/core/review/suggest.ts';
+import type { ReasonCode, Verdict } from '../../../src/core/review/vocabulary.ts';
 
-const ev = (index: number, varianceShare: number, lockedShare: number, lowFrequencyShare: number, verdict: 'keep' | 'remove', reason: string) =>
-  ({
-    index, varianceShare, lowFrequencyShare, erp: { lockedShare },
-    suggestions: { erp: { verdict, reason, because: [] }, oscillations: { verdict, reason, because: [] }, conservative: { verdict: 'keep', reason: 'neural', because: [] } },
-  }) as unknown as ComponentEvidence;
-
-const evidence = [ev(1, 0.3, 0.01, 0.9, 'remove', 'blink'), ev(2, 0.2, 0.5, 0.2, 'keep', 'neural'), ev(3, 0.1, 0.2, 0.1, 'remove', 'muscle'), ev(4, 0.4, 0, 0.5, 'keep', 'neural')];
+const ev = (index: number, varianceShare: number, lockedShare: number, lowFrequencyShare: number) =>
+  ({ index, varianceShare, lowFrequencyShare, erp: { lockedShare } }) as unknown as ComponentEvidence;
+const evidence = [ev(1, 0.3, 0.01, 0.9), ev(2, 0.2, 0.5, 0.2), ev(3, 0.1, 0.2, 0.1), ev(4, 0.4, 0, 0.5)];
+// The current suggestions (what selectSuggestions gives), by component.
+const s = (verdict: Verdict, reason: ReasonCode): SuggestionWithRules => ({ suggestion: { verdict, reason, because: [] }, rules: [] });
+const suggestions = new Map([[1, s('remove', 'blink')], [2, s('keep', 'neural')], [3, s('remove', 'muscle')], [4, s('keep', 'neural')]]);
 const all = { verdict: 'all', reason: 'all' } as const;
 
 describe('impactOnAim', () => {
@@ -21,19 +22,24 @@ describe('impactOnAim', () => {
 
 describe('boardOrder', () => {
   it('sorts by component number, variance share, impact and suggestion', () => {
-    expect(boardOrder(4, evidence, {}, 'erp', 'index', all)).toEqual([1, 2, 3, 4]);
-    expect(boardOrder(4, evidence, {}, 'erp', 'variance', all)).toEqual([4, 1, 2, 3]);
+    expect(boardOrder(4, evidence, {}, 'erp', 'index', all, suggestions)).toEqual([1, 2, 3, 4]);
+    expect(boardOrder(4, evidence, {}, 'erp', 'variance', all, suggestions)).toEqual([4, 1, 2, 3]);
     // erp impact: 0.003, 0.1, 0.02, 0
-    expect(boardOrder(4, evidence, {}, 'erp', 'impact', all)).toEqual([2, 3, 1, 4]);
+    expect(boardOrder(4, evidence, {}, 'erp', 'impact', all, suggestions)).toEqual([2, 3, 1, 4]);
     // remove first (larger variance first), then keep
-    expect(boardOrder(4, evidence, {}, 'erp', 'suggestion', all)).toEqual([1, 3, 4, 2]);
+    expect(boardOrder(4, evidence, {}, 'erp', 'suggestion', all, suggestions)).toEqual([1, 3, 4, 2]);
   });
 
   it('filters by verdict and by reason (the reviewer’s, else the suggested one)', () => {
     const decisions = { 2: { verdict: 'remove' as const, reason: 'muscle' as const, note: '' } };
-    expect(boardOrder(4, evidence, decisions, 'erp', 'index', { verdict: 'remove', reason: 'all' })).toEqual([2]);
-    expect(boardOrder(4, evidence, decisions, 'erp', 'index', { verdict: 'undecided', reason: 'all' })).toEqual([1, 3, 4]);
-    expect(boardOrder(4, evidence, decisions, 'erp', 'index', { verdict: 'all', reason: 'muscle' })).toEqual([2, 3]);
+    expect(boardOrder(4, evidence, decisions, 'erp', 'index', { verdict: 'remove', reason: 'all' }, suggestions)).toEqual([2]);
+    expect(boardOrder(4, evidence, decisions, 'erp', 'index', { verdict: 'undecided', reason: 'all' }, suggestions)).toEqual([1, 3, 4]);
+    expect(boardOrder(4, evidence, decisions, 'erp', 'index', { verdict: 'all', reason: 'muscle' }, suggestions)).toEqual([2, 3]);
+  });
+
+  it('sorts by the suggestions it is given: other suggestions, other order, same evidence', () => {
+    const flipped = new Map([[1, s('keep', 'neural')], [2, s('remove', 'muscle')], [3, s('keep', 'neural')], [4, s('remove', 'contact')]]);
+    expect(boardOrder(4, evidence, {}, 'erp', 'suggestion', all, flipped)).toEqual([4, 2, 1, 3]);
   });
 
   it('lists components without evidence in number order', () => {

@@ -8,6 +8,7 @@ import { FocusView } from '../../../src/ui/focus/FocusView.tsx';
 import { DecisionControls } from '../../../src/ui/focus/DecisionControls.tsx';
 import { SuggestionReasons } from '../../../src/ui/focus/SuggestionReasons.tsx';
 import { syntheticEvidence } from '../plots/synthetic-evidence.ts';
+import { suggestWithRules } from '../../../src/core/review/suggest.ts';
 
 describe('FocusView', () => {
   it('renders its test hook and a hint before a participant is open', () => {
@@ -32,9 +33,14 @@ describe('DecisionControls', () => {
 });
 
 describe('SuggestionReasons', () => {
-  it('lists every reason of the suggestion for the aim', () => {
-    const html = renderToStaticMarkup(<SuggestionReasons evidence={syntheticEvidence()} aim="erp" />);
-    expect(html).toContain('<li>dipolar map (RV 4 %)</li>');
-    expect(html).toContain('<li>alpha peak at 10.0 Hz</li>');
+  it('lists every reason of the suggestion (suggestWithRules, computed from the evidence) for the aim', () => {
+    const suggested = suggestWithRules(syntheticEvidence(), 'erp');
+    const html = renderToStaticMarkup(<SuggestionReasons index={1} suggestion={suggested} aim="erp" />);
+    expect(suggested.suggestion.because.length).toBeGreaterThan(0);
+    for (const b of suggested.suggestion.because) expect(html).toContain(`<li>${b.replace(/&/g, '&amp;').replace(/"/g, '&quot;')}</li>`);
+    expect(html).toContain(`(${suggested.suggestion.reason})`);
+  });
+  it('says so when there is no suggestion', () => {
+    expect(renderToStaticMarkup(<SuggestionReasons index={1} suggestion={null} aim="erp" />)).toContain('No suggestion');
   });
 });
