@@ -224,6 +224,23 @@ function mainRateOf(channels: readonly ChannelInfo[]): number {
   return mainRate;
 }
 
+/** Reads and parses one sidecar; when it parses, its warnings join `warnings` and it is listed in `sidecars`. */
+async function parseSidecar<T>(
+  side: ByteSource,
+  kind: PairedSidecar['kind'],
+  parse: (text: string, fileName: string) => ParseResult<T>,
+  warnings: string[],
+  sidecars: PairedSidecar[],
+): Promise<ParseResult<T>> {
+  const name = byteSourceBaseName(side.name);
+  const parsed = parse(await readText(side), name);
+  if (parsed.ok) {
+    warnings.push(...parsed.warnings);
+    sidecars.push({ kind, file: name });
+  }
+  return parsed;
+}
+
 /** Reads the header, annotations and sidecars of the recording in `files` (no samples). Module comment: the rules. */
 export async function openRecording(files: ByteSource[], opts: LoadRecordingOptions = {}): Promise<ParseResult<OpenedRecording>> {
   const picked = pickRecording(files, opts.recording);
@@ -245,14 +262,11 @@ export async function openRecording(files: ByteSource[], opts: LoadRecordingOpti
   // channels.tsv: types and status
   const chSide = given.channels ?? pickSidecar(files, ent, 'channels', '.tsv');
   if (chSide) {
-    const name = byteSourceBaseName(chSide.name);
-    const parsed = parseChannelsTsv(await readText(chSide), name);
+    const parsed = await parseSidecar(chSide, 'channels', parseChannelsTsv, warnings, sidecars);
     if (!parsed.ok) return parsed;
-    warnings.push(...parsed.warnings);
-    sidecars.push({ kind: 'channels', file: name });
     const refs = [...new Set(parsed.value.filter((r) => r.type === 'EEG' && r.reference).map((r) => r.reference as string))];
     channelsReference = refs.length ? refs.join('; ') : null;
-    const applied = applyChannelsTsv(channels, parsed.value, name, recName);
+    const applied = applyChannelsTsv(channels, parsed.value, byteSourceBaseName(chSide.name), recName);
     if (!applied.ok) return applied;
     channels = applied.value;
   }
@@ -261,11 +275,8 @@ export async function openRecording(files: ByteSource[], opts: LoadRecordingOpti
   let events: RecordingEvent[] = [...info.events];
   const evSide = given.events ?? pickSidecar(files, ent, 'events', '.tsv');
   if (evSide) {
-    const name = byteSourceBaseName(evSide.name);
-    const parsed = parseEventsTsv(await readText(evSide), name);
+    const parsed = await parseSidecar(evSide, 'events', parseEventsTsv, warnings, sidecars);
     if (!parsed.ok) return parsed;
-    warnings.push(...parsed.warnings);
-    sidecars.push({ kind: 'events', file: name });
     const fromTsv = parsed.value;
     events = events.filter(
       (a) => a.source !== 'annotation' || !fromTsv.some((t) => t.label === a.label && Math.abs(t.onset - a.onset) <= 1e-3),

@@ -1,23 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { matchDecompositionToRecording } from '../../../src/core/formats/decomposition-match.ts';
-import type { Decomposition } from '../../../src/core/decomposition.ts';
-
-// A 3-channel, 2-component decomposition with W A = I (A has orthonormal columns, W = Aᵀ).
-const s = Math.SQRT1_2;
-const base: Decomposition = {
-  channels: ['Fz', 'Cz', 'Pz'],
-  nChannels: 3,
-  nComponents: 2,
-  mixing: Float64Array.from([s, 0, s, 0, 0, 1]),
-  unmixing: Float64Array.from([s, s, 0, 0, 0, 1]),
-  channelMeans: Float64Array.from([1.5, -2.25, 0.1]),
-  method: 'picard',
-  rank: 3,
-  iterations: 17,
-  converged: true,
-  preprocessing: { filter: 'high-pass 1 Hz', highpassHz: 1, lowpassHz: null, reference: 'as recorded', excludedChannels: ['HEOG'] },
-  recordingSha256: 'ab'.repeat(32),
-};
+import { base } from './decomposition-fixture.ts';
 
 describe('matchDecompositionToRecording', () => {
   it('accepts a decomposition whose channels are all in the recording and warns about the unused ones', () => {
