@@ -17,6 +17,7 @@ export const commands: Record<string, { summary: string; load: () => Promise<{ r
   batch: { summary: 'decompose and compute evidence over a BIDS dataset, or gather a study table', load: () => import('./batch.ts') },
   'simulate-study': { summary: 'simulate a BIDS dataset of several participants', load: () => import('./simulate-study.ts') },
   agree: { summary: "agreement (Cohen's kappa) between two reviewers' decisions files", load: () => import('./agree.ts') },
+  validate: { summary: 'score the suggestions on simulated recordings with known sources', load: () => import('./validate.ts') },
 };
 
 function usage(): string {
