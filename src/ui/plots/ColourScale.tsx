@@ -4,7 +4,7 @@
  * page never clash).
  */
 import { scaleLinear, format } from 'd3';
-import { divergingColor, sequentialColor } from '../../core/headmodel/palette.ts';
+import { divergingColor, sequentialColor } from './palette.ts';
 import { colourTicks, sequentialTicks } from './colour-scale.ts';
 
 export interface ColourScaleProps {

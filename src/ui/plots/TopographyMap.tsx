@@ -6,7 +6,7 @@
  * as one SVG. Polarity of a component map is arbitrary; the caller says so near the map.
  */
 import { useMemo } from 'react';
-import { divergingColor, sequentialColor } from '../../core/headmodel/palette.ts';
+import { divergingColor, sequentialColor } from './palette.ts';
 import { gridToRgba, sequentialLimit, symmetricLimit } from './colour-scale.ts';
 import { headOutlinePaths } from './head-outline.ts';
 import { rgbaToDataUrl } from './raster-image.ts';

@@ -5,7 +5,7 @@
  */
 import { useMemo } from 'react';
 import { scaleLinear } from 'd3';
-import { divergingColor } from '../../core/headmodel/palette.ts';
+import { divergingColor } from './palette.ts';
 import { Axis } from './Axis.tsx';
 import { ColourScale } from './ColourScale.tsx';
 import { gridToRgba } from './colour-scale.ts';

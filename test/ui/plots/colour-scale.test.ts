@@ -57,7 +57,7 @@ describe('sequential scale for shares (0 … max)', () => {
     expect(sequentialLimit([NaN])).toBe(1);
   });
   it('darkens monotonically from 0 to max, so the order reads in greyscale (CIELAB L*, CIE 15:2004)', async () => {
-    const { sequentialLab, sequentialColor } = await import('../../../src/core/headmodel/palette.ts');
+    const { sequentialLab, sequentialColor } = await import('../../../src/ui/plots/palette.ts');
     let last = Infinity;
     for (let i = 0; i <= 10; i++) {
       const [l] = sequentialLab(i / 10);

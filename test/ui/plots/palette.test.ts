@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { divergingColor, divergingColorTable, divergingScaleStops, paletteCss } from '../../../src/core/headmodel/palette.ts';
+import { divergingColor, divergingColorTable, divergingScaleStops, paletteCss } from '../../../src/ui/plots/palette.ts';
 
 /** CIE L* of an sRGB colour (IEC 61966-2-1 transfer curve, D65) — an independent check of lightness. */
 function lightness([r, g, b]: number[]): number {
