@@ -36,6 +36,5 @@ describe('mergeEvidenceResults', () => {
     const merged = mergeEvidenceResults(splitComponentRanges(k, 2).map((r) => computeEvidence({ ...input, componentRange: r })).reverse());
     expect(merged.components.map((c) => c.index)).toEqual([1, 2, 3, 4, 5]);
     expect(merged.components).toEqual(whole.components);
-    expect(merged.timings.cpu).toBeGreaterThan(0);
   });
 });
