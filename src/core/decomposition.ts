@@ -31,4 +31,6 @@ export interface Decomposition {
   readonly converged: boolean;
   readonly preprocessing: DecompositionPreprocessing;
   readonly recordingSha256: string;
+  /** Seed of the run's randomness, when known (computed here, or recorded in the file read). */
+  readonly seed?: number;
 }

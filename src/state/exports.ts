@@ -60,6 +60,7 @@ export function methodsTextFromState(s: WorkbenchState, residualWarnings?: reado
     recordingFileName: s.recording.fileName,
     recordingSha256: s.recordingSha256 ?? 'unknown',
     decomposition: s.decomposition,
+    recordingReference: s.recording.reference ?? null,
     aim: s.aim,
     decisions: s.decisions,
     varianceShare: (i) => byIndex.get(i)?.varianceShare ?? null,

@@ -63,7 +63,7 @@ export function serializeDecomposition(d: Decomposition, extras: DecompositionEx
     converged: d.converged,
     preprocessing: d.preprocessing,
     recordingSha256: d.recordingSha256,
-    ...(extras.seed !== undefined ? { seed: extras.seed } : {}),
+    ...(extras.seed !== undefined ? { seed: extras.seed } : d.seed !== undefined ? { seed: d.seed } : {}),
     ...(extras.rankReason !== undefined ? { rankReason: extras.rankReason } : {}),
     ...(extras.varianceShare !== undefined ? { varianceShare: Array.from(extras.varianceShare) } : {}),
     ...(extras.warnings !== undefined ? { warnings: extras.warnings } : {}),
@@ -206,6 +206,7 @@ export function parseDecompositionJson(text: string, fileName: string): ParseRes
       converged: typeof o.converged === 'boolean' ? o.converged : true,
       preprocessing,
       recordingSha256: typeof o.recordingSha256 === 'string' ? o.recordingSha256 : '',
+      ...(typeof o.seed === 'number' && Number.isFinite(o.seed) ? { seed: o.seed } : {}),
     },
     warnings,
   );

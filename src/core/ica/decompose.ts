@@ -244,6 +244,7 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
       excludedChannels: excluded.map((e) => e.label),
     },
     recordingSha256: '',
+    seed,
   };
   stage = 'done';
   etaSeconds = 0;

@@ -12,7 +12,9 @@ export interface MethodsTextInput {
   readonly software: string;
   readonly recordingFileName: string;
   readonly recordingSha256: string;
-  readonly decomposition: Pick<Decomposition, 'method' | 'nComponents' | 'nChannels' | 'rank' | 'converged' | 'iterations' | 'preprocessing'>;
+  readonly decomposition: Pick<Decomposition, 'method' | 'nComponents' | 'nChannels' | 'rank' | 'converged' | 'iterations' | 'preprocessing' | 'seed'>;
+  /** The recording's reference as its sidecars state it (channels.tsv `reference`, *_eeg.json EEGReference). */
+  readonly recordingReference?: { readonly channels: string | null; readonly eegJson: string | null } | null;
   readonly aim: Aim;
   readonly decisions: Readonly<Record<number, ReviewDecision>>;
   /** Variance share (0…1) per 1-based component, when evidence was computed. */
@@ -71,13 +73,18 @@ export function methodsText(input: MethodsTextInput): string {
     else if (dec?.verdict === 'keep') kept++;
   }
   const undecided = d.nComponents - removed.length - kept;
-  const filter = pre.highpassHz !== null ? `after high-pass filtering at ${pre.highpassHz} Hz (${pre.filter})` : `on data filtered as follows: ${pre.filter}`;
+  // pre.filter already names the high-pass ("high-pass 1 Hz, …"): say it once.
+  const filter = pre.highpassHz !== null && !/high-pass/i.test(pre.filter) ? `after high-pass filtering at ${pre.highpassHz} Hz (${pre.filter})` : `after filtering (${pre.filter})`;
+  const rr = input.recordingReference;
+  const statedRef = rr ? (rr.channels ?? rr.eegJson) : null;
+  const refText = statedRef ? `the recording's reference was ${statedRef} (${rr?.channels ? 'channels.tsv' : 'EEGReference in the *_eeg.json'})` : "the recording's sidecars did not state its reference";
+  const seedText = d.method === 'imported' ? '' : d.seed !== undefined ? ` with random seed ${d.seed}` : ' (random seed not recorded)';
   const parts: string[] = [];
   parts.push(
     `The recording ${input.recordingFileName} (SHA-256 ${input.recordingSha256}) was decomposed into ${d.nComponents} components ` +
       `from ${d.nChannels} channels (rank ${d.rank}) by ${METHOD_NAMES[d.method]} ${filter}, reference ${pre.reference}` +
       `${pre.excludedChannels.length > 0 ? `, excluding ${pre.excludedChannels.join(', ')}` : ''}` +
-      `${d.method !== 'imported' ? `; the algorithm ${d.converged ? 'converged' : 'stopped without converging'} after ${d.iterations} iterations` : ''}.`,
+      `${d.method !== 'imported' ? `; the algorithm ran${seedText} and ${d.converged ? 'converged' : 'stopped without converging'} after ${d.iterations} iterations` : ''}; ${refText}.`,
   );
   parts.push(`Each component was reviewed in ${input.software} for ${AIM_PHRASES[input.aim]}.`);
   if (removed.length === 0) {
