@@ -1,4 +1,19 @@
 import { defineConfig } from '@playwright/test';
+import { execFileSync } from 'node:child_process';
+
+/**
+ * A free port for the preview server, so several test runs on one machine never collide. Found once, by the
+ * config's first evaluation (in the runner), and handed to the workers through the environment: they
+ * evaluate this file again and must see the same port.
+ */
+function freePort(): number {
+  const script = "const s=require('node:net').createServer();s.listen(0,'127.0.0.1',()=>{process.stdout.write(String(s.address().port));s.close();});";
+  return Number(execFileSync(process.execPath, ['-e', script], { encoding: 'utf8' }).trim());
+}
+process.env.WINNOW_E2E_PORT ??= String(freePort());
+const port = Number(process.env.WINNOW_E2E_PORT);
+/** The page's origin, for specs that check no request leaves it. */
+process.env.WINNOW_E2E_ORIGIN = `http://127.0.0.1:${port}`;
 
 /** Playwright drives Debian's Chromium; it never downloads a browser of its own. */
 const executablePath = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
@@ -11,7 +26,7 @@ export default defineConfig({
   workers: 1,
   reporter: [['list']],
   use: {
-    baseURL: 'http://127.0.0.1:4173',
+    baseURL: process.env.WINNOW_E2E_ORIGIN,
     headless: true,
     launchOptions: {
       executablePath,
@@ -27,8 +42,8 @@ export default defineConfig({
     },
   },
   webServer: {
-    command: 'npx vite preview --host 127.0.0.1 --port 4173 --strictPort',
-    url: 'http://127.0.0.1:4173',
+    command: `npx vite preview --host 127.0.0.1 --port ${port} --strictPort`,
+    url: process.env.WINNOW_E2E_ORIGIN,
     reuseExistingServer: !process.env.CI,
     timeout: 60_000,
   },

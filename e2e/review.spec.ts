@@ -6,7 +6,7 @@
 import { expect, test, type Page } from '@playwright/test';
 import { readFile } from 'node:fs/promises';
 
-const ORIGIN = 'http://127.0.0.1:4173';
+const ORIGIN = process.env.WINNOW_E2E_ORIGIN ?? 'http://127.0.0.1:4173';
 /** Demo load = read + decomposition + evidence in the browser. */
 const LOAD_TIMEOUT = 75_000;
 
