@@ -9,7 +9,7 @@
  * weight vector v gives the cleaned region signal for any removed set R, whatever the number of
  * components. Both signals then go through Welch's method (src/core/signal/welch.ts; Welch 1967).
  */
-import { regionMixing } from './preview-projection.ts';
+import { regionMixing } from './region-erp.ts';
 import { createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength } from '../signal/welch.ts';
 
 export interface WholeRegionSpectra {

@@ -22,15 +22,8 @@
 import { useEffect, useMemo, useRef, useState } from 'react';
 import type { Decomposition } from '../../core/decomposition.ts';
 import type { LoadedRecording } from '../../core/recording.ts';
-import {
-  applyRemovedSet,
-  type RegionErpPlan,
-  regionErpAfter,
-  regionErpPlan,
-  regionMean,
-  removedVarianceShare,
-  windowChecksum,
-} from '../../core/review/preview-projection.ts';
+import { applyRemovedSet, removedVarianceShare, windowChecksum } from '../../core/review/preview-projection.ts';
+import { type RegionErpPlan, regionErpAfter, regionErpPlan, regionMean } from '../../core/review/region-erp.ts';
 import { useWorkbench, workbenchStore, type ReviewDecision } from '../../state/index.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { decompositionMontage } from '../plots/montage-positions.ts';
@@ -179,10 +172,17 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
     let stale = false;
     const key = [recording, fs, rows, roiRows, decomposition, k, eventLabel];
     const timer = setTimeout(() => {
-      const plan = regionErpPlan(
-        recording.signals.data, recording.signals.nSamples, fs, rows, roiRows,
-        decomposition.unmixing, decomposition.mixing, k, eventOnsets(recording.events, eventLabel),
-      );
+      const plan = regionErpPlan({
+        data: recording.signals.data,
+        nSamples: recording.signals.nSamples,
+        sampleRate: fs,
+        rows,
+        roi: roiRows,
+        unmixing: decomposition.unmixing,
+        mixing: decomposition.mixing,
+        nComponents: k,
+        onsetsS: eventOnsets(recording.events, eventLabel),
+      });
       if (!stale) setErp({ key, plan });
     }, 0);
     return () => {
