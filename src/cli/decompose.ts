@@ -20,6 +20,7 @@ import { decompositionExtrasOf, serializeDecomposition } from '../core/formats/d
 import { decomposeInputOf } from '../core/recording-input.ts';
 import { decomposeRecording, type DecomposeProgress } from '../core/ica/decompose.ts';
 import { createIcaThreads, type IcaThreads, type PassHelperSetup } from '../core/ica/pass-threads.ts';
+import { installNodeKernels } from './wasm-kernels.ts';
 
 /**
  * A worker_threads helper for Picard's data passes (src/core/ica/pass-threads.ts), for the CLI and the bench.
@@ -128,6 +129,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     const shaPromise = sha256OfFile(path);
 
     let result;
+    const kernels = installNodeKernels(); // WebAssembly SIMD kernels (src/core/kernels); helpers get the same
+    if (kernels.reason) io.stderr(`decompose: plain-JS kernels (${kernels.reason})\n`);
     const helper = method === 'picard' && nThreads === 2 ? await createNodeIcaThreads() : null;
     try {
       result = decomposeRecording(

@@ -41,14 +41,16 @@ export interface DecompositionExtras {
   readonly varianceShare?: ArrayLike<number>;
   readonly warnings?: readonly string[];
   readonly seed?: number;
+  /** Picard's final max |antisymmetric relative gradient| (null for Infomax); iterations are in the contract fields. */
+  readonly finalGradientNorm?: number | null;
 }
 
 /** The run details of a decomposition engine result (src/core/ica/decompose.ts) and the seed it ran with. */
 export function decompositionExtrasOf(
-  result: { readonly rankReason: string; readonly varianceShare: ArrayLike<number>; readonly warnings: readonly string[] },
+  result: { readonly rankReason: string; readonly varianceShare: ArrayLike<number>; readonly warnings: readonly string[]; readonly finalGradientNorm?: number | null },
   seed: number,
 ): DecompositionExtras {
-  return { rankReason: result.rankReason, varianceShare: result.varianceShare, warnings: result.warnings, seed };
+  return { rankReason: result.rankReason, varianceShare: result.varianceShare, warnings: result.warnings, seed, ...(result.finalGradientNorm !== undefined ? { finalGradientNorm: result.finalGradientNorm } : {}) };
 }
 
 /** Our JSON for a decomposition (pretty-printed with one matrix row per line). */
@@ -67,6 +69,7 @@ export function serializeDecomposition(d: Decomposition, extras: DecompositionEx
     ...(extras.rankReason !== undefined ? { rankReason: extras.rankReason } : {}),
     ...(extras.varianceShare !== undefined ? { varianceShare: Array.from(extras.varianceShare) } : {}),
     ...(extras.warnings !== undefined ? { warnings: extras.warnings } : {}),
+    ...(extras.finalGradientNorm !== undefined ? { finalGradientNorm: extras.finalGradientNorm } : {}),
     channelMeans: d.channelMeans ? Array.from(d.channelMeans) : null,
     mixing: rows(d.mixing, d.nChannels, d.nComponents),
     unmixing: rows(d.unmixing, d.nComponents, d.nChannels),

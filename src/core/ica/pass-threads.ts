@@ -17,6 +17,8 @@
  * evaluator sums the helper's half itself and later evaluators stop posting (one thread, never a hang).
  */
 import { accumulatePassSums, clearPassSums, createPassScratch, createPassSums, type PassEvaluator } from './picard-pass.ts';
+import { installedKernelModule, installKernelModule } from '../kernels/kernels.ts';
+import type { WasmModuleHandle } from '../kernels/wasm-kernels.ts';
 
 const IDLE = 0;
 const WORK = 1;
@@ -35,11 +37,14 @@ export interface PassHelperSetup {
   readonly weights: Float64Array;
   /** [logcosh (k), sech2 (k), gTanh (k²)] written by the helper. */
   readonly sums: Float64Array;
+  /** The caller's compiled kernel module (src/core/kernels), so the helper runs the same kernels; null: plain JS. */
+  readonly kernelModule?: WasmModuleHandle | null;
 }
 
 /** The helper's loop: blocks between passes; returns when told to stop. */
 export function runPassHelper(setup: PassHelperSetup): void {
   const { Z, k, T, t0, t1, control, weights, sums } = setup;
+  if (setup.kernelModule !== undefined) installKernelModule(setup.kernelModule);
   const out = createPassSums(k);
   const scratch = createPassScratch(k);
   if (control.length > 1) {
@@ -95,7 +100,7 @@ export function createIcaThreads(post: (setup: PassHelperSetup) => void, helperS
       const scratch = createPassScratch(k);
       let useHelper = helperResponsive !== false;
       let acknowledged = false;
-      if (useHelper) post({ Z, k, T, t0: split, t1: T, control, weights, sums });
+      if (useHelper) post({ Z, k, T, t0: split, t1: T, control, weights, sums, kernelModule: installedKernelModule() });
       let released = false;
       const evaluate = ((W, out, poll) => {
         if (released) throw new RangeError('evaluator used after release');

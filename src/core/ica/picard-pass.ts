@@ -3,17 +3,11 @@
  * over all samples, or on two threads over halves whose sums are added (pass-threads.ts). Over samples
  * [t0, t1) of whitened Z (k × T channel-major) and a k × k unmixing W it adds to `out`:
  *   logcosh_i += Σ_t ln cosh(y_i(t)),  sech2_i += Σ_t (1 − tanh² y_i(t)),  gTanh_ij += Σ_t tanh(y_i(t)) y_j(t)
- * with Y = W Z computed tile by tile (nothing of size T is allocated).
+ * with Y = W Z computed tile by tile (nothing of size T is allocated), by the kernels of src/core/kernels.
  */
-import { accumulateProductTransposed, multiplyChannelMajor, SAMPLE_TILE } from '../linalg/matmul.ts';
-import { fastLogCosh, fastTanh } from './fast-tanh.ts';
+import { activeKernels, type PassSums } from '../kernels/kernels.ts';
 
-/** Unnormalised sums of one pass (see the module comment). */
-export interface PassSums {
-  readonly logcosh: Float64Array;
-  readonly sech2: Float64Array;
-  readonly gTanh: Float64Array;
-}
+export type { PassSums };
 
 export function createPassSums(k: number): PassSums {
   return { logcosh: new Float64Array(k), sech2: new Float64Array(k), gTanh: new Float64Array(k * k) };
@@ -25,18 +19,19 @@ export function clearPassSums(s: PassSums): void {
   s.gTanh.fill(0);
 }
 
+/** Kept for callers that hold per-evaluator state; the kernels own their tile buffers. */
 export interface PassScratch {
-  readonly Ytile: Float64Array;
-  readonly Ptile: Float64Array;
+  readonly k: number;
 }
 
 export function createPassScratch(k: number): PassScratch {
-  return { Ytile: new Float64Array(k * SAMPLE_TILE), Ptile: new Float64Array(k * SAMPLE_TILE) };
+  return { k };
 }
 
 /**
- * Adds the sums of samples [t0, t1) to `out`. `poll` (if given) is called every 32 tiles; when it returns
- * true the pass stops early and the function returns false (the sums are then incomplete).
+ * Adds the sums of samples [t0, t1) to `out`, with this thread's active kernels (src/core/kernels: the
+ * WebAssembly SIMD kernels when installed, else plain JS). `poll` (if given) is called every 32 tiles; when it
+ * returns true the pass stops early and the function returns false (the sums are then incomplete).
  */
 export function accumulatePassSums(
   Z: Float32Array,
@@ -45,36 +40,11 @@ export function accumulatePassSums(
   W: Float64Array,
   t0: number,
   t1: number,
-  scratch: PassScratch,
+  _scratch: PassScratch,
   out: PassSums,
   poll?: () => boolean,
 ): boolean {
-  const { Ytile, Ptile } = scratch;
-  let tiles = 0;
-  for (let a = t0; a < t1; a += SAMPLE_TILE) {
-    const b = Math.min(t1, a + SAMPLE_TILE);
-    const len = b - a;
-    multiplyChannelMajor(W, k, k, Z, T, Ytile, a, b);
-    // The kernel writes rows with stride `len`; the accumulation below reads stride SAMPLE_TILE.
-    if (len !== SAMPLE_TILE) for (let i = k - 1; i >= 0; i--) Ytile.copyWithin(i * SAMPLE_TILE, i * len, i * len + len);
-    for (let i = 0; i < k; i++) {
-      let lc = 0;
-      let s2 = 0;
-      const o = i * SAMPLE_TILE;
-      for (let t = 0; t < len; t++) {
-        const y = Ytile[o + t];
-        const th = fastTanh(y);
-        Ptile[o + t] = th;
-        s2 += th * th;
-        lc += fastLogCosh(y);
-      }
-      out.logcosh[i] += lc;
-      out.sech2[i] += len - s2;
-    }
-    accumulateProductTransposed(Ptile, SAMPLE_TILE, k, Ytile, SAMPLE_TILE, k, len, out.gTanh);
-    if (poll && ++tiles % 32 === 0 && poll()) return false;
-  }
-  return true;
+  return activeKernels().passSums(Z, k, T, W, t0, t1, out, poll);
 }
 
 /**

@@ -13,9 +13,13 @@
  * (s = −1 is the score of ½N(1,1)+½N(−1,1), docs/methods.md §7.2). Loss L(W) = E[Σ_i −ln p_i(y_i)] (ln|det W| = 0).
  * Updates W ← expm(E) W with E antisymmetric. Relative gradient G = E[ψ(Y) Yᵀ]; its antisymmetric part
  * Gₛ = (G − Gᵀ)/2 is the gradient on the constraint manifold; the solver stops when max|Gₛ| < tol.
- * Hessian approximation on antisymmetric E (derived as in the ICASSP paper, assuming independent outputs):
- *   d²L ≈ Σ_{i<j} E_ij² (κ_i + κ_j),  κ_i = E[ψ_i'(y_i)] − E[ψ_i(y_i) y_i] = s_i (E[sech² y_i]E[y_i²] − E[tanh(y_i) y_i]),
- * so the Newton step is E_ij = −Gₛ_ij / (κ_i + κ_j); pair curvatures are floored at λ_min = 1e-2 to stay positive.
+ * Hessian approximation on antisymmetric E (derived as in the ICASSP paper, assuming independent outputs and
+ * E[y²] = 1): with Y → (I + E + E²/2) Y the loss changes by
+ *   Σ_ij E_ij G_ij + ½ Σ_i Σ_j E_ij² (E[ψ_i'] E[y_j²] − E[ψ_i y_i]) = Σ_{i<j} [2 Gₛ_ij E_ij + ½ E_ij² (κ_i + κ_j)],
+ *   κ_i = E[ψ_i'(y_i)] − E[ψ_i(y_i) y_i] = s_i (E[sech² y_i]E[y_i²] − E[tanh(y_i) y_i]),
+ * so the Newton step is E_ij = −2 Gₛ_ij / (κ_i + κ_j) (each pair enters the double sum twice; an earlier version
+ * missed that factor 2 and took half steps, which doubled the iterations: docs/methods.md §7.7). Pair curvature
+ * sums κ_i + κ_j are floored at λ_min = 1e-2 to stay positive.
  * s_i = sign of the switching statistic (so κ_i = |statistic| ≥ 0). The L-BFGS memory (m = 7) is cleared
  * whenever a sign changes. Line search: step 1, halved up to 10 times until the loss decreases; if it fails
  * the memory is cleared and the preconditioned gradient is tried; if that fails too the solver stops.
@@ -23,7 +27,7 @@
  * One pass over the data computes, tile by tile, Y = W Z, tanh, ln cosh and E[tanh(Y) Yᵀ], so a line-search
  * trial that is accepted already holds the next gradient: one pass per iteration in the usual case.
  */
-import { accumulateProductTransposed, SAMPLE_TILE } from '../linalg/matmul.ts';
+import { activeKernels } from '../kernels/kernels.ts';
 import { frobeniusDot, matrixExponential, matrixMultiply, matrixTranspose } from '../linalg/dense.ts';
 import type { IcaThreads } from './pass-threads.ts';
 import { createPassSums, singleThreadEvaluator, type PassEvaluator, type PassSums } from './picard-pass.ts';
@@ -33,7 +37,10 @@ import { cancellationError, type IcaMonitor, type IcaResult } from './ica-types.
 export interface PicardOptions {
   /** Maximum L-BFGS iterations (default 500). */
   maxIter?: number;
-  /** Stop when max |antisymmetric relative gradient| < tol (default 1e-7). */
+  /**
+   * Stop when max |antisymmetric relative gradient| < tol (default 1e-6, PICARD_TOL: far below the gradient's
+   * sampling error ≈ 1/√T, and above the float32 arithmetic floor of the SIMD kernels; docs/methods.md §7.7).
+   */
   tol?: number;
   /** L-BFGS memory (default 7). */
   memory?: number;
@@ -50,9 +57,28 @@ export interface PicardOptions {
   evaluator?: PassEvaluator;
 }
 
+/**
+ * Default gradient tolerance of Picard-O. python-picard's 1e-7 (Ablin et al. 2018) assumes float64 passes; our
+ * SIMD passes run in float32, whose loss differences stop resolving line-search decreases near 5e-7 (measured on a
+ * simulated 32-channel recording), and 1e-6 still lies three orders below the sampling error 1/√T of the gradient
+ * for any recording shorter than 10¹¹ samples (ours; docs/methods.md §7.7).
+ */
+export const PICARD_TOL = 1e-6;
+
 /** Pass sums normalised by T: E[ln cosh y_i], E[sech² y_i], E[tanh(Y) Yᵀ]. */
 type PassStats = PassSums;
 const newStats = createPassSums;
+
+/** max |Gₛ| of the gradient G = diag(s) E[tanh(Y)Yᵀ] + E[YYᵀ] from normalised pass statistics. */
+function maxAntisymmetricGradient(st: PassStats, signs: Int8Array, cy: Float64Array, k: number): number {
+  let g = 0;
+  for (let i = 0; i < k; i++)
+    for (let j = i + 1; j < k; j++) {
+      const v = 0.5 * (signs[i] * st.gTanh[i * k + j] + cy[i * k + j] - signs[j] * st.gTanh[j * k + i] - cy[j * k + i]);
+      if (Math.abs(v) > g) g = Math.abs(v);
+    }
+  return g;
+}
 
 /** A seeded random orthogonal k × k matrix (Gram–Schmidt on Gaussian rows), or the identity without a seed. */
 export function initialRotation(k: number, seed: number | undefined): Float64Array {
@@ -85,7 +111,7 @@ export function initialRotation(k: number, seed: number | undefined): Float64Arr
  */
 export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: PicardOptions = {}): IcaResult {
   const maxIter = opts.maxIter ?? 500;
-  const tol = opts.tol ?? 1e-7;
+  const tol = opts.tol ?? PICARD_TOL;
   const mem = opts.memory ?? 7;
   const lsTries = opts.lsTries ?? 10;
   const lambdaMin = opts.lambdaMin ?? 1e-2;
@@ -95,15 +121,14 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
 
   // C = Z Zᵀ / T, so E[Y Yᵀ] = W C Wᵀ without another pass.
   const C = new Float64Array(kk);
-  const tileZ = new Float64Array(k * SAMPLE_TILE);
-  for (let t0 = 0; t0 < T; t0 += SAMPLE_TILE) {
-    const len = Math.min(SAMPLE_TILE, T - t0);
-    for (let i = 0; i < k; i++) for (let t = 0; t < len; t++) tileZ[i * SAMPLE_TILE + t] = Z[i * T + t0 + t];
-    accumulateProductTransposed(tileZ, SAMPLE_TILE, k, tileZ, SAMPLE_TILE, k, len, C);
-  }
+  activeKernels().accumulateGram(Z, k, T, 0, T, C);
   for (let i = 0; i < kk; i++) C[i] /= T;
 
   const evaluator = opts.evaluator ?? singleThreadEvaluator(Z, k, T);
+  // Resolution of the loss: the kernels round W to their arithmetic (unit roundoff u), which moves each row
+  // off the orthogonal manifold by ~u, where the loss has an O(1) slope; k rows add like a random walk. 2u√k
+  // (ours: ~6× the largest loss jitter measured with float32 kernels at k = 32, docs/methods.md §7.7).
+  const lossResolution = 2 * activeKernels().unitRoundoff * Math.sqrt(k);
   const poll = monitor?.poll ? () => monitor.poll!() : undefined;
   /** One fused pass: statistics of Y = Wc Z, normalised by T. */
   const evaluate = (Wc: Float64Array, out: PassStats): void => {
@@ -213,8 +238,9 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
             v[i * k + j] = 0;
             continue;
           }
+          // Newton step −2 Gₛ_ij / (κ_i + κ_j): see the module comment.
           const h = Math.max(kappa[i] + kappa[j], lambdaMin);
-          v[i * k + j] /= h;
+          v[i * k + j] *= 2 / h;
         }
     };
     const lbfgsDirection = (useMemory: boolean) => {
@@ -247,6 +273,8 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
         covY(Wt, cyTrial, tmp, tmpT);
         const L = lossOf(trial, signs, cyTrial);
         if (L < currentLoss) return { W: Wt, step: Float64Array.from(Estep) };
+        // Within the loss's arithmetic resolution a decrease cannot be seen; the (accurate) gradient decides.
+        if (L < currentLoss + lossResolution && maxAntisymmetricGradient(trial, signs, cyTrial, k) < gradNorm) return { W: Wt, step: Float64Array.from(Estep) };
         alpha /= 2;
       }
       return null;
@@ -281,7 +309,10 @@ export interface PicardWarmStartOptions extends PicardOptions {
   threads?: IcaThreads;
   /** Keep every `stride`-th sample in the first stage (default 4); 1 = no warm start. */
   stride?: number;
-  /** Gradient tolerance of the first stage (default 1e-4). */
+  /**
+   * Gradient tolerance of the first stage (default max(1e-4, 0.3/√T_sub): below the sampling difference between
+   * the subsample and the full data, ~1/√T_sub, more first-stage iterations buy nothing; docs/methods.md §7.7).
+   */
   warmTol?: number;
 }
 
@@ -320,7 +351,7 @@ export function picardWarmStarted(Z: Float32Array, k: number, T: number, opts: P
     picardOrthogonal(Zs, k, Ts, {
       ...opts,
       evaluator,
-      tol: opts.warmTol ?? 1e-4,
+      tol: opts.warmTol ?? Math.max(1e-4, 0.3 / Math.sqrt(Ts)),
       maxIter,
       monitor: opts.monitor ? { poll: opts.monitor.poll, iteration: (it, c) => opts.monitor?.iteration?.(it, c, opts.tol ?? 1e-7) } : undefined,
     }),
