@@ -35,7 +35,7 @@ import { resolveThresholds } from '../core/review/thresholds.ts';
 import { AIMS, type Aim } from '../core/review/vocabulary.ts';
 
 const USAGE =
-  'usage: winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv] [--aim erp|oscillations|conservative] [--out FILE] [--line-frequency 50|60] [--epoch-event LABEL] [--window TMIN,TMAX]';
+  'usage: winnow evidence <recording> <decomposition.json> [--positions electrodes.tsv] [--events events.tsv] [--aim erp|oscillations|conservative] [--out FILE] [--line-frequency 50|60] [--epoch-event LABEL] [--lock-column COLUMN] [--window TMIN,TMAX]';
 
 /** Help text for `winnow evidence --help` (first line: the usage). */
 export const usage = `${USAGE}
@@ -50,6 +50,7 @@ options:
   --out FILE                output file (default stdout)
   --line-frequency 50|60    mains frequency in Hz (alias --line; default from eeg.json, else 50)
   --epoch-event LABEL       event to epoch on
+  --lock-column COLUMN      events.tsv column whose values are also tested for time-locking within each type
   --window TMIN,TMAX        epoch window in seconds (TMIN < 0 < TMAX)
   -h, --help                show this help
 `;
@@ -72,6 +73,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     line: { type: 'string' },
     'line-frequency': { type: 'string' },
     'epoch-event': { type: 'string' },
+    'lock-column': { type: 'string' },
     window: { type: 'string' },
   });
   if (positionals.length !== 2) throw new CliError(`winnow evidence: give a recording and a decomposition file (${USAGE})`);
@@ -122,7 +124,10 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     if (mains.origin === 'assumed')
       io.stderr(`warning: ${basename(recordingPath)}: no PowerLineFrequency in a paired *_eeg.json and no --line-frequency; mains assumed to be 50 Hz\n`);
     const lineHz = mains.hz;
-    const result = computeEvidence(input);
+    const lockColumn = values['lock-column'];
+    if (lockColumn !== undefined && !(input.events ?? []).some((e) => e.columns?.[lockColumn] !== undefined))
+      throw new CliError(`winnow evidence: --lock-column "${lockColumn}" is not a column of the events`);
+    const result = computeEvidence(lockColumn !== undefined ? { ...input, lockColumn } : input);
     for (const w of result.warnings) io.stderr(`warning: ${w}\n`);
     const header = {
       recording: recordingPath, decomposition: decompositionPath, aim, lineHz, lineHzSource: mains.origin,

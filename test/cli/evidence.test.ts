@@ -133,6 +133,22 @@ describe('winnow evidence (issue 6 contract)', () => {
     expect(alpha.dipole.position).toHaveLength(3);
     expect(o.epochEvent).toBe('cue');
     expect(blink.erp.nEpochs).toBeGreaterThan(15);
+    // suggestions per aim carry the rules that fired, computed at output time with the recorded thresholds
+    expect(blink.suggestion.rules).toContainEqual(expect.objectContaining({ measure: 'eogCorrelation.vertical', direction: '≥', threshold: o.thresholds.eogCorrelation }));
+    expect(electrode.suggestion.rules).toContainEqual(expect.objectContaining({ measure: 'focality.share', value: 1, threshold: o.thresholds.electrodeFocality }));
+    for (const c of o.components) for (const r of c.suggestion.rules) expect(['common practice', 'ours']).toContain(r.source);
+    // the permutations record: shuffles run per component (sequential, at most 999) and the 1/f fit quality
+    expect(o.permutations.maxShuffles).toBe(999);
+    expect(o.permutations.components).toHaveLength(8);
+    for (const p of o.permutations.components) {
+      expect(p.shuffles).toBeGreaterThanOrEqual(10);
+      expect(p.shuffles).toBeLessThanOrEqual(999);
+      expect(p.shuffles).toBe(o.components[p.index - 1].erp.shuffles);
+    }
+    expect(o.components[0].oneOverFFitR2).toBe(o.permutations.components[0].fitR2);
+    expect(blink.timeLocking).toEqual([expect.objectContaining({ event: 'cue', nEpochs: blink.erp.nEpochs, shuffles: blink.erp.shuffles, p: blink.erp.permutationP })]);
+    // the blinks are the cue's response: locked, p at the floor 1 / (1 + 999)
+    expect(blink.erp.permutationP).toBeCloseTo(1 / 1000, 12);
   });
 
   it('reads events from events.tsv (merged with the annotations, as the workbench loads them) and writes to stdout without --out', async () => {
