@@ -52,6 +52,7 @@ function DecisionPanelFor({ index }: { index: number }) {
       />
       <ReasonSelect
         reason={decision.reason}
+        verdict={decision.verdict}
         onChoose={(reason) => decide(index, { reason })}
         testId="reason-select"
         title="Reason code (keys r / Shift+R cycle)"

@@ -37,7 +37,7 @@ export function DecisionControls({ index }: { index: number }) {
   return (
     <div className="decision-controls" role="group" aria-label={`Decision for component ${index}`}>
       <VerdictButtons verdict={decision.verdict} onChoose={(v) => decide(index, { verdict: v })} testIdPrefix="decision" />
-      <ReasonSelect reason={decision.reason} onChoose={(reason) => decide(index, { reason })} testId="decision-reason" />
+      <ReasonSelect reason={decision.reason} verdict={decision.verdict} onChoose={(reason) => decide(index, { reason })} testId="decision-reason" />
       <label className="field">
         Note
         <textarea

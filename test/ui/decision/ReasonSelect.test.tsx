@@ -18,3 +18,15 @@ describe('ReasonSelect', () => {
     expect(html).not.toContain('title=');
   });
 });
+
+describe('ReasonSelect: a verdict/reason pair that contradicts itself is flagged, not refused', () => {
+  it('flags keep + an artefact reason and remove + neural; mixed and unclear fit either verdict', () => {
+    const keepBlink = renderToStaticMarkup(<ReasonSelect reason="blink" verdict="keep" onChoose={() => {}} testId="reason-select" />);
+    expect(keepBlink).toContain('data-testid="reason-select-conflict"');
+    expect(keepBlink).toContain('kept, but the reason “blink” names an artefact');
+    expect(keepBlink).toMatch(/<option value="blink" selected="">/); // the choice stands
+    expect(renderToStaticMarkup(<ReasonSelect reason="neural" verdict="remove" onChoose={() => {}} testId="r" />)).toContain('data-testid="r-conflict"');
+    for (const [verdict, reason] of [['remove', 'blink'], ['keep', 'neural'], ['keep', 'mixed'], ['remove', 'unclear'], ['undecided', 'blink']] as const)
+      expect(renderToStaticMarkup(<ReasonSelect reason={reason} verdict={verdict} onChoose={() => {}} testId="r" />)).not.toContain('conflict');
+  });
+});
