@@ -1,12 +1,14 @@
 /**
  * Recording-layer speed: EDF+ write, header + annotation scan, and decoding all samples, on a simulated
  * 32-channel, 5-minute, 256 Hz recording (~4.9 MB). Reference: a bare Int16 → Float32 scaling loop over the
- * same samples in the same process (the floor any decoder has to pay).
+ * same samples in the same process (the floor any decoder has to pay). The last row is the way every
+ * consumer reads a recording: the recording loader (header, sidecars, main-rate samples, positions).
  */
 import { medianMs, type BenchRow } from './bench-types.ts';
 import { bytesByteSource } from '../src/core/formats/byte-source.ts';
 import { readEdfInfo, readEdfSignals } from '../src/core/formats/edf.ts';
 import { writeEdf } from '../src/core/formats/edf-writer.ts';
+import { loadRecording } from '../src/core/formats/recording-loader.ts';
 
 export async function bench(): Promise<BenchRow[]> {
   const nCh = 32;
@@ -30,6 +32,7 @@ export async function bench(): Promise<BenchRow[]> {
   const info = infoRes.value;
   const infoMs = await medianMs(() => readEdfInfo(src), 3);
   const readMs = await medianMs(() => readEdfSignals(src, info), 3);
+  const loadMs = await medianMs(() => loadRecording([src]), 3);
   const raw = new Int16Array(nCh * n);
   const out = new Float32Array(nCh * n);
   const refMs = await medianMs(() => {
@@ -40,5 +43,6 @@ export async function bench(): Promise<BenchRow[]> {
     { area: 'formats', case: `writeEdf 32 ch × 5 min × 256 Hz (${mb} MB)`, oursMs: writeMs, referenceMs: null, reference: 'no reference writer here' },
     { area: 'formats', case: 'readEdfInfo (header + 300 TAL records scan)', oursMs: infoMs, referenceMs: null, reference: 'no reference reader here' },
     { area: 'formats', case: 'readEdfSignals all 32 channels', oursMs: readMs, referenceMs: refMs, reference: 'bare Int16→Float32 scaling loop, same sample count' },
+    { area: 'formats', case: 'loadRecording (what the workbench and CLI run)', oursMs: loadMs, referenceMs: readMs + infoMs, reference: 'readEdfInfo + readEdfSignals above' },
   ];
 }
