@@ -19,7 +19,7 @@ export interface ActivationSettings {
   readonly lengthS: number;
   /** Decomposition channel indices chosen by the reviewer; null = the three strongest for the component. */
   readonly sensors: readonly number[] | null;
-  /** Event label prefixes drawn as markers; null = all. */
+  /** Events drawn as markers (event-selection.ts selection keys: a trial_type, optionally with a column value); null = all. */
   readonly markers: ReadonlySet<string> | null;
 }
 

@@ -1,33 +1,54 @@
 /**
- * Focus view: every piece of evidence for the selected component at a useful size, with the decision
- * controls. Previous/next keep the layout and the view settings (epoch sort, smoothing, time window).
+ * Focus view: the evidence for one component, organised around the four questions a reviewer asks of it —
+ * where does it come from (scalp map, variance per channel, dipole), when does it happen (its time course
+ * above the sensors, with events), is it locked to the task (the trial stack and its average, for any
+ * event type chosen by BIDS events.tsv columns, optionally split by a column), which frequencies (the
+ * spectrum). The questions are a list of tabs on the left, each with its short answer and how many
+ * suggestion rules fired on it; the chosen answer shows its figures with its evidence rows and fired rules
+ * beside them; the decision and the suggestion stay on the right. Previous/next keep the question and the
+ * view settings.
  *
  * data-testid hooks for the end-to-end tests:
  *   focus-view          the whole view (section)
- *   focus-topography    scalp map panel
- *   focus-trial-stack   trial stack + average panel
- *   focus-spectrum      spectrum panel
+ *   focus-question-{where|when|locked|frequencies}   the question tabs (aria-selected shows the current one)
+ *   focus-answer-{…}    the answer shown
+ *   focus-topography, focus-variance-map, focus-trial-stack, focus-spectrum   the figures' panels
+ *   focus-lock-type, focus-lock-only, focus-lock-split, focus-trial-order    trial stack controls
+ *   focus-trial-summary (data-epochs, data-groups), focus-lock-words        what the trial stack shows
  *   focus-previous, focus-next   navigation buttons
  *   decision-keep, decision-remove, decision-undecided   verdict buttons (aria-pressed shows the current one)
  *   decision-reason     reason code <select> ('' = none)
  *   decision-note       note <textarea> (committed 400 ms after typing stops and on blur)
  */
-import { useMemo, useState } from 'react';
+import { useMemo, useState, type ReactNode } from 'react';
+import { DEFAULT_EPOCH_WINDOW_S } from '../../core/evidence/compute-evidence.ts';
+import { defaultEventType, describeSelection, parseSelectionKey } from '../../core/evidence/event-selection.ts';
+import { resolveThresholds, type Thresholds } from '../../core/review/thresholds.ts';
+import { suggestWithRules, type FiredRule } from '../../core/review/suggest.ts';
 import { useWorkbench } from '../../state/index.ts';
 import { componentContext } from '../export/export-names.ts';
 import { EvidenceTable } from '../plots/EvidenceTable.tsx';
 import { evidenceRows } from '../plots/evidence-rows.ts';
 import { decompositionMontage } from '../plots/montage-positions.ts';
-import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { ActivationPanel, type ActivationSettings } from './ActivationPanel.tsx';
+import { AnswerPanel } from './AnswerPanel.tsx';
 import { DecisionControls } from './DecisionControls.tsx';
 import { DipolePanel } from './DipolePanel.tsx';
-import { TrialStackPanel, type EpochSettings } from './TrialStackPanel.tsx';
 import { MapPanel } from './MapPanel.tsx';
+import { QuestionRail } from './QuestionRail.tsx';
 import { SpectrumPanel } from './SpectrumPanel.tsx';
 import { SuggestionReasons } from './SuggestionReasons.tsx';
-import { mixingColumn, neighbourIndex } from './focus-logic.ts';
+import { TrialStackPanel, type EpochSettings } from './TrialStackPanel.tsx';
+import { VarianceMapPanel } from './VarianceMapPanel.tsx';
+import {
+  answerLines, byQuestion, componentTrace, mixingColumn, neighbourIndex, QUESTIONS, questionOfMeasure, questionOfRow, type QuestionId,
+} from './focus-logic.ts';
 import './focus.css';
+
+/** Threshold overrides from the store when it keeps them (the threshold editor), else none. */
+const selectThresholds = (s: object): Partial<Thresholds> | undefined => (s as { thresholds?: Partial<Thresholds> }).thresholds;
+
+const describeKey = (key: string) => `“${describeSelection(parseSelectionKey(key))}”`;
 
 export function FocusView() {
   const selected = useWorkbench((s) => s.selected);
@@ -35,10 +56,12 @@ export function FocusView() {
   const decomposition = useWorkbench((s) => s.decomposition);
   const evidenceList = useWorkbench((s) => s.evidence);
   const aim = useWorkbench((s) => s.aim);
+  const thresholds = useWorkbench(selectThresholds);
   const roiWindow = useWorkbench((s) => s.roi.windowS);
   const select = useWorkbench((s) => s.select);
   const setScreen = useWorkbench((s) => s.setScreen);
-  const [epochSettings, setEpochSettings] = useState<EpochSettings>({ sort: 'order', smoothing: 1, amplitudeWindowS: roiWindow });
+  const [question, setQuestion] = useState<QuestionId>('where');
+  const [epochSettings, setEpochSettings] = useState<EpochSettings>({ sort: 'order', smoothing: 1, amplitudeWindowS: roiWindow, lockTo: null, splitBy: null });
   const [activation, setActivation] = useState<ActivationSettings>({ startS: 0, lengthS: 10, sensors: null, markers: null });
 
   const n = decomposition?.nComponents ?? 0;
@@ -49,7 +72,24 @@ export function FocusView() {
     () => evidence?.map ?? (decomposition && index ? mixingColumn(decomposition.mixing, decomposition.nChannels, n, index - 1) : null),
     [evidence, decomposition, index, n],
   );
-  const rows = useMemo(() => (evidence ? evidenceRows(evidence) : []), [evidence]);
+  const suggestion = useMemo(() => (evidence ? suggestWithRules(evidence, aim, resolveThresholds(thresholds)) : null), [evidence, aim, thresholds]);
+  const rows = useMemo(() => (evidence ? evidenceRows(evidence, suggestion) : []), [evidence, suggestion]);
+  const rowsBy = useMemo(() => byQuestion(rows, (r) => questionOfRow(r.key)), [rows]);
+  const rulesBy = useMemo(() => byQuestion<FiredRule>(suggestion?.rules ?? [], (r) => questionOfMeasure(r.measure)), [suggestion]);
+  const events = recording?.events ?? null;
+  const defaultLockTo = useMemo(() => evidence?.erp?.event ?? (events ? defaultEventType(events) : null), [evidence, events]);
+  // The component's trace at its strongest channel over the whole recording (µV), for the trial stack.
+  const trace = useMemo(() => {
+    if (!recording || !decomposition || !montage || index === null || !evidence) return null;
+    const k = decomposition.nComponents;
+    const nd = decomposition.nChannels;
+    const i = index - 1;
+    const c = evidence.strongestChannel.index;
+    return componentTrace(
+      recording.signals.data, recording.signals.nSamples, montage.rows, decomposition.unmixing.subarray(i * nd, (i + 1) * nd),
+      decomposition.channelMeans, decomposition.mixing[c * k + i],
+    );
+  }, [recording, decomposition, montage, index, evidence]);
 
   if (!recording || !decomposition || index === null) {
     return (
@@ -63,6 +103,56 @@ export function FocusView() {
     const next = neighbourIndex(index, n, step);
     if (next !== null) select(next);
   };
+  const current = QUESTIONS.find((q) => q.id === question) ?? QUESTIONS[0];
+  const ruleCounts = { where: rulesBy.where.length, when: rulesBy.when.length, locked: rulesBy.locked.length, frequencies: rulesBy.frequencies.length };
+  const answers = evidence
+    ? answerLines(evidence, describeKey)
+    : { where: 'evidence not computed yet', when: '', locked: '', frequencies: '' };
+
+  let figures: ReactNode = null;
+  if (current.id === 'where') {
+    figures = (
+      <div className="figures-where">
+        {map && montage ? (
+          <MapPanel index={index} map={map} positions={montage.positions} drawable={montage.drawable} labels={decomposition.channels} context={context} size={165} />
+        ) : null}
+        {evidence && montage ? (
+          <VarianceMapPanel
+            index={index} shares={evidence.variancePerChannel} positions={montage.positions} drawable={montage.drawable} labels={decomposition.channels} context={context}
+          />
+        ) : null}
+        {evidence ? <DipolePanel dipole={evidence.dipole} context={context} /> : null}
+      </div>
+    );
+  } else if (current.id === 'when') {
+    figures = montage ? (
+      <ActivationPanel
+        index={index}
+        recording={recording}
+        decomposition={decomposition}
+        rows={montage.rows}
+        settings={activation}
+        onSettings={(p) => setActivation((s) => ({ ...s, ...p }))}
+        context={context}
+      />
+    ) : null;
+  } else if (current.id === 'locked') {
+    figures = (
+      <TrialStackPanel
+        trace={trace}
+        sampleRate={recording.signals.sampleRate}
+        events={recording.events}
+        defaultLockTo={defaultLockTo}
+        window={DEFAULT_EPOCH_WINDOW_S}
+        channel={evidence?.strongestChannel.label ?? '?'}
+        settings={epochSettings}
+        onSettings={(p) => setEpochSettings((s) => ({ ...s, ...p }))}
+        context={context}
+      />
+    );
+  } else {
+    figures = evidence ? <SpectrumPanel evidence={evidence} context={context} /> : null;
+  }
 
   return (
     <section className="focus-view" data-testid="focus-view" aria-label={`Component ${index} focus`}>
@@ -76,54 +166,38 @@ export function FocusView() {
         <button type="button" onClick={() => go(1)} disabled={index >= n} data-testid="focus-next" aria-label="Next component">
           next →
         </button>
-        {evidence ? (
-          <p className="focus-summary">
-            {(evidence.varianceShare * 100).toFixed(1)} % of the data's variance · strongest at {evidence.strongestChannel.label}
-          </p>
-        ) : (
-          <p className="focus-summary">Evidence is not computed yet.</p>
-        )}
+        <p className="focus-summary">
+          {evidence
+            ? `${(evidence.varianceShare * 100).toFixed(1)}\u00a0% of the data's variance · strongest at ${evidence.strongestChannel.label}`
+            : 'Evidence is not computed yet.'}
+        </p>
         <button type="button" onClick={() => setScreen('board')} className="back">back to the board</button>
       </header>
-      <div className="focus-grid">
-        <div className="focus-column">
-          {map && montage ? (
-            <MapPanel index={index} map={map} positions={montage.positions} drawable={montage.drawable} labels={decomposition.channels} context={context} />
-          ) : null}
-          {evidence ? <DipolePanel dipole={evidence.dipole} context={context} /> : null}
+      <div className="focus-layout">
+        <nav className="focus-questions" aria-label="Questions">
+          <QuestionRail current={current.id} onChoose={setQuestion} answers={answers} ruleCounts={ruleCounts} />
+        </nav>
+        <div className="focus-answer">
+          <AnswerPanel question={current} rows={rowsBy[current.id]} rules={rulesBy[current.id]}>
+            {figures}
+          </AnswerPanel>
         </div>
-        <div className="focus-column focus-wide">
-          {montage ? (
-            <ActivationPanel
-              index={index}
-              recording={recording}
-              decomposition={decomposition}
-              rows={montage.rows}
-              settings={activation}
-              onSettings={(p) => setActivation((s) => ({ ...s, ...p }))}
-              context={context}
-            />
-          ) : null}
-          {evidence ? (
-            <TrialStackPanel evidence={evidence} settings={epochSettings} onSettings={(p) => setEpochSettings((s) => ({ ...s, ...p }))} context={context} />
-          ) : null}
-        </div>
-        <div className="focus-column">
+        <div className="focus-decision">
           <section className="panel panel-decision" aria-label="Decision">
             <header className="panel-header"><h3>Decision</h3></header>
             <div className="panel-body">
               <DecisionControls index={index} />
-              {evidence ? <SuggestionReasons evidence={evidence} aim={aim} /> : null}
+              {evidence ? <SuggestionReasons index={index} suggestion={suggestion} aim={aim} onQuestion={setQuestion} /> : null}
             </div>
           </section>
-          {evidence ? <SpectrumPanel evidence={evidence} context={context} /> : null}
+          {rowsBy.other.length ? (
+            <details className="panel focus-other">
+              <summary>Other measures ({rowsBy.other.length})</summary>
+              <EvidenceTable rows={rowsBy.other} compact />
+            </details>
+          ) : null}
         </div>
       </div>
-      {evidence ? (
-        <ExportablePanel title="Evidence" context={context} className="panel-evidence">
-          <EvidenceTable rows={rows} />
-        </ExportablePanel>
-      ) : null}
     </section>
   );
 }

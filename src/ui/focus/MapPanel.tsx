@@ -1,4 +1,4 @@
-/** Large scalp map of the component with electrode dots, head outline and colour bar. */
+/** Scalp map of the component with electrode dots, head outline and colour bar. */
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { TopographyMap } from '../plots/TopographyMap.tsx';
 
@@ -9,19 +9,21 @@ export interface MapPanelProps {
   readonly drawable: boolean;
   readonly labels: readonly string[];
   readonly context: string;
+  /** Drawn head size in px (default 200). */
+  readonly size?: number;
 }
 
-export function MapPanel({ index, map, positions, drawable, labels, context }: MapPanelProps) {
+export function MapPanel({ index, map, positions, drawable, labels, context, size = 200 }: MapPanelProps) {
   return (
     <ExportablePanel title="Scalp map" context={context} testId="focus-topography" className="panel-map">
       {drawable ? (
-        <TopographyMap weights={map} positionsUnit={positions} size={240} title={`Component ${index} scalp map`} labels={labels} colourBar unit="a.u." />
+        <TopographyMap weights={map} positionsUnit={positions} size={size} title={`Component ${index} scalp map`} labels={labels} colourBar unit="a.u." />
       ) : (
         <p>No electrode positions for this recording, so no scalp map can be drawn.</p>
       )}
       <p className="note">
-        Polarity is arbitrary: the component's sign can flip with its time course, so red and blue may swap between
-        decompositions. Nose at the top, left ear on the left.
+        Painted over the electrodes only. Polarity is arbitrary (the sign can flip with the time course). Nose at the top, left
+        ear on the left.
       </p>
     </ExportablePanel>
   );

@@ -72,7 +72,7 @@ export interface Question {
 export const QUESTIONS: readonly Question[] = [
   {
     id: 'where', title: 'Where does it come from?', short: 'where',
-    rowKeys: ['variance', 'strongest', 'frontal', 'frontalShare', 'antisym', 'focality', 'rv', 'region'],
+    rowKeys: ['variance', 'strongest', 'frontal', 'frontalShare', 'antisym', 'focality', 'rv', 'depth', 'region'],
     measures: ['varianceShare', 'focality', 'frontalGradient', 'frontalShare', 'lateralAntisymmetry', 'dipole'],
   },
   {
@@ -87,7 +87,7 @@ export const QUESTIONS: readonly Question[] = [
   },
   {
     id: 'frequencies', title: 'Which frequencies?', short: 'frequencies',
-    rowKeys: ['exponent', 'alpha', 'alphaProminence', 'hf', 'hfSlope', 'line', 'linePeak', 'lf'],
+    rowKeys: ['exponent', 'fitR2', 'alpha', 'alphaProminence', 'hf', 'hfSlope', 'line', 'linePeak', 'lf'],
     measures: ['oneOverF', 'alphaProminence', 'highFrequencyShare', 'highFrequencySlope', 'lowFrequencyShare', 'mainsShare', 'linePeakRatio'],
   },
 ];
@@ -99,9 +99,10 @@ export function questionOfMeasure(measure: string): QuestionId | null {
   return QUESTIONS.find((q) => q.measures.some((p) => measureMatches(measure, p)))?.id ?? null;
 }
 
-/** The question an evidence row belongs to, or null when none claims it. */
+/** The question an evidence row belongs to, or null when none claims it ("locking:…" rows: one per event type tested). */
 export function questionOfRow(key: string): QuestionId | null {
-  return QUESTIONS.find((q) => q.rowKeys.includes(key))?.id ?? null;
+  const base = key.split(':')[0];
+  return QUESTIONS.find((q) => q.rowKeys.includes(base))?.id ?? null;
 }
 
 /** Items split by question (in QUESTIONS order), with the ones no question claims under `other`. */
@@ -162,4 +163,39 @@ export function componentTrace(
   }
   for (let t = 0; t < nSamples; t++) out[t] = (out[t] - offset) * weight;
   return out;
+}
+
+/** The fields of the evidence the short answers read. */
+export interface AnswerInput {
+  readonly strongestChannel: { readonly label: string };
+  readonly varianceShare: number;
+  readonly dipole: { readonly residualVariance: number; readonly region: string } | null;
+  readonly kurtosis: number;
+  readonly eogCorrelation: { readonly vertical: number | null; readonly horizontal: number | null };
+  readonly cardiac: { readonly bpm: number | null };
+  readonly erp: { readonly event: string; readonly lockedShare: number; readonly nEpochs: number } | null;
+  readonly stepLocking: { readonly share: number; readonly event: string } | null;
+  readonly oneOverF: { readonly exponent: number };
+  readonly alphaPeakHz: number | null;
+  readonly highFrequencyShare: number;
+}
+
+const pctText = (v: number) => (Number.isFinite(v) ? `${trimZero((Math.max(0, v) * 100).toFixed(0))}\u00a0%` : 'n/a');
+const numText = (v: number | null, d = 2) => (v === null || !Number.isFinite(v) ? 'n/a' : trimZero(v.toFixed(d)));
+
+/** One line per question, for the question list: the numbers a reviewer looks at first. */
+export function answerLines(e: AnswerInput, describeEvent: (key: string) => string = (k) => k): Record<QuestionId, string> {
+  const eog = Math.max(e.eogCorrelation.vertical ?? -1, e.eogCorrelation.horizontal ?? -1);
+  const when = [`kurtosis ${numText(e.kurtosis, 1)}`];
+  if (eog >= 0) when.push(`eye channel r ${numText(eog)}`);
+  if (e.cardiac.bpm !== null) when.push(`${numText(e.cardiac.bpm, 0)} beats/min`);
+  const locked: string[] = [];
+  if (e.erp) locked.push(`${pctText(e.erp.lockedShare)} locked to ${describeEvent(e.erp.event)}`);
+  if (e.stepLocking) locked.push(`${pctText(e.stepLocking.share)} to ${e.stepLocking.event}`);
+  return {
+    where: [`${pctText(e.varianceShare)} of variance, strongest at ${e.strongestChannel.label}`, e.dipole ? `dipole ${e.dipole.region}` : 'no dipole'].join(' · '),
+    when: when.join(' · '),
+    locked: locked.length ? locked.join(' · ') : 'no task events to lock to',
+    frequencies: [`1/f exponent ${numText(e.oneOverF.exponent)}`, e.alphaPeakHz === null ? 'no alpha peak' : `alpha ${numText(e.alphaPeakHz, 1)}\u00a0Hz`, `${pctText(e.highFrequencyShare)} above 20\u00a0Hz`].join(' · '),
+  };
 }

@@ -57,6 +57,7 @@ describe('the four questions', () => {
     expect(questionOfMeasure('alphaProminenceX')).toBeNull(); // a prefix only matches whole path parts
     expect(questionOfRow('rv')).toBe('where');
     expect(questionOfRow('hf')).toBe('frequencies');
+    expect(questionOfRow('locking:tone')).toBe('locked');
   });
   it('splits items by question and steps through the questions with wrap-around', async () => {
     const { byQuestion, stepQuestion } = await import('../../../src/ui/focus/focus-logic.ts');
