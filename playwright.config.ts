@@ -42,7 +42,7 @@ export default defineConfig({
     },
   },
   webServer: {
-    command: `npx vite preview --host 127.0.0.1 --port ${port} --strictPort`,
+    command: `npx vite preview --host 127.0.0.1 --port ${port} --strictPort --bypass-lock`,
     url: process.env.WINNOW_E2E_ORIGIN,
     reuseExistingServer: !process.env.CI,
     timeout: 60_000,
