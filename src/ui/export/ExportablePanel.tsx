@@ -3,7 +3,8 @@
  * focus and preview views.
  */
 import { useRef, useState, type ReactNode } from 'react';
-import { panelFileName, type PanelFormat } from './export-names.ts';
+import { useWorkbench } from '../../state/index.ts';
+import { panelFigureTitle, panelFileName, participantPrefix, type PanelFormat } from './export-names.ts';
 import { exportPanel } from './panel-export.ts';
 import './panel.css';
 
@@ -21,10 +22,13 @@ export interface ExportablePanelProps {
 export function ExportablePanel({ title, context, className, testId, controls, children }: ExportablePanelProps) {
   const body = useRef<HTMLDivElement>(null);
   const [error, setError] = useState<string | null>(null);
+  const recordingName = useWorkbench((s) => s.recording?.fileName ?? null);
   const save = (format: PanelFormat) => {
     if (!body.current) return;
     setError(null);
-    exportPanel(body.current, format, panelFileName(title, format, context), context ? `${context} · ${title}` : title).catch((e: unknown) =>
+    // Named and titled after the participant (BIDS entities), the context and the panel; captions kept.
+    const participant = participantPrefix(recordingName);
+    exportPanel(body.current, format, panelFileName(title, format, context, participant), panelFigureTitle(title, context, participant)).catch((e: unknown) =>
       setError(e instanceof Error ? e.message : String(e)),
     );
   };

@@ -3,13 +3,35 @@
  * machine). Every `<svg>` and `<canvas>` inside the panel is placed at its on-screen offset in one SVG
  * document: SVG plots are copied as nested `<svg>` elements (XMLSerializer), canvases become PNG `<image>`s
  * (data URLs, allowed by the CSP's img-src), and HTML `<table>`s (the evidence table) are drawn as SVG text
- * rows (table-figure.ts). The PNG is that SVG drawn onto a canvas at 2× and saved with `toBlob`. Browser only.
+ * rows (table-figure.ts). The panel's captions (its `.note` paragraphs) are kept as text lines under the
+ * figures, so an exported figure says what it shows. The PNG is that SVG drawn onto a canvas at 2× and saved
+ * with `toBlob`. Browser only.
  */
 import type { PanelFormat } from './export-names.ts';
 import { saveBlob } from '../layout/download.ts';
 import { tableFigure, type TableFigureRow } from './table-figure.ts';
 
 const SVG_NS = 'http://www.w3.org/2000/svg';
+
+/**
+ * Greedy word wrap of a caption into lines of at most `maxChars` characters (a word longer than that keeps
+ * its own line).
+ */
+export function wrapCaption(text: string, maxChars: number): string[] {
+  const words = text.replace(/\s+/g, ' ').trim().split(' ').filter(Boolean);
+  const lines: string[] = [];
+  let line = '';
+  for (const w of words) {
+    if (line && line.length + 1 + w.length > maxChars) {
+      lines.push(line);
+      line = w;
+    } else line = line ? `${line} ${w}` : w;
+  }
+  if (line) lines.push(line);
+  return lines;
+}
+
+const CAPTION_LINE_H = 14;
 
 /** Builds one standalone SVG document string from the figures inside `panel`. */
 export function panelToSvg(panel: HTMLElement, title?: string): { svg: string; width: number; height: number } {
@@ -67,8 +89,30 @@ export function panelToSvg(panel: HTMLElement, title?: string): { svg: string; w
       root.appendChild(copy);
     }
   }
-  width = Math.ceil(width);
-  height = Math.ceil(height);
+  width = Math.ceil(Math.max(width, 240));
+  // Captions: the panel's notes, wrapped to the figure's width (about 6 px per character at 11 px).
+  const captions = Array.from(panel.querySelectorAll<HTMLElement>('.note'))
+    .map((n) => {
+      // what the reader sees: hidden test hooks inside a note stay out of the caption
+      const copy = n.cloneNode(true) as HTMLElement;
+      copy.querySelectorAll('[hidden]').forEach((h) => h.remove());
+      return (copy.textContent ?? '').replace(/\s+/g, ' ').trim();
+    })
+    .filter(Boolean);
+  let y = height + 6;
+  for (const c of captions) {
+    for (const line of wrapCaption(c, Math.max(30, Math.floor((width - 8) / 6)))) {
+      y += CAPTION_LINE_H;
+      const t = doc.createElementNS(SVG_NS, 'text');
+      t.setAttribute('x', '4');
+      t.setAttribute('y', String(y - 3));
+      t.setAttribute('font-size', '11');
+      t.setAttribute('fill', '#333333');
+      t.textContent = line; // text node: never parsed as markup
+      root.appendChild(t);
+    }
+  }
+  height = Math.ceil(captions.length ? y + 4 : height);
   root.setAttribute('width', String(width));
   root.setAttribute('height', String(height));
   root.setAttribute('viewBox', `0 0 ${width} ${height}`);

@@ -1,13 +1,17 @@
 /**
  * Export and import: the decisions file (JSON, TSV), the methods paragraph, the cleaned recording
  * (EDF/BDF, identifying header fields blanked unless asked to keep them), and importing a decisions file.
+ * Before anything is saved it warns when components are still undecided and lists verdict/reason pairs that
+ * contradict themselves (flagged, never refused; ui/decision/verdict-reason.ts).
  */
 import { useEffect, useRef, useState } from 'react';
 import { useWorkbench, workbenchStore } from '../../state/index.ts';
 import {
   decisionsJsonFromState, decisionsTsvFromState, exportCleanedRecording, exportStem, methodsTextFromState,
 } from '../../state/exports.ts';
+import { componentRuns, conflictingDecisions, undecidedComponents } from '../decision/verdict-reason.ts';
 import { downloadBlob } from './download.ts';
+import './export-panel.css';
 
 export function ExportPanel({ onClose }: { onClose: () => void }) {
   const reviewer = useWorkbench((s) => s.reviewer);
@@ -15,6 +19,8 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
   const importDecisions = useWorkbench((s) => s.importDecisions);
   const busy = useWorkbench((s) => s.progress !== null);
   const decompositionJson = useWorkbench((s) => s.decompositionJson);
+  const decisions = useWorkbench((s) => s.decisions);
+  const nComponents = useWorkbench((s) => s.decomposition?.nComponents ?? 0);
   const [format, setFormat] = useState<'EDF+C' | 'BDF+C'>('EDF+C');
   const [keepIdentity, setKeepIdentity] = useState(false);
   const [methods, setMethods] = useState<string | null>(null);
@@ -29,6 +35,7 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
   return (
     <section className="export-panel" role="dialog" aria-label="Export and import" data-testid="export-panel">
       <h2>Export and import</h2>
+      <ExportChecks decisions={decisions} nComponents={nComponents} />
       <label className="field">
         Reviewer (written into the decisions file){' '}
         <input type="text" value={reviewer} onChange={(e) => setReviewer(e.target.value)} data-testid="reviewer-input" />
@@ -99,5 +106,33 @@ export function ExportPanel({ onClose }: { onClose: () => void }) {
       </div>
       <button type="button" onClick={onClose} data-testid="export-close">Close (Escape)</button>
     </section>
+  );
+}
+
+/** What to check before exporting: undecided components (kept when cleaning) and self-contradicting pairs. */
+export function ExportChecks({ decisions, nComponents }: { decisions: Parameters<typeof undecidedComponents>[0]; nComponents: number }) {
+  if (nComponents === 0) return null;
+  const undecided = undecidedComponents(decisions, nComponents);
+  const conflicts = conflictingDecisions(decisions, nComponents);
+  if (undecided.length === 0 && conflicts.length === 0) return null;
+  return (
+    <div className="export-checks" role="status" data-testid="export-checks">
+      {undecided.length > 0 ? (
+        <p className="warning" data-testid="export-undecided-warning">
+          ⚠ {undecided.length} of {nComponents} components {undecided.length === 1 ? 'is' : 'are'} undecided ({componentRuns(undecided)}): the
+          decisions file lists {undecided.length === 1 ? 'it' : 'them'} as undecided and the cleaned recording keeps {undecided.length === 1 ? 'it' : 'them'}.
+        </p>
+      ) : null}
+      {conflicts.length > 0 ? (
+        <div className="warning" data-testid="export-conflicts">
+          ⚑ Verdict and reason disagree (allowed; worth a second look):
+          <ul>
+            {conflicts.map((c) => (
+              <li key={c.index}>component {c.index}: {c.why}</li>
+            ))}
+          </ul>
+        </div>
+      ) : null}
+    </div>
   );
 }
