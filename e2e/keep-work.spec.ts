@@ -5,6 +5,7 @@
  * that would replace work, and two tabs on the same participant. All on the simulated demo participant.
  */
 import { expect, test, type Page } from '@playwright/test';
+import { tinyEdf } from './edf-bytes.ts';
 
 /** Demo load = read + decomposition + evidence in the browser. */
 const LOAD_TIMEOUT = 75_000;
@@ -155,4 +156,27 @@ test('a second tab on the same participant is told which tab owns the review', a
   await second.getByTestId('screen-start').click();
   await second.getByTestId('saved-participant').first().locator('summary').click();
   await expect(second.getByTestId('saved-snapshot')).toHaveCount(2);
+});
+
+test('opening another recording mid-review asks first; the review is listed and reopens from the start page', async ({ page }) => {
+  test.setTimeout(200_000);
+  await openDemo(page);
+  await decide(page, 1, 'remove');
+  await page.getByTestId('screen-start').click();
+  const other = { name: 'sub-08_eeg.edf', mimeType: 'application/octet-stream', buffer: Buffer.from(tinyEdf({ labels: ['Fz', 'Cz', 'Pz', 'C4'], sampleRate: 128, records: 4, noiseUv: 5 })) };
+  await page.getByTestId('recording-input').setInputFiles(other);
+  await expect(page.getByTestId('confirm-replaces')).toContainText('1 decided');
+  await page.getByTestId('confirm-cancel').click();
+  await expect(page.getByTestId('back-to-board')).toBeVisible();
+  await page.getByTestId('recording-input').setInputFiles(other);
+  await page.getByTestId('confirm-ok').click();
+  await expect(page.getByTestId('channel-list').getByRole('cell', { name: 'C4', exact: true })).toBeVisible();
+  // The demo participant's review is listed (participant, when, n decided) and reopens on the board.
+  const saved = page.getByTestId('saved-participant');
+  await expect(saved).toHaveCount(1);
+  await expect(saved).toContainText('1 of');
+  await saved.getByTestId('saved-reopen').click();
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: LOAD_TIMEOUT });
+  expect(await verdictOf(page, 1)).toBe('remove');
+  await expect(page.getByTestId('notice')).toContainText('Restored the review saved');
 });

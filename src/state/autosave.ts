@@ -189,6 +189,7 @@ export function startAutosave(
       seg = newSegment(key, 'resumed', s.decisions);
       return;
     }
+    if (s.decisions !== prev.decisions) answered = null;
     if (seg.baseline !== null && changedIndices(seg.baseline, s.decisions) === 0 && s.reviewer === prev.reviewer && s.aim === prev.aim) return;
     seg.baseline = null;
     if (seg.seq === 0 && s.resumeOffer !== null) seg.origin = 'while-offered';

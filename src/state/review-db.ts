@@ -105,9 +105,12 @@ export async function openReviewDb(factory: IDBFactory = indexedDB, options: Ope
       }
     }
   };
-  open.onblocked = () => undefined;
-  const db = await request(open).catch((e: unknown) => {
-    throw storageError(e, 'opening the saved reviews');
+  const db = await new Promise<IDBDatabase>((resolve, reject) => {
+    open.onsuccess = () => resolve(open.result);
+    open.onerror = () => reject(storageError(open.error, 'opening the saved reviews'));
+    // A tab still running an older Winnow holds the database open: say so rather than wait for ever.
+    open.onblocked = () =>
+      reject(new ReviewStorageError('unavailable', 'Another tab running an older version of Winnow holds the saved reviews open; reload or close it, then saving resumes.'));
   });
   // Another tab upgrading the database: let it, and reopen on next use.
   db.onversionchange = () => db.close();
