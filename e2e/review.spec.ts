@@ -66,11 +66,41 @@ test('reviewing the demo participant: decide, preview, focus, export, reload, ke
   await expect(page.getByTestId('preview-erp-after')).not.toHaveText(erpBefore);
   await page.screenshot({ path: 'test-results/preview.png', fullPage: true });
 
-  // Focus view of the selected component.
+  // Focus view of the selected component: the four questions, walked with the keyboard (↓ moves between them).
   await page.getByTestId('screen-board').click();
   await page.getByTestId('tile-1').focus();
   await page.keyboard.press('Enter');
   await expect(page.getByTestId('focus-view')).toBeVisible();
+  await expect(page.getByTestId('focus-question-where')).toHaveAttribute('aria-selected', 'true');
+  await expect(page.getByTestId('focus-topography')).toBeVisible();
+  await expect(page.getByTestId('focus-variance-map')).toBeVisible();
+  await expect(page.getByTestId('focus-answer-where')).toContainText('Rules that fired');
+  await page.getByTestId('focus-question-where').focus();
+  await page.keyboard.press('ArrowDown');
+  await expect(page.getByTestId('focus-question-when')).toBeFocused();
+  await expect(page.getByTestId('focus-answer-when')).toContainText('Time course and sensors');
+  await page.keyboard.press('ArrowDown');
+  await expect(page.getByTestId('focus-question-locked')).toBeFocused();
+  await expect(page.getByTestId('focus-trial-stack')).toBeVisible();
+  // Events chosen by BIDS events.tsv columns: every tone, then only the rare ones (condition column), then split by it.
+  const trials = page.getByTestId('focus-trial-summary');
+  await expect(page.getByTestId('focus-lock-type')).toHaveValue('tone');
+  const allTones = Number(await trials.getAttribute('data-epochs'));
+  expect(allTones).toBeGreaterThan(20);
+  await page.getByTestId('focus-lock-only').selectOption('condition=rare');
+  await expect(page.getByTestId('focus-lock-words')).toContainText('tone, condition rare');
+  const rareTones = Number(await trials.getAttribute('data-epochs'));
+  expect(rareTones).toBeGreaterThan(2);
+  expect(rareTones).toBeLessThan(allTones / 2);
+  await page.getByTestId('focus-lock-only').selectOption('');
+  await page.getByTestId('focus-lock-split').selectOption('condition');
+  await expect(trials).toHaveAttribute('data-groups', '2');
+  await expect(trials).toHaveAttribute('data-epochs', String(allTones));
+  await page.screenshot({ path: 'test-results/focus-locked.png', fullPage: true });
+  await page.getByTestId('focus-question-locked').focus();
+  await page.keyboard.press('ArrowDown');
+  await expect(page.getByTestId('focus-question-frequencies')).toBeFocused();
+  await expect(page.getByTestId('focus-spectrum')).toBeVisible();
   await page.screenshot({ path: 'test-results/focus.png', fullPage: true });
   await page.keyboard.press('Escape');
   await expect(page.getByTestId('board')).toBeVisible();
