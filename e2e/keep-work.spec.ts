@@ -180,3 +180,50 @@ test('opening another recording mid-review asks first; the review is listed and 
   expect(await verdictOf(page, 1)).toBe('remove');
   await expect(page.getByTestId('notice')).toContainText('Restored the review saved');
 });
+
+test('storage full: the reviewer is told in words and the export is offered; a damaged saved record is named, the rest recovered', async ({ page }) => {
+  test.setTimeout(200_000);
+  // The browser's quota runs out once the page sets window.__storageFull (a QuotaExceededError, as IndexedDB reports it).
+  await page.addInitScript(() => {
+    const put = IDBObjectStore.prototype.put;
+    IDBObjectStore.prototype.put = function (this: IDBObjectStore, value: unknown, key?: IDBValidKey) {
+      if ((window as unknown as { __storageFull?: boolean }).__storageFull && this.name === 'snapshots') {
+        const full = new DOMException('The quota has been exceeded.', 'QuotaExceededError');
+        Object.defineProperty(this.transaction, 'error', { value: full });
+        this.transaction.abort();
+        throw full;
+      }
+      return put.call(this, value, key);
+    };
+  });
+  await openDemo(page);
+  await decide(page, 1, 'remove');
+  await page.evaluate(() => { (window as unknown as { __storageFull?: boolean }).__storageFull = true; });
+  await decide(page, 2, 'keep');
+  const problem = page.getByTestId('save-problem');
+  await expect(problem).toHaveAttribute('data-kind', 'full');
+  await expect(problem).toContainText('storage for Winnow is full');
+  const [download] = await Promise.all([page.waitForEvent('download'), problem.getByTestId('save-problem-export').click()]);
+  expect(download.suggestedFilename()).toMatch(/_decisions\.json$/);
+  // Space is back: the next change is saved and the message goes.
+  await page.evaluate(() => { (window as unknown as { __storageFull?: boolean }).__storageFull = false; });
+  await decide(page, 3, 'keep');
+  await expect(problem).toHaveCount(0);
+
+  // A record damaged behind Winnow's back: the start page says what was lost and lists the rest.
+  await page.evaluate(() => new Promise<void>((resolve, reject) => {
+    const open = indexedDB.open('winnow-reviews');
+    open.onsuccess = () => {
+      const tx = open.result.transaction('snapshots', 'readwrite');
+      tx.objectStore('snapshots').put({ id: 'x:y#damaged', key: 'x:y', savedAt: 17, decisions: null });
+      tx.oncomplete = () => { open.result.close(); resolve(); };
+      tx.onerror = () => reject(tx.error);
+    };
+    open.onerror = () => reject(open.error);
+  }));
+  await reloadToBoard(page);
+  await page.getByTestId('screen-start').click();
+  await expect(page.getByTestId('lost-notice')).toContainText('could not be read');
+  await expect(page.getByTestId('lost-notice')).toContainText('Everything else was recovered');
+  await expect(page.getByTestId('saved-participant')).toContainText('3 of');
+});
