@@ -25,6 +25,7 @@ import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { openCliRecording, readCliSignals } from './recording-files.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import { computeEvidence, DEFAULT_EPOCH_WINDOW_S } from '../core/evidence/compute-evidence.ts';
+import { parseSelectionKey, selectEvents } from '../core/evidence/event-selection.ts';
 import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
 import { formatEvidenceJson } from '../core/formats/evidence-file.ts';
 import { suggestWithRules } from '../core/review/suggest.ts';
@@ -109,7 +110,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     const decRates = new Set(info.channels.filter((c) => decomposition.channels.includes(c.label)).map((c) => c.sampleRate));
     if (decRates.size !== 1) throw new CliError(`${decompositionPath}: its channels do not share one sampling rate in ${recordingPath}`);
     const recording = await readCliSignals(opened, io, { sampleRate: [...decRates][0] });
-    if (values['epoch-event'] !== undefined && !info.events.some((e) => e.source !== 'boundary' && (e.label === values['epoch-event'] || e.label.split('/')[0] === values['epoch-event'])))
+    if (values['epoch-event'] !== undefined && !info.events.some((e) => e.source !== 'boundary' && selectEvents([e], parseSelectionKey(values['epoch-event']!)).length > 0))
       throw new CliError(`winnow evidence: --epoch-event "${values['epoch-event']}" matches no event`);
 
     const thresholds = resolveThresholds();

@@ -14,7 +14,7 @@ export interface PreviewSettings {
    * window (about ±3 robust SD per row, rounded up to the sequence).
    */
   readonly uvPerDiv: number | null;
-  /** Event label prefixes drawn as markers; null = all. */
+  /** Events drawn as markers (event-selection.ts selection keys: a trial_type, optionally with a column value); null = all. */
   readonly markers: ReadonlySet<string> | null;
 }
 
