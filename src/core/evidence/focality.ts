@@ -24,3 +24,29 @@ export function mapFocality(map: ArrayLike<number>): Focality {
   }
   return { share: total > 0 ? bestE / total : NaN, channelIndex: best };
 }
+
+/**
+ * How much of a map's energy, outside its strongest electrode, has spatial structure (issue 10; ours): the
+ * energy of the other electrodes' deviations from their own mean, over the whole map's energy,
+ *
+ *   Σ_{c ≠ max} (a_c − ā_rest)² / Σ_c a_c².
+ *
+ * A single bad electrode gives ~0 whatever the reference: against the common average every other electrode
+ * carries the same −a_max/M, and without a re-reference they carry 0. A focal brain or muscle source under one
+ * electrode still spreads, unevenly, onto its neighbours, which this measures. NaN for an all-zero map.
+ */
+export function restStructure(map: ArrayLike<number>): number {
+  const { channelIndex } = mapFocality(map);
+  let total = 0;
+  let mean = 0;
+  const n = map.length;
+  for (let c = 0; c < n; c++) {
+    total += map[c] * map[c];
+    if (c !== channelIndex) mean += map[c];
+  }
+  if (!(total > 0) || n < 2) return NaN;
+  mean /= n - 1;
+  let dev = 0;
+  for (let c = 0; c < n; c++) if (c !== channelIndex) dev += (map[c] - mean) ** 2;
+  return dev / total;
+}

@@ -33,6 +33,7 @@
  * number's source): contact first whatever the spectrum; muscle needs spatial support; two strong
  * conflicting artifact signatures are "mixed"; `suggestWithRules` lists the threshold comparisons that fired.
  */
+import { restStructure } from '../evidence/focality.ts';
 import type { ComponentEvidence } from '../evidence/types.ts';
 import { defaultThresholds, thresholdSources, type ThresholdSource, type Thresholds } from './thresholds.ts';
 import type { Aim, ReasonCode, Suggestion } from './vocabulary.ts';
@@ -133,7 +134,19 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
       check('lowFrequencyShare', e.lowFrequencyShare, t, 'ocularLowFrequencyShare', '≥'),
       eogHit || frontal ? check('kurtosis', e.kurtosis, t, 'blinkKurtosis', '≥') : null,
     );
-    if (!hitsH && ((eogHit && (frontal || slow)) || (frontal && slow))) findings.push({ signature: 'blink', strong: eogHit || (frontal && slow), because, rules });
+    if (!hitsH && ((eogHit && (frontal || slow)) || (frontal && slow))) {
+      // Vertical eye movements share the blink's vertical EOG and frontal map, but their slow deflections
+      // persist as steps (the gaze stays up or down) where a blink returns within ~0.3 s (common practice:
+      // blinks are brief, saccades shift the level; docs/methods.md §14). Step-likeness at the gaze level
+      // without blink-like sparseness names a vertical eye movement (issue 10; ours).
+      const stepRule = check('stepLikeness', e.stepLikeness, t, 'gazeStepLikeness', '≥');
+      const sparse = e.kurtosis >= t.verticalGazeMaxKurtosis;
+      if (stepRule && !sparse) {
+        const gazeBecause = [...because.filter((b) => !b.startsWith('excess kurtosis')), `slow deflections persist as steps (${fix(e.stepLikeness)}), not brief returns: vertical eye movement`];
+        const kRule = check('kurtosis', e.kurtosis, t, 'verticalGazeMaxKurtosis', '≤');
+        findings.push({ signature: 'gaze', strong: eogHit || (frontal && slow), because: gazeBecause, rules: [...rules.filter((r) => r.measure !== 'kurtosis'), stepRule, ...some(kRule)] });
+      } else findings.push({ signature: 'blink', strong: eogHit || (frontal && slow), because, rules });
+    }
   }
 
   // Horizontal eye movement: horizontal EOG, antisymmetric frontal map, steps
@@ -162,14 +175,19 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
       findings.push({ signature: 'gaze', strong: eogHit || (anti && slow && frontal && steps), because, rules });
   }
 
-  // Single electrode (takes precedence over every other signature: SIGNATURE_PRECEDENCE)
+  // Single electrode (takes precedence over every other signature: SIGNATURE_PRECEDENCE). The map must be
+  // concentrated on one electrode AND flat elsewhere: a bad contact leaves every other electrode with the same
+  // value (the reference's share), while a focal brain or muscle source spreads unevenly onto its neighbours
+  // (restStructure, evidence/focality.ts; issue 10, ours). Without a map (NaN) focality alone decides.
   const focalRule = check('focality.share', e.focality.share, t, 'electrodeFocality', '≥');
-  if (focalRule)
+  const rest = e.map && e.map.length ? restStructure(e.map) : NaN;
+  const restRule = Number.isFinite(rest) ? check('focality.restStructure', rest, t, 'electrodeRestStructure', '≤') : null;
+  if (focalRule && (!Number.isFinite(rest) || restRule))
     findings.push({
       signature: 'contact',
       strong: true,
-      because: [`one electrode (${e.focality.channel}) carries ${pct(e.focality.share)} of the map`],
-      rules: [focalRule],
+      because: [`one electrode (${e.focality.channel}) carries ${pct(e.focality.share)} of the map${restRule ? `, the rest of the map is flat (${pct(rest)} structured)` : ''}`],
+      rules: some(focalRule, restRule),
     });
 
   // Line noise
@@ -246,11 +264,27 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
         spatialRules.push(shallow);
       }
     }
-    if (spatial.length > 0 && (!dipolar || strongHf)) {
+    // Sensor and background noise: a Gaussian activation (no bursts) carrying a small share of the variance is
+    // noise even when its strongest electrode sits on the rim; EMG comes in bursts (super-Gaussian; common
+    // practice), so it needs either bursts or enough variance to stand out (issue 10 item 2b; ours).
+    const gaussianRule = check('kurtosis', e.kurtosis, t, 'muscleKurtosis', '≤');
+    const smallRule = check('varianceShare', e.varianceShare, t, 'muscleNoiseVarianceShare', '≤');
+    const gaussianNoise = gaussianRule !== null && smallRule !== null;
+    if (spatial.length > 0 && gaussianNoise) {
+      const because = [
+        spectrumSentence,
+        ...spatial,
+        `but no bursts (excess kurtosis ${fix(e.kurtosis, 1)}) and ${fix(e.varianceShare * 100, 1)} % of the variance: Gaussian broadband noise, not muscle`,
+      ];
+      unsupportedHighFrequency = { sensorNoise: true, because, rules: some(hfShareRule, hfSlopeRule, gaussianRule, smallRule) };
+    } else if (spatial.length > 0 && (!dipolar || strongHf)) {
       const because = [spectrumSentence, ...spatial];
       if (e.dipole && !e.dipole.atBoundary && e.dipole.residualVariance > t.dipoleResidualVariance)
         because.push(`dipole fits poorly (residual variance ${pct(e.dipole.residualVariance)})`);
-      findings.push({ signature: 'muscle', strong: strongHf && !alpha, because, rules: [...spectrumRules, ...spatialRules] });
+      // A clear alpha peak (≥ muscleAlphaVeto above the 1/f line) keeps muscle weak, so brain evidence can make it
+      // "mixed"; a small bump in a spectrum dominated by high frequencies does not (ours, issue 10).
+      const clearAlpha = alpha && e.alphaProminence >= t.muscleAlphaVeto;
+      findings.push({ signature: 'muscle', strong: strongHf && !clearAlpha, because, rules: [...spectrumRules, ...spatialRules] });
     } else if (spatial.length === 0) {
       const tiny = check('varianceShare', e.varianceShare, t, 'noiseVarianceShare', '≤');
       const because = [

@@ -51,6 +51,16 @@ export interface Thresholds {
   readonly muscleDipoleDepthMm: number;
   /** Variance share (0…1) at or below which a flat, spatially diffuse component is read as sensor noise. */
   readonly noiseVarianceShare: number;
+  /** Excess kurtosis at or below which a flat-spectrum activation is Gaussian (no bursts): with a small variance share, noise, not muscle. */
+  readonly muscleKurtosis: number;
+  /** Variance share (0…1) at or below which a Gaussian flat-spectrum component is noise even with spatial support. */
+  readonly muscleNoiseVarianceShare: number;
+  /** Share of map energy outside the strongest electrode that has spatial structure, at or below which a focal map is one bad contact. */
+  readonly electrodeRestStructure: number;
+  /** Alpha prominence (log10) at or above which an alpha peak keeps a muscle reading weak. */
+  readonly muscleAlphaVeto: number;
+  /** Excess kurtosis below which step-like vertical deflections are an eye movement rather than blinks. */
+  readonly verticalGazeMaxKurtosis: number;
 }
 
 /** Where each default comes from, in one word or two: 'common practice' or 'ours' (values recalled from memory say so in a comment beside them). */
@@ -117,6 +127,20 @@ export const defaultThresholds: Thresholds = {
   // Ours, after common practice (small, flat-spectrum, spatially diffuse components are sensor/amplifier
   // noise, not muscle): 2 % of the data's variance, the upper end of the 1–2 % in issue 10.
   noiseVarianceShare: 0.02,
+  // Ours (issue 10): a Gaussian activation has excess kurtosis 0 (its sampling error over a 3-minute
+  // recording is ~0.03); burst-gated EMG is strongly super-Gaussian (common practice). 1 separates the two on
+  // the tuning seeds of the validation family (docs/suggestion-rules.md).
+  muscleKurtosis: 1,
+  // Ours (issue 10): 1 % of the variance; on the tuning seeds every Gaussian noise component with its strongest
+  // electrode on the rim stays below it.
+  muscleNoiseVarianceShare: 0.01,
+  // Ours (issue 10): a bad contact leaves the other electrodes flat (the reference's share on each), so the
+  // structured rest of its map is ~0; focal brain and muscle maps keep more (tuning seeds of the validation family).
+  electrodeRestStructure: 0.05,
+  // Ours (issue 10): three times the alpha prominence level; simulated alpha/mu components reach 1.5–2.7.
+  muscleAlphaVeto: 0.3,
+  // Ours (issue 10): blinks are sparse (excess kurtosis ≫ 3, common practice); vertical gaze steps are not.
+  verticalGazeMaxKurtosis: 6,
 };
 
 /** Source of every default in `defaultThresholds` (see the comment beside each value). */
@@ -144,6 +168,11 @@ export const thresholdSources: Record<keyof Thresholds, ThresholdSource> = {
   muscleRimFocality: 'ours',
   muscleDipoleDepthMm: 'ours',
   noiseVarianceShare: 'ours',
+  muscleKurtosis: 'ours',
+  muscleNoiseVarianceShare: 'ours',
+  verticalGazeMaxKurtosis: 'ours',
+  electrodeRestStructure: 'ours',
+  muscleAlphaVeto: 'ours',
 };
 
 /** Defaults with the user's overrides applied; unknown or non-finite overrides are ignored. */

@@ -3,7 +3,8 @@
  * (issue 10 items 6–7), and pools the scores of many recordings.
  *
  * - **Found**: a source is found when the assignment (match.ts) gives it a component whose map has |r| > 0.9
- *   with its true map (the issue's level).
+ *   with its true map (the issue's level) and that component holds it: no other source, nor the sensor noise,
+ *   carries more of the component's variance.
  * - **True class of a component**: the activation of component i is a_i = Σ_k (w_i·m_k) s_k + w_i·L·noise
  *   (W the unmixing, m_k the true maps, L the bridge/interpolation/reference operator of the simulation), so
  *   the share of its variance that each source carries is (w_i·m_k)² var(s_k) / var(a_i), the sources being
@@ -88,17 +89,21 @@ export interface ScenarioScore {
 }
 
 /** Per component, the variance each true source (and the sensor noise) contributes, by class. */
-function componentComposition(session: FamilySession, dec: Decomposition): { trueClass: TrueSourceClass; purity: number }[] {
+function componentComposition(session: FamilySession, dec: Decomposition): { trueClass: TrueSourceClass; purity: number; topSource: string | null }[] {
   const m = dec.nChannels;
   const rowOf = dec.channels.map((l) => session.labels.indexOf(l));
-  const out: { trueClass: TrueSourceClass; purity: number }[] = [];
+  const out: { trueClass: TrueSourceClass; purity: number; topSource: string | null }[] = [];
   for (let i = 0; i < dec.nComponents; i++) {
     const w = dec.unmixing.subarray(i * m, (i + 1) * m);
     const byClass = new Map<TrueSourceClass, number>();
+    let topSource: string | null = null;
+    let topV = -1;
     for (const s of session.sources) {
       let g = 0;
       for (let d = 0; d < m; d++) g += w[d] * s.map[rowOf[d]];
-      byClass.set(s.class, (byClass.get(s.class) ?? 0) + g * g * s.highPassedVariance);
+      const v = g * g * s.highPassedVariance;
+      byClass.set(s.class, (byClass.get(s.class) ?? 0) + v);
+      if (v > topV) [topSource, topV] = [s.id, v];
     }
     // Sensor noise: white, σ² per pre-operator channel; a_i's noise part is Σ_j (Σ_c w_c L_cj) n_j.
     const v = new Float64Array(session.labels.length);
@@ -113,7 +118,7 @@ function componentComposition(session: FamilySession, dec: Decomposition): { tru
       total += val;
       if (val > bestV) [best, bestV] = [c, val];
     }
-    out.push({ trueClass: best, purity: total > 0 ? bestV / total : 0 });
+    out.push({ trueClass: best, purity: total > 0 ? bestV / total : 0, topSource: topV > vv * session.sensorNoiseUv ** 2 ? topSource : null });
   }
   return out;
 }
@@ -179,7 +184,9 @@ export function scoreScenario(
   }));
   const sources: ScoredSource[] = session.sources.map((s, k) => {
     const mt = matches[k];
-    const found = mt.component >= 0 && mt.r > FOUND_R;
+    // Found: the maps agree (|r| > 0.9) and the component holds the source (no other source, nor the sensor
+    // noise, carries more of its variance) — a broad map can match a component that holds little of it.
+    const found = mt.component >= 0 && mt.r > FOUND_R && composition[mt.component].topSource === s.id;
     return {
       id: s.id,
       class: s.class,

@@ -41,6 +41,8 @@ export interface FamilyLimits {
   /** Duration range in minutes (default 3–30, log-uniform). */
   readonly minMinutes?: number;
   readonly maxMinutes?: number;
+  /** Sampling rates to draw from (default 250 and 500 Hz). */
+  readonly rates?: readonly (250 | 500)[];
   /** Largest channels × samples (memory budget; default 2.4e7 ≈ 96 MB of float32). */
   readonly maxValues?: number;
 }
@@ -61,7 +63,8 @@ export function drawFamilyParams(
   const channels = pick(r, limits.channels && limits.channels.length ? limits.channels : MONTAGE_SIZES);
   const walking = r.uniform() < 0.4;
   const lineHz: 50 | 60 = r.uniform() < 0.5 ? 50 : 60;
-  const rate: 250 | 500 = r.uniform() < 0.7 ? 250 : 500;
+  const drawn: 250 | 500 = r.uniform() < 0.7 ? 250 : 500;
+  const rate: 250 | 500 = limits.rates && limits.rates.length && !limits.rates.includes(drawn) ? limits.rates[0] : drawn;
   const lo = Math.max(0.5, limits.minMinutes ?? 3);
   const hi = Math.max(lo, limits.maxMinutes ?? 30);
   let minutes = lo * Math.pow(hi / lo, r.uniform());

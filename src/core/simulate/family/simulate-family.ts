@@ -254,8 +254,8 @@ export function simulateFamily(params: FamilyParams): FamilySession {
       leads.set(first, 1);
       const near = neighboursOf(labels, directions, 2)(labels[first]);
       near.forEach((l, i) => leads.set(idx(l), i === 0 ? r.between(0.2, 0.6) : r.between(0.1, 0.4)));
-      const broad = r.between(1, 3);
-      const raw = sensorMap((c) => broad * (g[0] * directions[3 * c] + g[1] * directions[3 * c + 1] + g[2] * directions[3 * c + 2]) + (leads.get(c) ?? 0), r.between(3, 12));
+      const broad = r.between(0.5, 2);
+      const raw = sensorMap((c) => broad * (g[0] * directions[3 * c] + g[1] * directions[3 * c + 1] + g[2] * directions[3 * c + 2]) + (leads.get(c) ?? 0), r.between(5, 20));
       return { id: 'mains', class: 'mains', kind: 'mains', description: `Mains interference at ${f0} Hz: common-mode gradient plus leads near ${labels[first]}.`, raw, dipoles: [], activation: act, expected: true };
     },
   });
@@ -295,7 +295,7 @@ export function simulateFamily(params: FamilyParams): FamilySession {
           s += rr0 * (1 + 0.04 * Math.sin(2 * Math.PI * 0.25 * s)) + 0.015 * r.normal();
         }
         const d = unitVec([-0.5 + 0.3 * r.normal(), 0.35 + 0.3 * r.normal(), -0.8 + 0.2 * r.normal()]);
-        const raw = sensorMap((c) => directions[3 * c] * d[0] + directions[3 * c + 1] * d[1] + directions[3 * c + 2] * d[2], r.between(3, 10));
+        const raw = sensorMap((c) => directions[3 * c] * d[0] + directions[3 * c + 1] * d[1] + directions[3 * c + 2] * d[2], r.between(5, 15));
         return { id: 'cardiac', class: 'cardiac', kind: 'cardiac', description: `Heartbeat at ~${Math.round(bpm)} bpm as a far field (smooth gradient).`, raw, dipoles: [], activation: act, expected: true };
       },
     });
