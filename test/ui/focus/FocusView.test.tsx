@@ -74,7 +74,7 @@ describe('AnswerPanel', () => {
     const html = renderToStaticMarkup(
       <AnswerPanel
         question={q}
-        rows={[{ key: 'rv', label: 'Dipole residual variance', value: '4.0', unit: '%', threshold: '≤ 15 %', source: 'ours', flagged: false }]}
+        rows={[{ key: 'rv', label: 'Dipole residual variance', value: '4.0', unit: '%', threshold: '≤ 15 %', source: 'ours', flagged: false, rules: [] }]}
         rules={[{ measure: 'dipole.residualVariance', value: 0.04, threshold: 0.15, direction: '≤', source: 'ours' }]}
       >
         <svg data-figure="" />
