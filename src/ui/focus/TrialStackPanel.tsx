@@ -158,9 +158,9 @@ export function TrialStackPanel({ trace, sampleRate, events, defaultLockTo, wind
           />
           <p className="note" data-testid="focus-lock-words">
             {view.nEpochs} trials around “{words}”{splitBy ? `, split by ${splitBy}` : ''}, at {channel} (µV, before-event mean removed).{' '}
-            {groups.length === 1 ? 'Shaded: 95 % band (mean ± 1.96 SEM). ' : ''}
+            {groups.length === 1 ? 'Shaded: 95\u00a0% band (mean ± 1.96 SEM). ' : ''}
             Locked share of trial variance:{' '}
-            {groups.map((g) => `${g.value === null ? '' : `${g.value} `}${Number.isFinite(g.lockedShare) ? `${trimZero((Math.max(0, g.lockedShare) * 100).toFixed(0))} %` : 'n/a'}`).join(', ')}.
+            {groups.map((g) => `${g.value === null ? '' : `${g.value} `}${Number.isFinite(g.lockedShare) ? `${trimZero((Math.max(0, g.lockedShare) * 100).toFixed(0))}\u00a0%` : 'n/a'}`).join(', ')}.
           </p>
         </div>
       ) : (

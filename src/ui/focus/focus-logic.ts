@@ -121,7 +121,7 @@ export function stepQuestion(current: QuestionId, step: number): QuestionId {
 
 /** A fired rule in words: "0.91 ≥ 0.6 (common practice)"; shares written as percentages. */
 export function firedRuleText(rule: { value: number; threshold: number; direction: string; source: string }, percent: boolean): string {
-  const f = (v: number) => (percent ? `${trimZero((v * 100).toFixed(0))} %` : trimZero(v.toPrecision(3)));
+  const f = (v: number) => (percent ? `${trimZero((v * 100).toFixed(0))}\u00a0%` : trimZero(v.toPrecision(3)));
   return `${f(rule.value)} ${rule.direction} ${f(rule.threshold)} (${rule.source})`;
 }
 

@@ -84,7 +84,7 @@ describe('AnswerPanel', () => {
     expect(html).toContain('data-testid="focus-answer-where"');
     expect(html).toContain('<svg data-figure=""></svg>');
     expect(html).toContain('dipole residual variance');
-    expect(html).toContain('4 % ≤ 15 % (ours)');
+    expect(html).toContain('4\u00a0% ≤ 15\u00a0% (ours)');
     expect(html).toContain('4.0\u00a0%');
   });
 });

@@ -69,7 +69,7 @@ describe('the four questions', () => {
   });
   it('writes a fired rule with its source and never a negative zero', async () => {
     const { firedRuleText, trimZero } = await import('../../../src/ui/focus/focus-logic.ts');
-    expect(firedRuleText({ value: 0.912, threshold: 0.6, direction: '≥', source: 'common practice' }, true)).toBe('91 % ≥ 60 % (common practice)');
+    expect(firedRuleText({ value: 0.912, threshold: 0.6, direction: '≥', source: 'common practice' }, true)).toBe('91\u00a0% ≥ 60\u00a0% (common practice)');
     expect(firedRuleText({ value: 12.3456, threshold: 5, direction: '≥', source: 'ours' }, false)).toBe('12.3 ≥ 5 (ours)');
     expect(trimZero('-0.0')).toBe('0');
     expect(trimZero('2.50')).toBe('2.5');
