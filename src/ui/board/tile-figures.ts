@@ -4,6 +4,7 @@
  */
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
 import type { SuggestionWithRules } from '../../core/review/suggest.ts';
+import { formatNumber } from '../plots/format-number.ts';
 
 export interface TileFigure {
   readonly label: string;
@@ -13,8 +14,9 @@ export interface TileFigure {
   readonly title: string;
 }
 
-const pct = (x: number) => (Number.isFinite(x) ? `${(100 * x).toFixed(Math.abs(x) < 0.01 ? 2 : Math.abs(x) < 0.1 ? 1 : 0)} %` : 'n/a');
-const num = (x: number, digits = 2) => (Number.isFinite(x) ? x.toFixed(digits) : 'n/a');
+// A non-breaking space keeps "%" on the line of its number; no negative zeros (plots/format-number.ts).
+const pct = (x: number) => (Number.isFinite(x) ? `${formatNumber(100 * x, Math.abs(x) < 0.01 ? 2 : Math.abs(x) < 0.1 ? 1 : 0)}\u00a0%` : 'n/a');
+const num = (x: number, digits = 2) => formatNumber(x, digits);
 
 /** Every figure the tile knows how to show, keyed by a short id. */
 export function allTileFigures(e: ComponentEvidence): Record<string, TileFigure> {
@@ -27,7 +29,9 @@ export function allTileFigures(e: ComponentEvidence): Record<string, TileFigure>
     focal: { label: 'one electrode', value: pct(e.focality.share), title: `Share of map energy on ${e.focality.channel} (%)` },
     cardiac: { label: 'beat', value: e.cardiac.bpm === null ? 'none' : `${e.cardiac.bpm.toFixed(0)} bpm`, title: `Autocorrelation peak ${num(e.cardiac.peak)} at the beat interval (beats per minute)` },
     kurtosis: { label: 'kurtosis', value: num(e.kurtosis, 1), title: 'Excess kurtosis of the activation (0 for Gaussian), unitless' },
-    locked: { label: 'time-locked', value: e.erp ? pct(e.erp.lockedShare) : 'n/a', title: 'Share of single-trial variance phase-locked to the events (%)' },
+    // Not the evidence table's "Time-locking" (the locked share above shuffled event times): the share of the
+    // trials' variance in their average, which cannot be negative (an estimate below 0 shows as 0).
+    locked: { label: 'locked variance', value: e.erp ? pct(Math.max(0, e.erp.lockedShare)) : 'n/a', title: 'Share of single-trial variance phase-locked to the events (%); not the time-locking above chance of the evidence table' },
     rv: { label: 'dipole RV', value: e.dipole ? pct(e.dipole.residualVariance) : 'n/a', title: 'Residual variance of the single-dipole fit (%), a model estimate' },
     alpha: { label: 'alpha', value: e.alphaPeakHz === null ? 'none' : `${e.alphaPeakHz.toFixed(1)} Hz`, title: 'Alpha peak frequency above the 1/f fit (Hz)' },
     slope: { label: 'exponent', value: num(e.oneOverF.exponent, 2), title: '1/f exponent χ in P ∝ f^−χ, unitless' },
@@ -42,7 +46,7 @@ const BY_REASON: Record<string, readonly string[]> = {
   cardiac: ['cardiac', 'rv', 'kurtosis'],
   'mains': ['line', 'focal', 'hf'],
   contact: ['focal', 'rv', 'slope'],
-  motion: ['step', 'hf', 'rv'],
+  movement: ['step', 'hf', 'rv'],
   neural: ['rv', 'alpha', 'locked'],
   mixed: ['rv', 'eog', 'hf'],
   unclear: ['rv', 'eog', 'hf'],

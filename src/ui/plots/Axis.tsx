@@ -3,6 +3,7 @@
  * `side` says where the labels sit relative to the axis line.
  */
 import { format as d3format, type ScaleLinear } from 'd3';
+import { withoutNegativeZero } from './format-number.ts';
 
 export interface AxisProps {
   readonly scale: ScaleLinear<number, number>;
@@ -16,7 +17,7 @@ export interface AxisProps {
 }
 
 export function Axis({ scale, side, ticks = 5, format = '.3~g', label }: AxisProps) {
-  const fmt = d3format(format);
+  const fmt = withoutNegativeZero(d3format(format));
   const values = scale.ticks(ticks);
   const [r0, r1] = scale.range();
   if (side === 'bottom') {

@@ -4,6 +4,7 @@
  * page never clash).
  */
 import { scaleLinear, format } from 'd3';
+import { withoutNegativeZero } from './format-number.ts';
 import { divergingColor, sequentialColor } from './palette.ts';
 import { colourTicks, sequentialTicks } from './colour-scale.ts';
 
@@ -26,7 +27,7 @@ export function ColourScale({ maxAbs, height, width = 10, unit, steps = 32, kind
   const lo = sequential ? 0 : -maxAbs;
   const y = scaleLinear().domain([lo, maxAbs]).range([height, 0]);
   const ticks = sequential ? sequentialTicks(maxAbs, 4) : colourTicks(maxAbs, 4);
-  const fmt = format('.2~g');
+  const fmt = withoutNegativeZero(format('.2~g'));
   const step = height / steps;
   return (
     <g className="colour-scale">

@@ -1,9 +1,11 @@
 /**
  * The fitted equivalent dipole in three small orthogonal head views (top, side, back), with its residual
- * variance and approximate region. Always carries the caution that this is an approximate model estimate.
+ * variance and approximate region. Carries the caution that this is an approximate model estimate once, as
+ * its caption.
  */
 import type { DipoleEvidence } from '../../core/evidence/types.ts';
 import { DIPOLE_VIEWS, drawingRadiusMm, projectDipole, type DipoleViewName } from './dipole-projection.ts';
+import { formatNumber } from './format-number.ts';
 
 export interface DipoleViewsProps {
   readonly dipole: DipoleEvidence;
@@ -44,7 +46,7 @@ export function DipoleViews({ dipole, size = 96 }: DipoleViewsProps) {
   const R = drawingRadiusMm(dipole.position);
   const r = size * 0.4;
   const width = size * 3;
-  const height = size + 40;
+  const height = size + 28;
   return (
     <figure className="dipole-views">
       <svg width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label="equivalent dipole, three views">
@@ -64,21 +66,21 @@ export function DipoleViews({ dipole, size = 96 }: DipoleViewsProps) {
             </g>
           );
         })}
-        <text x={4} y={height - 15} fontSize={9} fill="#333">
-          RV {(dipole.residualVariance * 100).toFixed(1)} % · {dipole.region}
+        <text x={4} y={height - 6} fontSize={9} fill="#333">
+          RV {formatNumber(dipole.residualVariance * 100, 1)}{'\u00a0'}% · {dipole.region}
         </text>
-        <text x={4} y={height - 3} fontSize={9} fill="#6a4b00">approximate model estimate, not an anatomical location</text>
       </svg>
       <figcaption>
         <div>
-          Residual variance <strong>{(dipole.residualVariance * 100).toFixed(1)} %</strong>
+          Residual variance <strong>{formatNumber(dipole.residualVariance * 100, 1)}{'\u00a0'}%</strong>
           {dipole.atBoundary ? ' · fit stopped at the brain boundary' : ''}
         </div>
         <div>Approximate region: {dipole.region}</div>
         <div>
-          Position (mm, right/anterior/up): {dipole.position.map((v) => v.toFixed(0)).join(', ')}
+          Position (mm, right/anterior/up): {dipole.position.map((v) => formatNumber(v, 0)).join(', ')}
         </div>
-        <p className="caution">{DIPOLE_CAUTION}</p>
+        {/* The caution once per figure (a caption, so exported figures keep it). */}
+        <p className="caution note">{DIPOLE_CAUTION}</p>
       </figcaption>
     </figure>
   );

@@ -64,9 +64,11 @@ describe('EvidenceTable', () => {
 describe('DipoleViews', () => {
   it('shows residual variance, region and the model-estimate caution', () => {
     const html = renderToStaticMarkup(<DipoleViews dipole={syntheticEvidence().dipole!} />);
-    expect(html).toContain('4.0 %');
+    expect(html).toContain('4.0\u00a0%'); // a non-breaking space keeps % with its number
     expect(html).toContain('frontal, midline, superficial');
-    expect(html).toContain('Approximate model estimate');
+    // the caution once per figure, as its caption (issue 15: it was repeated three times)
+    expect(html.match(/model estimate/gi)).toHaveLength(1);
+    expect(html).toContain('<p class="caution note">Approximate model estimate');
     expect(html).toContain('from above');
   });
 });
