@@ -44,7 +44,9 @@ const WIDTH = 440;
 
 export function TrialStackPanel({ trace, sampleRate, events, defaultLockTo, window, channel, settings, onSettings, context }: TrialStackPanelProps) {
   const types = useMemo(() => eventTypes(events), [events]);
-  const key = settings.lockTo ?? defaultLockTo;
+  // A choice made on another recording whose types differ falls back to the default.
+  const chosen = settings.lockTo !== null && types.some((t) => t.type === parseSelectionKey(settings.lockTo!).type) ? settings.lockTo : null;
+  const key = chosen ?? defaultLockTo;
   const selection: EventSelection | null = key ? parseSelectionKey(key) : null;
   const type = types.find((t) => t.type === selection?.type) ?? null;
   const splitBy = settings.splitBy && type?.factors.some((f) => f.column === settings.splitBy) ? settings.splitBy : null;
