@@ -100,6 +100,12 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
   const findings: Finding[] = [];
   const eog = e.eogCorrelation;
   const src = eog.source === 'EOG channels' ? 'EOG' : 'frontal EOG proxy';
+  // A correlation with the frontal proxy (built from the cap's own frontal electrodes) is also met by brain
+  // sources under those electrodes, whose 1/f activity is slow and step-like too; so a proxy hit needs a
+  // clearly slow spectrum to count (issue 10, ours; tuning seeds of the validation family: ocular components
+  // ≥ 0.78, frontal background ≤ 0.68).
+  const proxy = eog.source !== 'EOG channels';
+  const proxySlow = e.lowFrequencyShare >= t.ocularProxyLowFrequencyShare;
 
   // Timing relative to the events
   let timeLocked: boolean | null = null;
@@ -134,7 +140,7 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
       check('lowFrequencyShare', e.lowFrequencyShare, t, 'ocularLowFrequencyShare', '≥'),
       eogHit || frontal ? check('kurtosis', e.kurtosis, t, 'blinkKurtosis', '≥') : null,
     );
-    if (!hitsH && ((eogHit && (frontal || slow)) || (frontal && slow))) {
+    if (!hitsH && ((eogHit && (proxy ? proxySlow : frontal || slow)) || (frontal && slow))) {
       // Vertical eye movements share the blink's vertical EOG and frontal map, but their slow deflections
       // persist as steps (the gaze stays up or down) where a blink returns within ~0.3 s (common practice:
       // blinks are brief, saccades shift the level; docs/methods.md §14). Step-likeness at the gaze level
@@ -171,7 +177,7 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
       check('lowFrequencyShare', e.lowFrequencyShare, t, 'ocularLowFrequencyShare', '≥'),
       check('stepLikeness', e.stepLikeness, t, 'gazeStepLikeness', '≥'),
     );
-    if ((eogHit && (anti || slow || steps)) || (anti && slow && frontal))
+    if ((eogHit && (proxy ? proxySlow : anti || slow || steps)) || (anti && slow && frontal))
       findings.push({ signature: 'gaze', strong: eogHit || (anti && slow && frontal && steps), because, rules });
   }
 
@@ -323,8 +329,11 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
  * `contact` comes first (issue 10 item 2a): a map with most of its energy on one electrode is a contact
  * fault whatever its spectrum — a loose electrode picks up line noise, cable sway and broadband noise that
  * read as mains, movement or muscle — and a blink or eye-movement map always spans two or more electrodes.
+ * `muscle` comes before `movement` and `cardiac` (issue 10, ours): neck muscle fires with every heel strike, so
+ * EMG is step-locked in walking recordings, while cable sway and heartbeats are slow and never read as muscle
+ * (muscle needs a flat spectrum above 20 Hz, bursts and spatial support).
  */
-export const SIGNATURE_PRECEDENCE: readonly Signature[] = ['contact', 'blink', 'gaze', 'mains', 'movement', 'cardiac', 'muscle'];
+export const SIGNATURE_PRECEDENCE: readonly Signature[] = ['contact', 'blink', 'gaze', 'mains', 'muscle', 'movement', 'cardiac'];
 
 /** Artifact families whose strong signatures contradict each other: their origins differ (ours, issue 10 item 2d). */
 const FAMILY: Partial<Record<Signature, 'ocular' | 'muscle' | 'cardiac'>> = { blink: 'ocular', gaze: 'ocular', muscle: 'muscle', cardiac: 'cardiac' };

@@ -12,6 +12,8 @@ export interface Thresholds {
   readonly blinkFrontalGradient: number;
   /** BP(1–4 Hz) / BP(1–45 Hz) at or above which the spectrum counts as ocular (slow). */
   readonly ocularLowFrequencyShare: number;
+  /** BP(1–4 Hz) / BP(1–45 Hz) a correlation with the frontal EOG proxy (no EOG channels) needs to count. */
+  readonly ocularProxyLowFrequencyShare: number;
   /** Frontal left–right antisymmetry (−1…1) at or above which a map counts as horizontal-eye-like. */
   readonly gazeAntisymmetry: number;
   /** Step-likeness (0…1) supporting a horizontal eye movement. */
@@ -75,6 +77,10 @@ export const defaultThresholds: Thresholds = {
   blinkFrontalGradient: 2,
   // Ours, after docs/methods.md §14 ("power concentrated below ~4–5 Hz" for ocular components — common practice).
   ocularLowFrequencyShare: 0.5,
+  // Ours (issue 10): with only the frontal proxy, a slow spectrum must back the correlation; on the tuning seeds
+  // of the validation family ocular components have ≥ 0.78 of 1–45 Hz power below 4 Hz, brain background
+  // components that correlate with the proxy ≤ 0.68.
+  ocularProxyLowFrequencyShare: 0.72,
   // Ours: docs/methods.md §14 describes lateral eye movements as left–right antisymmetric at lateral frontal sites
   // (common practice); 0.6 on the −1…1 antisymmetry scale.
   gazeAntisymmetry: 0.6,
@@ -136,7 +142,7 @@ export const defaultThresholds: Thresholds = {
   muscleNoiseVarianceShare: 0.01,
   // Ours (issue 10): a bad contact leaves the other electrodes flat (the reference's share on each), so the
   // structured rest of its map is ~0; focal brain and muscle maps keep more (tuning seeds of the validation family).
-  electrodeRestStructure: 0.05,
+  electrodeRestStructure: 0.08,
   // Ours (issue 10): three times the alpha prominence level; simulated alpha/mu components reach 1.5–2.7.
   muscleAlphaVeto: 0.3,
   // Ours (issue 10): blinks are sparse (excess kurtosis ≫ 3, common practice); vertical gaze steps are not.
@@ -148,6 +154,7 @@ export const thresholdSources: Record<keyof Thresholds, ThresholdSource> = {
   eogCorrelation: 'common practice', // value recalled from memory
   blinkFrontalGradient: 'ours',
   ocularLowFrequencyShare: 'ours',
+  ocularProxyLowFrequencyShare: 'ours',
   gazeAntisymmetry: 'ours',
   gazeStepLikeness: 'ours',
   blinkKurtosis: 'common practice',

@@ -3,8 +3,8 @@
  * (issue 10 items 6–7), and pools the scores of many recordings.
  *
  * - **Found**: a source is found when the assignment (match.ts) gives it a component whose map has |r| > 0.9
- *   with its true map (the issue's level) and that component holds it: no other source, nor the sensor noise,
- *   carries more of the component's variance.
+ *   with its true map (the issue's level) and that component holds it: no other true source carries more of
+ *   the component's variance.
  * - **True class of a component**: the activation of component i is a_i = Σ_k (w_i·m_k) s_k + w_i·L·noise
  *   (W the unmixing, m_k the true maps, L the bridge/interpolation/reference operator of the simulation), so
  *   the share of its variance that each source carries is (w_i·m_k)² var(s_k) / var(a_i), the sources being
@@ -118,7 +118,7 @@ function componentComposition(session: FamilySession, dec: Decomposition): { tru
       total += val;
       if (val > bestV) [best, bestV] = [c, val];
     }
-    out.push({ trueClass: best, purity: total > 0 ? bestV / total : 0, topSource: topV > vv * session.sensorNoiseUv ** 2 ? topSource : null });
+    out.push({ trueClass: best, purity: total > 0 ? bestV / total : 0, topSource });
   }
   return out;
 }
@@ -184,8 +184,9 @@ export function scoreScenario(
   }));
   const sources: ScoredSource[] = session.sources.map((s, k) => {
     const mt = matches[k];
-    // Found: the maps agree (|r| > 0.9) and the component holds the source (no other source, nor the sensor
-    // noise, carries more of its variance) — a broad map can match a component that holds little of it.
+    // Found: the maps agree (|r| > 0.9) and the component holds the source (no other source carries more of
+    // its variance) — a broad map can match a component that holds little of it. Sensor noise is left out of
+    // this test: a bad electrode's component always holds that electrode's own noise too.
     const found = mt.component >= 0 && mt.r > FOUND_R && composition[mt.component].topSource === s.id;
     return {
       id: s.id,
