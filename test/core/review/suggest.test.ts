@@ -268,3 +268,70 @@ describe('suggestion precedence (docs/suggestion-rules.md)', () => {
     expect(suggestWithRules(blink, 'erp').rules[0]).toEqual({ measure: 'eogCorrelation.vertical', value: 0.93, threshold: 0.7, direction: '≥', source: 'common practice' });
   });
 });
+
+/**
+ * Issue 10 items 2 and 7: the rules added while tuning on the validation family (tuning seeds 1–999 only;
+ * docs/suggestion-rules.md). One test per rule on hand-built evidence; each names its source.
+ */
+describe('rules tuned on the validation family (docs/suggestion-rules.md)', () => {
+  // A 19-electrode map: index 0 is the strongest electrode.
+  const focalMap = (restValues: number[]) => Float64Array.from([1, ...restValues]);
+
+  // Ours: a bad contact leaves the rest of the map flat (the reference's share on every other electrode).
+  it('a focal map is a contact only when the rest of the map is flat; a focal muscle map with structure stays muscle', () => {
+    const flatRest = focalMap(Array.from({ length: 18 }, () => -1 / 19)); // average-referenced single electrode
+    const contact = suggestWithRules(evidence({ ...muscle, map: flatRest, focality: { share: 0.95, channel: 'T8' } }), 'erp');
+    expect(contact.suggestion).toMatchObject({ verdict: 'remove', reason: 'contact' });
+    expect(contact.rules.map((r) => r.measure)).toEqual(expect.arrayContaining(['focality.share', 'focality.restStructure']));
+    // neighbours carry part of the map unevenly (a shallow muscle patch): not a single electrode
+    const patch = focalMap([0.45, 0.4, 0.3, 0.2, ...Array.from({ length: 14 }, () => -0.1)]);
+    const m = suggestWithRules(evidence({ ...muscle, map: patch, focality: { share: 0.7, channel: 'T8' }, erp: erp(0.001, 0.6) }), 'oscillations');
+    expect(m.suggestion).toMatchObject({ verdict: 'remove', reason: 'muscle' });
+  });
+
+  // Common practice (EMG comes in bursts; sensor noise is Gaussian); 1 and 1 % ours.
+  it('a Gaussian flat-spectrum component with a small variance share is noise even when strongest at a rim electrode', () => {
+    const e = evidence({ highFrequencyShare: 0.6, highFrequencySlope: 0, kurtosis: 0.05, varianceShare: 0.004, focality: { share: 0.15, channel: 'F8' }, strongestChannel: { index: 0, label: 'F8', weight: 1 } });
+    for (const aim of AIMS) {
+      const { suggestion, rules } = suggestWithRules(e, aim);
+      expect(suggestion).toMatchObject({ verdict: 'keep', reason: 'unclear' });
+      expect(suggestion.because.join(' ')).toMatch(/no bursts \(excess kurtosis 0\.1\).*Gaussian broadband noise/);
+      expect(rules).toContainEqual({ measure: 'kurtosis', value: 0.05, threshold: 1, direction: '≤', source: 'ours' });
+    }
+    // the same with bursts is muscle
+    expect(suggestVerdict({ ...e, kurtosis: 12 }, 'oscillations')).toMatchObject({ verdict: 'remove', reason: 'muscle' });
+  });
+
+  // Common practice: blinks return within ~0.3 s, vertical saccades shift the level; 6 ours.
+  it('step-like vertical deflections without blink sparseness are gaze, not blink', () => {
+    const vertical = { ...blink, stepLikeness: 0.9, kurtosis: 1.5 };
+    for (const aim of AIMS) expect(suggestVerdict(vertical, aim)).toMatchObject({ verdict: 'remove', reason: 'gaze' });
+    expect(suggestVerdict(vertical, 'erp').because.join(' ')).toMatch(/persist as steps \(0\.90\).*vertical eye movement/);
+    expect(suggestVerdict({ ...vertical, kurtosis: 20 }, 'erp').reason).toBe('blink');
+  });
+
+  // Ours: the frontal proxy is built from the cap's own electrodes, so a correlation with it needs a slow spectrum.
+  it('a correlation with the frontal EOG proxy alone, without a clearly slow spectrum, is not ocular', () => {
+    const proxyEog = { vertical: 0.1, horizontal: 0.75, source: 'frontal bipolar' as const, channels: { vertical: 'Fp1+Fp2 vs average', horizontal: 'F8 − F7' } };
+    const brainy = evidence({ eogCorrelation: proxyEog, stepLikeness: 0.9, lowFrequencyShare: 0.6, oneOverF: { exponent: 1.8, offset: 1, rangeHz: [2, 40] } });
+    expect(suggestVerdict(brainy, 'erp').reason).not.toBe('gaze');
+    expect(suggestVerdict({ ...brainy, lowFrequencyShare: 0.8 }, 'erp')).toMatchObject({ verdict: 'remove', reason: 'gaze' });
+    // with real EOG channels the step-like time course still corroborates (unchanged)
+    expect(suggestVerdict({ ...brainy, eogCorrelation: { ...proxyEog, source: 'EOG channels' } }, 'erp').reason).toBe('gaze');
+  });
+
+  // Ours: neck EMG fires with heel strikes, so step-locked bursty broadband activity is muscle, not movement.
+  it('names step-locked muscle as muscle; slow step-locked sway stays movement', () => {
+    const neck = { ...muscle, stepLocking: { share: 0.3, event: 'step', nEpochs: 200 } };
+    expect(suggestVerdict(neck, 'oscillations')).toMatchObject({ verdict: 'remove', reason: 'muscle' });
+    expect(suggestVerdict(evidence({ stepLocking: { share: 0.3, event: 'step', nEpochs: 200 }, lowFrequencyShare: 0.8 }), 'oscillations').reason).toBe('movement');
+  });
+
+  // Ours: only a clear alpha peak (≥ 0.3 log10) keeps strong muscle weak.
+  it('a small alpha bump does not weaken unmistakable muscle; a clear alpha peak does', () => {
+    const bump = { ...muscle, alphaPeakHz: 10.5, alphaProminence: 0.15 };
+    expect(suggestVerdict(bump, 'conservative')).toMatchObject({ verdict: 'remove', reason: 'muscle' });
+    const peak = { ...muscle, alphaPeakHz: 10.5, alphaProminence: 0.5 };
+    expect(suggestVerdict(peak, 'conservative')).toMatchObject({ verdict: 'keep', reason: 'muscle' });
+  });
+});
