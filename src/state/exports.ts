@@ -10,6 +10,7 @@ import { workbenchStore } from './store.ts';
 import { getWorkbenchServices } from './services.ts';
 import { progressAt } from './task-progress.ts';
 import { selectRemovedIndices, selectSuggestions } from './selectors.ts';
+import { residualFromState } from './residual-check.ts';
 import type { WorkbenchState } from './types.ts';
 import { version } from '../../package.json';
 
@@ -50,9 +51,13 @@ export function decisionsTsvFromState(s: WorkbenchState): string | null {
   return f ? formatDecisionsTsv(f) : null;
 }
 
-/** `residualWarnings`: what the decomposition missed (review/residual.ts), when the caller measured it. */
+/**
+ * The methods paragraph, with what the decomposition missed (review/residual.ts): `residualWarnings` when the
+ * caller measured it, else the check of the current decisions (residual-check.ts).
+ */
 export function methodsTextFromState(s: WorkbenchState, residualWarnings?: readonly string[]): string | null {
   if (!s.decomposition || !s.recording) return null;
+  const residual = residualWarnings ?? residualFromState(s)?.warnings.map((w) => w.text);
   const byIndex = new Map((s.evidence ?? []).map((e) => [e.index, e] as const));
   const suggestions = selectSuggestions(s);
   return methodsText({
@@ -66,7 +71,7 @@ export function methodsTextFromState(s: WorkbenchState, residualWarnings?: reado
     varianceShare: (i) => byIndex.get(i)?.varianceShare ?? null,
     thresholds: resolveThresholds(s.thresholds),
     ...(s.evidence ? { firedRules: (i: number) => suggestions.get(i)?.rules ?? null } : {}),
-    ...(residualWarnings ? { residualWarnings } : {}),
+    ...(residual ? { residualWarnings: residual } : {}),
   });
 }
 

@@ -26,7 +26,7 @@ export interface MethodsTextInput {
   readonly residualWarnings?: readonly string[];
 }
 
-const ruleFigure = (v: number) => (!Number.isFinite(v) ? 'n/a' : Math.abs(v) >= 100 || Number.isInteger(v) ? v.toFixed(0) : v.toPrecision(2));
+const ruleFigure = (v: number) => (!Number.isFinite(v) ? 'n/a' : Math.abs(v) >= 100 ? v.toFixed(0) : String(Number(v.toPrecision(3))));
 
 /** "focality.share 0.91 ≥ 0.6 (common practice)": the comparison exactly as the rule read it. */
 export function firedRuleText(r: FiredRule): string {

@@ -33,6 +33,7 @@ import { drawTraces, type TraceSpec } from '../plots/trace-draw.ts';
 import { clampWindowStart, markerEvents, niceScaleAbove, robustRowSpan } from '../plots/trace-layout.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
 import { ComponentStrip } from './ComponentStrip.tsx';
+import { ResidualNotice } from './ResidualNotice.tsx';
 import { PreviewToolbar, type PreviewSettings } from './PreviewToolbar.tsx';
 import { RegionErpPanel, RegionSpectraPanel, type SpectraScope } from './RegionPanels.tsx';
 import { RegionControls } from './RegionControls.tsx';
@@ -206,6 +207,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
   return (
     <section className="preview-view" data-testid="preview-view" aria-label="Cleaned signal preview">
       <ComponentStrip nComponents={k} />
+      <ResidualNotice recording={recording} decomposition={decomposition} removed={removed} />
       <PreviewToolbar
         settings={{ ...settings, startS }}
         uvPerDiv={uvPerDiv}

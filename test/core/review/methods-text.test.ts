@@ -36,4 +36,20 @@ describe('methodsText', () => {
     expect(text).toContain('No component was removed.');
     expect(text).toContain('conservative review');
   });
+
+  it('states the rules that held for each removed component, exactly as the suggestion read them', () => {
+    const text = methodsText({
+      ...base, aim: 'erp',
+      decisions: { 1: { verdict: 'remove', reason: 'blink', note: '' }, 2: { verdict: 'keep', reason: null, note: '' } },
+      firedRules: (i) => (i === 1 ? [{ measure: 'eogCorrelation.vertical', value: 0.934, threshold: 0.7, direction: '≥', source: 'common practice' }] : null),
+    });
+    expect(text).toContain('The suggestion rules that held for the removed components were — 1: eogCorrelation.vertical 0.934 ≥ 0.7 (common practice).');
+  });
+
+  it('reports what the decomposition missed, or that nothing remained', () => {
+    const warned = methodsText({ ...base, aim: 'erp', decisions: {}, residualWarnings: ['Fp1 keeps 62 % of its slow activity that follows the vertical eye reference'] });
+    expect(warned).toContain('After cleaning, artefact remained that no removed component held: Fp1 keeps 62 %');
+    expect(methodsText({ ...base, aim: 'erp', decisions: {}, residualWarnings: [] })).toContain('no remaining ocular, mains or heartbeat artefact was found');
+    expect(methodsText({ ...base, aim: 'erp', decisions: {} })).not.toContain('After cleaning');
+  });
 });
