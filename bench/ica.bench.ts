@@ -4,7 +4,8 @@
  * with a numpy FastICA reference (bench/fastica_reference.py) on the same data in the same run. ICA runs take
  * seconds to minutes, so each case is timed once (no warm-up, no median); trust ratios over absolute times on
  * this shared machine. Environment: WINNOW_BENCH_ICA_CHANNELS="32,64", WINNOW_BENCH_ICA_METHODS="picard,infomax",
- * WINNOW_BENCH_INFOMAX_MAXITER (default 200 passes), WINNOW_BENCH_ICA_THREADS=1 (no helper thread for Picard).
+ * WINNOW_BENCH_INFOMAX_MAXITER (default 200 passes), WINNOW_BENCH_ICA_THREADS=1 (no helper thread for Picard),
+ * WINNOW_BENCH_KERNELS=js (plain-JS kernels instead of WebAssembly SIMD, src/core/kernels).
  * Our time covers what the reference's covers: covariance, eigen-whitening, ICA (plus our ordering and sign).
  */
 import { spawnSync } from 'node:child_process';
@@ -17,6 +18,8 @@ import { createPrng } from '../src/core/ica/prng.ts';
 import { decomposeRecording } from '../src/core/ica/decompose.ts';
 import { amariIndexOf } from '../src/core/ica/amari.ts';
 import { createNodeIcaThreads } from '../src/cli/decompose.ts';
+import { installNodeKernels } from '../src/cli/wasm-kernels.ts';
+import { useJsKernels } from '../src/core/kernels/kernels.ts';
 
 const T = 150_000;
 
@@ -64,6 +67,7 @@ export async function bench(): Promise<BenchRow[]> {
   const channels = (process.env.WINNOW_BENCH_ICA_CHANNELS ?? '32,64').split(',').map(Number);
   const methods = (process.env.WINNOW_BENCH_ICA_METHODS ?? 'picard,infomax').split(',') as ('picard' | 'infomax')[];
   const infomaxMax = Number(process.env.WINNOW_BENCH_INFOMAX_MAXITER ?? 200);
+  const kernels = process.env.WINNOW_BENCH_KERNELS === 'js' ? useJsKernels() : installNodeKernels().kernels;
   const dir = mkdtempSync(join(tmpdir(), 'winnow-ica-bench-'));
   const helper = process.env.WINNOW_BENCH_ICA_THREADS === '1' ? null : await createNodeIcaThreads();
   try {
@@ -82,11 +86,11 @@ export async function bench(): Promise<BenchRow[]> {
         process.stderr.write(`bench ica: ${n} ch ${method}: ${(ms / 1000).toFixed(1)} s, Amari ${amari.toFixed(4)}, ${d.iterations} it\n`);
         rows.push({
           area: 'ica',
-          case: `${method} ${n} ch × ${T}${method === 'picard' && helper ? ' (2 threads)' : ''}`,
+          case: `${method} ${n} ch × ${T}${method === 'picard' && helper ? ' (2 threads)' : ''}, ${kernels.name}`,
           oursMs: ms,
           referenceMs: ref.ms,
           reference: ref.what,
-          note: `Amari ${amari.toFixed(4)}, ${d.iterations} it${d.converged ? '' : ' (not converged)'}${ref.note ? `; ${ref.note}` : ''}`,
+          note: `Amari ${amari.toFixed(4)}, ${d.iterations} it${r.finalGradientNorm !== null ? `, gradient ${r.finalGradientNorm.toExponential(1)}` : ''}${d.converged ? '' : ' (not converged)'}${ref.note ? `; ${ref.note}` : ''}`,
         });
       }
     }
