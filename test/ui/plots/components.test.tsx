@@ -82,3 +82,42 @@ describe('ErpPlot', () => {
     expect(html).toContain('stroke-dasharray="5 3"');
   });
 });
+
+describe('TopographyMap on the sequential scale (shares 0 … 1)', () => {
+  const html = renderToStaticMarkup(
+    <TopographyMap weights={Float64Array.from([0.1, 0.9, 0.3, 0.2, 0.5, NaN])} positionsUnit={positions} size={120} colourBar unit="share" scale="sequential" maxAbs={1} />,
+  );
+  it('says so and labels its bar from 0 to the top, never negative', () => {
+    expect(html).toContain('data-scale="sequential"');
+    const ticks = [...html.matchAll(/<text x="5" dy="0.32em"[^>]*>([^<]*)<\/text>/g)].map((m) => m[1]);
+    expect(ticks[0]).toBe('0');
+    expect(ticks[ticks.length - 1]).toBe('1');
+    expect(ticks.some((t) => t.startsWith('−') || t.startsWith('-'))).toBe(false);
+  });
+});
+
+describe('EvidenceTable, compact', () => {
+  it('folds the unit into the value and the source and threshold under them (two columns)', () => {
+    const html = renderToStaticMarkup(
+      <EvidenceTable compact rows={[{ key: 'hf', label: 'High-frequency share', value: '40.0', unit: '%', threshold: '≥ 35 % (ours)', source: 'BP ratio', flagged: true, rules: [] }]} />,
+    );
+    expect(html.match(/<th scope="col">/g)?.length).toBe(2);
+    expect(html).toContain('▲ 40.0\u00a0%');
+    expect(html).toContain('<span class="threshold">≥ 35 % (ours)</span>');
+    expect(html).toContain('class="flagged"');
+  });
+});
+
+describe('TrialStack split by a column', () => {
+  it('fences and names each block of rows', async () => {
+    const { TrialStack } = await import('../../../src/ui/plots/TrialStack.tsx');
+    const times = Float64Array.from([-0.1, 0, 0.1]);
+    const rows = { rows: new Float64Array(12), order: [0, 1, 2, 3], keys: new Float64Array(4).fill(NaN), sortApplied: 'order' as const };
+    const html = renderToStaticMarkup(
+      <TrialStack rows={rows} nEpochs={4} length={3} times={times} maxAbs={1} groups={[{ label: 'standard', start: 0, count: 3 }, { label: 'rare', start: 3, count: 1 }]} />,
+    );
+    expect(html).toContain('standard (3)');
+    expect(html).toContain('rare (1)');
+    expect(html.match(/stroke-width="1.5"/g)?.length).toBe(1); // one fence between two blocks
+  });
+});
