@@ -84,6 +84,14 @@ export function niceScaleBelow(v: number): number {
   return above <= v * (1 + 1e-9) ? above : stepScale(above, -1);
 }
 
+/** The value of the 1-2-5 sequence nearest to `v` on a log scale (110 → 100, 160 → 200). */
+export function niceScaleNearest(v: number): number {
+  if (!(v > 0) || !Number.isFinite(v)) return 1;
+  const lo = niceScaleBelow(v);
+  const hi = niceScaleAbove(v);
+  return Math.log(v / lo) <= Math.log(hi / v) ? lo : hi;
+}
+
 /** One step along the 1-2-5 sequence from `v` (itself on it): up (+1) or down (−1). */
 export function stepScale(v: number, dir: 1 | -1): number {
   const e = Math.floor(Math.log10(v) + 1e-9);

@@ -68,7 +68,7 @@ export function ComponentStripView({ nComponents, decisions, selected, decide, s
               onClick={() => decide(n, { verdict: stripToggleVerdict(d.verdict) })}
               data-testid={`preview-strip-toggle-${n}`}
             >
-              {removed ? 'removed' : 'remove'}
+              <span aria-hidden="true">✕</span>
             </button>
           </li>
         );

@@ -11,7 +11,7 @@ export interface PreviewSettings {
   readonly mode: 'overlay' | 'side-by-side';
   /**
    * Vertical scale in µV per division (one row spacing), on the 1-2-5 sequence; null = chosen from the
-   * window (about ±3 robust SD per row, rounded up to the sequence).
+   * window (about ±3 robust SD per row, the nearest value of the sequence).
    */
   readonly uvPerDiv: number | null;
   /** Events drawn as markers (event-selection.ts selection keys: a trial_type, optionally with a column value); null = all. */

@@ -30,7 +30,7 @@ import { decompositionMontage } from '../plots/montage-positions.ts';
 import { TopographyMap } from '../plots/TopographyMap.tsx';
 import { TracePlot } from '../plots/TracePlot.tsx';
 import { drawTraces, type TraceSpec } from '../plots/trace-draw.ts';
-import { clampWindowStart, markerEvents, niceScaleAbove, robustRowSpan } from '../plots/trace-layout.ts';
+import { clampWindowStart, markerEvents, niceScaleNearest, robustRowSpan } from '../plots/trace-layout.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
 import { ComponentStrip } from './ComponentStrip.tsx';
 import { ResidualNotice } from './ResidualNotice.tsx';
@@ -129,8 +129,8 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
 
   // --- traces ------------------------------------------------------------------------------------------
   const [tracesBox, tracesWidth] = useElementWidth<HTMLDivElement>(900);
-  // µV per division (one row spacing): the reviewer's choice, else ±3 robust SD rounded up to 1-2-5.
-  const autoSpan = useMemo(() => niceScaleAbove(robustRowSpan(original, n, length)), [original, n, length]);
+  // µV per division (one row spacing): the reviewer's choice, else ±3 robust SD, the nearest 1-2-5 value.
+  const autoSpan = useMemo(() => niceScaleNearest(robustRowSpan(original, n, length)), [original, n, length]);
   const uvPerDiv = settings.uvPerDiv ?? autoSpan;
   const spec = useMemo((): TraceSpec | null => {
     if (!win) return null;

@@ -6,6 +6,7 @@ import {
   minMaxColumns,
   niceScaleAbove,
   niceScaleBelow,
+  niceScaleNearest,
   peakRowSpan,
   robustRowSpan,
   rowCentres,
@@ -130,5 +131,11 @@ describe('scaleBarRows', () => {
     expect(scaleBarRows({ rowLabels: ['IC', 'a', 'b'], rowSpan: 40, rowSpans: [300, 40, 40] })).toEqual([[0, 300], [2, 40]]);
     expect(scaleBarRows({ rowLabels: ['a', 'b'], rowSpan: 40 })).toEqual([[1, 40]]);
     expect(scaleBarRows({ rowLabels: [], rowSpan: 40 })).toEqual([]);
+  });
+});
+
+describe('niceScaleNearest', () => {
+  it('takes the nearer 1-2-5 value on a log scale', () => {
+    expect([110, 160, 140, 3.3, 0.7].map(niceScaleNearest)).toEqual([100, 200, 100, 5, 0.5]); // 3.3: ln(3.3/2) = 0.50 > ln(5/3.3) = 0.42;
   });
 });
