@@ -78,9 +78,11 @@ export function FocusView() {
   const rulesBy = useMemo(() => byQuestion<FiredRule>(suggestion?.rules ?? [], (r) => questionOfMeasure(r.measure)), [suggestion]);
   const events = recording?.events ?? null;
   const defaultLockTo = useMemo(() => evidence?.erp?.event ?? (events ? defaultEventType(events) : null), [evidence, events]);
-  // The component's trace at its strongest channel over the whole recording (µV), for the trial stack.
+  // The component's trace at its strongest channel over the whole recording (µV), for the trial stack;
+  // computed only while that answer is open (one pass over the recording).
+  const lockedOpen = question === 'locked';
   const trace = useMemo(() => {
-    if (!recording || !decomposition || !montage || index === null || !evidence) return null;
+    if (!lockedOpen || !recording || !decomposition || !montage || index === null || !evidence) return null;
     const k = decomposition.nComponents;
     const nd = decomposition.nChannels;
     const i = index - 1;
@@ -89,7 +91,7 @@ export function FocusView() {
       recording.signals.data, recording.signals.nSamples, montage.rows, decomposition.unmixing.subarray(i * nd, (i + 1) * nd),
       decomposition.channelMeans, decomposition.mixing[c * k + i],
     );
-  }, [recording, decomposition, montage, index, evidence]);
+  }, [lockedOpen, recording, decomposition, montage, index, evidence]);
 
   if (!recording || !decomposition || index === null) {
     return (
