@@ -20,7 +20,7 @@
 import { afterAll, describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -30,62 +30,15 @@ import { writeEdfChunks } from '../../src/core/formats/edf-writer.ts';
 import { cleanedEdfInput } from '../../src/core/review/clean.ts';
 import { buildDecisionsFile, formatDecisionsJson } from '../../src/core/review/decisions-file.ts';
 import type { RecordingInfo, SignalBlock } from '../../src/core/recording.ts';
+import { compileHarness, libRead as libReadWith, type LibFile } from './edflib-harness.ts';
 
 const repo = fileURLToPath(new URL('../../', import.meta.url));
-const harnessSource = fileURLToPath(new URL('./edflib-harness.c', import.meta.url));
 const dir = mkdtempSync(join(tmpdir(), 'winnow-edflib-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
-/** Compiles the harness; null (and the reason) when EDFlib or a C compiler is missing. */
-function compileHarness(): { exe: string | null; reason: string } {
-  if (!existsSync('/usr/include/edflib.h'))
-    return { exe: null, reason: 'EDFlib is not installed (/usr/include/edflib.h missing): apt-get install libedf-dev (.ci/run does)' };
-  const exe = join(dir, 'edflib-harness');
-  for (const cc of ['gcc', 'cc', 'g++']) {
-    const r = spawnSync(cc, ['-O1', '-o', exe, harnessSource, '-ledf'], { encoding: 'utf8' });
-    if (r.status === 0) return { exe, reason: '' };
-    if (r.error === undefined) return { exe: null, reason: `${cc} could not build the harness against EDFlib:\n${r.stderr}` };
-  }
-  return { exe: null, reason: 'no C compiler (gcc/cc/g++) to build the EDFlib harness' };
-}
-const harness = compileHarness();
+const harness = compileHarness(dir);
 if (!harness.exe) console.warn(`cross-reader tests skipped: ${harness.reason}`);
-
-interface LibSignal {
-  label: string;
-  physdimension: string;
-  prefilter: string;
-  transducer: string;
-  physMin: number;
-  physMax: number;
-  digMin: number;
-  digMax: number;
-  smpInDatarecord: number;
-  smpInFile: number;
-  digital: number[];
-  physical: number[];
-}
-interface LibFile {
-  edflibVersion: number;
-  filetype: number;
-  edfsignals: number;
-  fileDuration: number;
-  startDate: [number, number, number];
-  startTime: [number, number, number];
-  startSubsecond: number;
-  datarecordDuration: number;
-  datarecordsInFile: number;
-  annotationsInFile: number;
-  signals: LibSignal[];
-  annotations: { onset: number; duration: number; durationText: string; text: string }[];
-}
-
-/** EDFlib's view of a file (times in units of 100 ns, EDFLIB_TIME_DIMENSION). Fails the test if it refuses it. */
-function libRead(path: string): LibFile {
-  const r = spawnSync(harness.exe!, ['read', path], { encoding: 'utf8', maxBuffer: 1 << 30 });
-  if (r.status !== 0) throw new Error(`EDFlib refused ${path}: ${r.stderr}`);
-  return JSON.parse(r.stdout) as LibFile;
-}
+const libRead = (path: string): LibFile => libReadWith(harness.exe!, path);
 
 const FILETYPE = { EDF: 0, 'EDF+C': 1, BDF: 2, 'BDF+C': 3 } as const;
 
