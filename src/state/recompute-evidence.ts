@@ -59,6 +59,6 @@ export async function recomputeEvidence(): Promise<void> {
 /** Keeps the reviewer off screens that need evidence when there is none; returns the function that stops it. */
 export function startWayForwardWatch(): () => void {
   return workbenchStore.subscribe((s) => {
-    if (s.screen !== 'start' && s.evidence === null && s.progress === null) workbenchStore.setState({ screen: 'start' });
+    if (s.screen !== 'start' && s.screen !== 'study' && s.evidence === null && s.progress === null) workbenchStore.setState({ screen: 'start' });
   });
 }

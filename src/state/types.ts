@@ -13,7 +13,7 @@ export type { ReviewDecision } from '../core/review/decisions-file.ts';
 /** Alias used by the UI: one reviewer decision (verdict, reason, free-text note). */
 export type Decision = ReviewDecision;
 
-export type Screen = 'start' | 'board' | 'focus' | 'preview';
+export type Screen = 'start' | 'board' | 'focus' | 'preview' | 'study';
 
 /** Region of interest for the preview's before/after comparison. */
 export interface Roi {

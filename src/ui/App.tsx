@@ -20,9 +20,13 @@ import { useReviewKeys } from './layout/useReviewKeys.ts';
 import { useAutosave } from './layout/useAutosave.ts';
 import { usePageDrop } from './layout/usePageDrop.ts';
 import { shouldOpenDemo } from './start/demo-url.ts';
+import { StudyView } from './study/StudyView.tsx';
+import { BackToStudy } from './study/StudyStart.tsx';
+import { useStudy } from '../state/study-hooks.ts';
 
 export function App() {
   const screen = useWorkbench((s) => s.screen);
+  const inStudyParticipant = useStudy((s) => s.name !== null && s.current !== null);
   const [helpOpen, setHelpOpen] = useState(false);
   const [exportOpen, setExportOpen] = useState(false);
   useAutosave();
@@ -45,7 +49,9 @@ export function App() {
       <ProgressOverlay />
       {exportOpen && <ExportPanel onClose={() => setExportOpen(false)} />}
       {helpOpen && <HelpPanel onClose={() => setHelpOpen(false)} />}
+      {inStudyParticipant && screen !== 'study' && <BackToStudy />}
       <main className="review-area" aria-label="Review area">
+        {screen === 'study' && <StudyView />}
         {screen === 'start' && <StartScreen />}
         {screen === 'board' && <Board />}
         {screen === 'focus' && <FocusView />}

@@ -11,6 +11,7 @@ import { openFiles } from './open-files.ts';
 import { RecordingSummary } from './RecordingSummary.tsx';
 import { DecomposeForm } from './DecomposeForm.tsx';
 import { SavedReviews } from './SavedReviews.tsx';
+import { StudyStart } from '../study/StudyStart.tsx';
 import { recomputeEvidence } from '../../state/recompute-evidence.ts';
 
 export function StartScreen() {
@@ -112,6 +113,7 @@ export function StartScreen() {
           <RecordingSummary recording={recording} />
         </>
       )}
+      <StudyStart />
       <SavedReviews />
     </section>
   );

@@ -1,0 +1,109 @@
+/**
+ * Issue 11, the study in the browser: open the simulated demo study, review two participants, see a flag
+ * and follow it, export the study (a zip of BIDS derivatives, read back by Python's zipfile), import a
+ * second reviewer's export, see Cohen's kappa and walk the disagreements.
+ */
+import { expect, test, type Page } from '@playwright/test';
+import { spawnSync } from 'node:child_process';
+import { mkdir, mkdtemp, writeFile } from 'node:fs/promises';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+
+const LOAD_TIMEOUT = 90_000;
+
+async function reviewParticipant(page: Page, row: number, decide: (page: Page) => Promise<void>) {
+  await page.getByTestId('study-open').nth(row).click();
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: LOAD_TIMEOUT });
+  const resume = page.getByTestId('resume-accept');
+  if (await resume.isVisible().catch(() => false)) await resume.click();
+  await decide(page);
+  await page.getByTestId('back-to-study').click();
+  await expect(page.getByTestId('study-view')).toBeVisible();
+}
+
+async function mark(page: Page, index: number, verdict: 'keep' | 'remove', reason: string) {
+  await page.getByTestId(`tile-${index}`).click();
+  await page.getByTestId(`verdict-${verdict}`).click();
+  await page.getByTestId('reason-select').selectOption(reason);
+  await expect(page.getByTestId(`tile-${index}`)).toHaveAttribute('data-verdict', verdict);
+}
+
+test('a study: two participants reviewed, a flag followed, the study exported, a second reviewer compared', async ({ page }) => {
+  test.setTimeout(420_000);
+  await page.goto('/');
+  await page.getByTestId('open-demo-study').click();
+  await expect(page.getByTestId('study-view')).toBeVisible({ timeout: 60_000 });
+  await expect(page.getByTestId('study-row')).toHaveCount(4);
+  await expect(page.locator('[data-testid="study-row"][data-state="not started"]')).toHaveCount(4);
+
+  // participant 1: two decisions; participant 2: one
+  await reviewParticipant(page, 0, async (p) => {
+    await mark(p, 1, 'remove', 'blink');
+    await mark(p, 2, 'keep', 'neural');
+  });
+  await expect(page.locator('[data-testid="study-row"][data-state="in progress"]')).toHaveCount(1);
+  await reviewParticipant(page, 1, async (p) => {
+    await mark(p, 1, 'remove', 'blink');
+  });
+  await expect(page.locator('[data-testid="study-row"][data-state="in progress"]')).toHaveCount(2);
+
+  // a flag says why, and opens that participant
+  const flag = page.locator('[data-testid="study-flag"][data-rule="undecided"]').first();
+  await expect(flag).toContainText('left undecided');
+  await flag.getByTestId('study-flag-open').click();
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: LOAD_TIMEOUT });
+  const resume = page.getByTestId('resume-accept');
+  if (await resume.isVisible().catch(() => false)) await resume.click();
+  await expect(page.getByTestId('tile-1')).toHaveAttribute('data-verdict', 'remove');
+  await page.getByTestId('back-to-study').click();
+
+  // export the study: a zip of BIDS derivatives
+  const [download] = await Promise.all([page.waitForEvent('download'), page.getByTestId('study-export').click()]);
+  const dir = await mkdtemp(join(tmpdir(), 'winnow-study-e2e-'));
+  const zipPath = join(dir, 'study.zip');
+  await download.saveAs(zipPath);
+  const py = 'import zipfile,sys,json; z=zipfile.ZipFile(sys.argv[1]); assert z.testzip() is None; print(json.dumps({n: z.read(n).decode() for n in z.namelist()}))';
+  const r = spawnSync('python3', ['-c', py, zipPath], { encoding: 'utf8' });
+  expect(r.status, r.stderr).toBe(0);
+  const entries = JSON.parse(r.stdout) as Record<string, string>;
+  const names = Object.keys(entries).sort();
+  expect(names).toContain('derivatives/winnow/dataset_description.json');
+  expect(names).toContain('derivatives/winnow/sub-01/eeg/sub-01_task-walkoddball_desc-winnow_decisions.json');
+  expect(names).toContain('derivatives/winnow/sub-01/eeg/sub-01_task-walkoddball_desc-winnow_decisions.tsv');
+  expect(names).toContain('derivatives/winnow/sub-02/eeg/sub-02_task-walkoddball_desc-winnow_decisions.json');
+  expect(JSON.parse(entries['derivatives/winnow/dataset_description.json']).GeneratedBy[0].Name).toBe('winnow');
+
+  // a second reviewer: same files, with component 2 of sub-01 removed (gaze) instead of kept
+  const secondDir = join(dir, 'second', 'sub-01', 'eeg');
+  await mkdir(secondDir, { recursive: true });
+  const d1 = JSON.parse(entries['derivatives/winnow/sub-01/eeg/sub-01_task-walkoddball_desc-winnow_decisions.json']);
+  d1.reviewer = 'second';
+  d1.components = d1.components.map((c: { index: number }) => (c.index === 2 ? { ...c, verdict: 'remove', reason: 'gaze', note: 'step-like' } : c));
+  const f1 = join(secondDir, 'sub-01_task-walkoddball_desc-winnow_decisions.json');
+  await writeFile(f1, JSON.stringify(d1));
+  const f2 = join(dir, 'second', 'sub-02_task-walkoddball_desc-winnow_decisions.json');
+  await writeFile(f2, entries['derivatives/winnow/sub-02/eeg/sub-02_task-walkoddball_desc-winnow_decisions.json']);
+  await page.getByTestId('second-import').setInputFiles([f1, f2]);
+  await expect(page.getByTestId('agreement-table')).toBeVisible();
+  await expect(page.getByTestId('kappa-pooled')).toHaveText(/^-?\d\.\d{3} \(|undefined|nothing/);
+
+  // walk the one disagreement and adjudicate
+  const walk = page.getByTestId('disagreement-walk');
+  await expect(walk).toContainText('component 2');
+  await expect(page.getByTestId('walk-mine')).toContainText('keep');
+  await expect(page.getByTestId('walk-other')).toContainText('remove, gaze');
+  await page.getByTestId('walk-take-other').click();
+  await expect(page.getByTestId('walk-adjudicated')).toContainText('remove, gaze');
+
+  // the adjudicated file keeps both raters' entries
+  const [again] = await Promise.all([page.waitForEvent('download'), page.getByTestId('study-export').click()]);
+  const zip2 = join(dir, 'study2.zip');
+  await again.saveAs(zip2);
+  const r2 = spawnSync('python3', ['-c', py, zip2], { encoding: 'utf8' });
+  const entries2 = JSON.parse(r2.stdout) as Record<string, string>;
+  const adj = JSON.parse(entries2['derivatives/winnow/sub-01/eeg/sub-01_task-walkoddball_desc-adjudicated_decisions.json']);
+  const c2 = adj.components.find((c: { index: number }) => c.index === 2);
+  expect(c2.verdict).toBe('remove');
+  expect(c2.raters.map((x: { verdict: string }) => x.verdict)).toEqual(['keep', 'remove']);
+  expect(adj.adjudication.raters[1].reviewer).toBe('second');
+});
