@@ -2,19 +2,23 @@
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
 import { ExportablePanel } from '../export/ExportablePanel.tsx';
 import { SpectrumPlot } from '../plots/SpectrumPlot.tsx';
+import { useElementWidth } from '../plots/useElementWidth.ts';
 
 export function SpectrumPanel({ evidence, context }: { evidence: ComponentEvidence; context: string }) {
   const { spectrum, oneOverF, alphaPeakHz, strongestChannel } = evidence;
   const top = spectrum.frequencies.length ? spectrum.frequencies[spectrum.frequencies.length - 1] : 45;
+  const [box, boxWidth] = useElementWidth<HTMLDivElement>(380);
+  const width = Math.max(320, Math.min(640, boxWidth));
   return (
     <ExportablePanel title="Spectrum" context={context} testId="focus-spectrum" className="panel-spectrum">
+      <div ref={box} className="trace-box" />
       <SpectrumPlot
         series={[{ frequencies: spectrum.frequencies, power: spectrum.power, label: `at ${strongestChannel.label}` }]}
         oneOverF={oneOverF}
         alphaPeakHz={alphaPeakHz}
         rangeHz={[1, Math.min(60, top)]}
-        width={380}
-        height={190}
+        width={width}
+        height={Math.round(width * 0.55)}
         title={`Power spectral density at ${strongestChannel.label}`}
       />
       <p className="note">

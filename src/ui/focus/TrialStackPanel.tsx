@@ -13,6 +13,7 @@ import { ErpPlot } from '../plots/ErpPlot.tsx';
 import { robustLimit, type EpochSort } from '../plots/trial-stack-rows.ts';
 import { groupedStackRows, lockedView, type LockableEvent } from './locked-view.ts';
 import { trimZero } from './focus-logic.ts';
+import { useElementWidth } from '../plots/useElementWidth.ts';
 
 export interface EpochSettings {
   readonly sort: EpochSort;
@@ -40,10 +41,11 @@ export interface TrialStackPanelProps {
   readonly context: string;
 }
 
-const WIDTH = 440;
 
 export function TrialStackPanel({ trace, sampleRate, events, defaultLockTo, window, channel, settings, onSettings, context }: TrialStackPanelProps) {
   const types = useMemo(() => eventTypes(events), [events]);
+  const [box, boxWidth] = useElementWidth<HTMLDivElement>(440);
+  const WIDTH = Math.max(380, Math.min(620, boxWidth));
   // A choice made on another recording whose types differ falls back to the default.
   const chosen = settings.lockTo !== null && types.some((t) => t.type === parseSelectionKey(settings.lockTo!).type) ? settings.lockTo : null;
   const key = chosen ?? defaultLockTo;
@@ -143,6 +145,7 @@ export function TrialStackPanel({ trace, sampleRate, events, defaultLockTo, wind
   const groups = view?.groups ?? [];
   return (
     <ExportablePanel title="Trial stack and average" context={context} testId="focus-trial-stack" className="panel-epochs" controls={controls}>
+      <div ref={box} className="trace-box" />
       {view && rows ? (
         <div data-testid="focus-trial-summary" data-epochs={view.nEpochs} data-groups={groups.length}>
           <TrialStack
