@@ -11,6 +11,7 @@ import { useWorkbench } from '../../state/index.ts';
 import { downloadBlob } from '../layout/download.ts';
 import { dotStrip, sortStudyRows, studyTableSvg, studyTableTsv, type StudySortKey } from './study-figures.ts';
 import { SecondReviewerPanel } from './SecondReviewerPanel.tsx';
+import { writeIntoDatasetFolder } from './write-folder.ts';
 import './study.css';
 
 const pct = (v: number | null) => (v === null ? '—' : `${(100 * v).toFixed(1)}\u00a0%`);
@@ -45,6 +46,17 @@ export function StudyView() {
     const files = studyExport(studyStore.getState(), reviewer);
     downloadBlob(studyZip(files).slice().buffer as ArrayBuffer, `${(name ?? 'study').replace(/[^\w.-]+/g, '_')}_winnow.zip`, 'application/zip');
   };
+  const canWriteFolder = typeof (window as unknown as { showDirectoryPicker?: unknown }).showDirectoryPicker === 'function';
+  const writeIntoFolder = async () => {
+    const files = studyExport(studyStore.getState(), reviewer);
+    try {
+      const written = await writeIntoDatasetFolder(files);
+      studyStore.setState({ message: `Wrote ${written} files into the dataset folder (derivatives/winnow/).` });
+    } catch (e) {
+      if ((e as Error)?.name === 'AbortError') return;
+      studyStore.setState({ message: `Could not write into the folder (${(e as Error)?.message ?? String(e)}); the zip export still works.` });
+    }
+  };
   const reviewed = rows.filter((r) => r.state !== 'not started').length;
   return (
     <section className="study-view" aria-label="Study" data-testid="study-view">
@@ -57,6 +69,11 @@ export function StudyView() {
           <button type="button" onClick={exportZip} disabled={reviewed === 0} data-testid="study-export">
             Export the study (zip of BIDS derivatives)
           </button>
+          {canWriteFolder && (
+            <button type="button" onClick={() => void writeIntoFolder()} disabled={reviewed === 0}>
+              Write into the dataset folder…
+            </button>
+          )}
           <button type="button" onClick={() => downloadBlob(studyTableTsv(sorted), 'winnow_study_table.tsv', 'text/tab-separated-values')} data-testid="study-table-tsv">
             Study table (TSV)
           </button>
