@@ -8,7 +8,6 @@ import { SpectrumSparkline } from '../../../src/ui/plots/SpectrumSparkline.tsx';
 import { TopographyMap } from '../../../src/ui/plots/TopographyMap.tsx';
 import { EvidenceTable } from '../../../src/ui/plots/EvidenceTable.tsx';
 import { evidenceRows } from '../../../src/ui/plots/evidence-rows.ts';
-import { suggestWithRules } from '../../../src/core/review/suggest.ts';
 import { DipoleViews } from '../../../src/ui/plots/DipoleViews.tsx';
 import { ErpPlot } from '../../../src/ui/plots/ErpPlot.tsx';
 import { syntheticEvidence } from './synthetic-evidence.ts';
@@ -48,7 +47,8 @@ describe('SpectrumSparkline', () => {
 
 describe('EvidenceTable', () => {
   it('renders every evidence row and marks flagged values with a symbol as well as a class', () => {
-    const rows = evidenceRows(syntheticEvidence(), suggestWithRules(syntheticEvidence(), 'erp'));
+    const focality = { measure: 'focality.share', value: 0.7, threshold: 0.6, direction: '≥' as const, source: 'common practice' as const };
+    const rows = evidenceRows(syntheticEvidence(), { suggestion: { verdict: 'remove', reason: 'contact', because: [] }, rules: [focality] });
     const html = renderToStaticMarkup(<EvidenceTable rows={rows} />);
     expect(html.match(/<tr/g)?.length).toBe(rows.length + 1);
     expect(html).toContain('▲ 70.0');

@@ -1,13 +1,14 @@
 import { describe, expect, it } from 'vitest';
 import { evidenceRows } from '../../../src/ui/plots/evidence-rows.ts';
-import { suggestWithRules } from '../../../src/core/review/suggest.ts';
+import { suggestWithRules, type SuggestionWithRules } from '../../../src/core/review/suggest.ts';
 import { defaultThresholds, thresholdSources } from '../../../src/core/review/thresholds.ts';
 import { syntheticEvidence } from './synthetic-evidence.ts';
 
 describe('evidenceRows', () => {
   const e = syntheticEvidence();
-  // The synthetic map puts 70 % of its energy on Oz: the contact rule (focality ≥ electrodeFocality) fires.
-  const suggested = suggestWithRules(e, 'erp');
+  // A suggestion whose one fired rule reads the focality (70 % of the map on Oz) against its threshold.
+  const focalityRule = { measure: 'focality.share', value: 0.7, threshold: defaultThresholds.electrodeFocality, direction: '≥' as const, source: thresholdSources.electrodeFocality };
+  const suggested: SuggestionWithRules = { suggestion: { verdict: 'remove', reason: 'contact', because: [] }, rules: [focalityRule] };
   const rows = evidenceRows(e, suggested);
   const row = (key: string) => rows.find((r) => r.key === key)!;
 
@@ -17,15 +18,21 @@ describe('evidenceRows', () => {
     expect(row('fitR2').value).toBe('0.95');
   });
   it('marks exactly the rows whose measure is among the fired rules, with the rule’s threshold, direction and source', () => {
-    expect(suggested.suggestion.reason).toBe('contact');
-    const fired = new Set(suggested.rules.map((r) => r.measure));
-    expect(fired.has('focality.share')).toBe(true);
     expect(row('focality').flagged).toBe(true);
     expect(row('focality').threshold).toBe(`≥ ${defaultThresholds.electrodeFocality * 100} % (${thresholdSources.electrodeFocality})`);
-    expect(row('focality').rules[0]).toMatchObject({ measure: 'focality.share', value: 0.7, threshold: defaultThresholds.electrodeFocality, direction: '≥' });
+    expect(row('focality').rules).toEqual([focalityRule]);
     expect(row('hf').flagged).toBe(false);
     expect(row('hf').threshold).toBe('');
-    for (const r of rows) expect(r.flagged).toBe(r.rules.length > 0);
+    expect(rows.filter((r) => r.flagged).map((r) => r.key)).toEqual(['focality']);
+  });
+  it('marks, for the real rules, exactly the rows whose measure fired (and every fired measure that has a row)', () => {
+    for (const aim of ['erp', 'oscillations', 'conservative'] as const) {
+      const real = suggestWithRules(e, aim);
+      const marked = evidenceRows(e, real).filter((r) => r.flagged);
+      const fired = new Set(real.rules.map((r) => r.measure));
+      for (const r of marked) for (const rule of r.rules) expect(fired.has(rule.measure)).toBe(true);
+      expect(marked.flatMap((r) => r.rules).length).toBe(real.rules.filter((r) => marked.some((m) => m.rules.includes(r))).length);
+    }
   });
   it('marks nothing without a suggestion: the rows show measures, not comparisons', () => {
     for (const r of evidenceRows(e)) {
@@ -33,9 +40,10 @@ describe('evidenceRows', () => {
       expect(r.threshold).toBe('');
     }
   });
-  it('follows the thresholds the suggestion used: raise the electrode threshold and the focality row is no longer marked', () => {
-    const relaxed = suggestWithRules(e, 'erp', { ...defaultThresholds, electrodeFocality: 0.9 });
-    expect(evidenceRows(e, relaxed).find((r) => r.key === 'focality')!.flagged).toBe(false);
+  it('shows a rule’s threshold in the row’s unit: fractions in per cent, other numbers as they are', () => {
+    const eog = { measure: 'eogCorrelation.vertical', value: 0.1, threshold: 0.7, direction: '≥' as const, source: 'common practice' as const };
+    const r = evidenceRows(e, { suggestion: { verdict: 'remove', reason: 'blink', because: [] }, rules: [eog] });
+    expect(r.find((x) => x.key === 'eogV')!.threshold).toBe('≥ 0.7 (common practice)');
   });
   it('shows the shuffle count of the permutation test and every event type tested', () => {
     expect(row('locking').source).toContain('999 shuffles');
