@@ -121,6 +121,8 @@ const RULES = {
     return undefined;
   },
   workers(ref, target, targetLayer) {
+    // The built WebAssembly kernels, fetched by URL (a Vite `?url` asset) and handed to src/core/kernels.
+    if (target !== undefined && /^build\/wasm\/[\w-]+\.wasm\?url$/.test(target)) return undefined;
     if (target !== undefined) return targetLayer === 'core' || targetLayer === 'workers' ? undefined : `workers/ import only src/core, not ${target}`;
     return packageName(ref.specifier) === 'comlink' ? undefined : `workers/ import only src/core and comlink, not ${ref.specifier}`;
   },

@@ -11,6 +11,25 @@
 import { expose, transfer } from 'comlink';
 import { createIcaThreads, type IcaThreads } from '../src/core/ica/pass-threads.ts';
 import { decomposeRecording, type DecomposeInput, type DecomposeOptions, type DecomposeProgress, type DecomposeResult } from '../src/core/ica/decompose.ts';
+import { installKernelModule } from '../src/core/kernels/kernels.ts';
+import kernelsUrl from '../build/wasm/kernels.wasm?url';
+
+let kernels: Promise<unknown> | null = null;
+/**
+ * Loads and installs the WebAssembly SIMD kernels once (src/core/kernels); on any failure (no SIMD, or a
+ * Content-Security-Policy without 'wasm-unsafe-eval') the JS kernels stay. Vite inlines the small module as a
+ * data: URL, decoded here rather than fetched (connect-src allows only the page's origin).
+ */
+function ensureKernels(): Promise<unknown> {
+  const bytes = kernelsUrl.startsWith('data:')
+    ? Promise.resolve(Uint8Array.from(atob(kernelsUrl.slice(kernelsUrl.indexOf(',') + 1)), (c) => c.charCodeAt(0)))
+    : fetch(kernelsUrl).then((r) => r.arrayBuffer());
+  kernels ??= bytes
+    .then((b) => WebAssembly.compile(b))
+    .then((m) => installKernelModule(m))
+    .catch(() => installKernelModule(null));
+  return kernels;
+}
 
 /** Options that cross to the worker (callbacks, the abort signal and threads are supplied on the worker side). */
 export type DecomposeJobOptions = Omit<DecomposeOptions, 'onProgress' | 'signal' | 'threads'>;
@@ -49,6 +68,7 @@ const api = {
     onProgress: ((p: DecomposeProgress) => void) | null,
     cancelFlag: Int32Array | null,
   ): Promise<DecomposeResult> {
+    await ensureKernels();
     const threads = opts.method === 'picard' ? await helperThreads() : null;
     const signal = {
       get aborted() {
