@@ -3,13 +3,14 @@ import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
 import { electrodeNameFromLabel, matchMontage, standardPositions } from '../../../src/core/headmodel/montage-1020.ts';
 
-// checks/electrodes_1020.json (docs/methods.md §10), copied to test/fixtures/formats with its README entry
-const ref = JSON.parse(readFileSync(fileURLToPath(new URL('../../fixtures/formats/electrodes_1020.json', import.meta.url)), 'utf8'));
+// test/fixtures/headmodel/electrodes_1020.json, written by electrodes_1020.py beside it (numpy 2.4.6, scipy 1.17.1;
+// docs/methods.md §10; two constructions there: closed-form trig and equal-chord root finding)
+const ref = JSON.parse(readFileSync(fileURLToPath(new URL('../../fixtures/headmodel/electrodes_1020.json', import.meta.url)), 'utf8'));
 const P = standardPositions();
 const deg = (a: number[], b: number[]) => (Math.acos(Math.min(1, a[0] * b[0] + a[1] * b[1] + a[2] * b[2])) * 180) / Math.PI;
 
 describe('standardPositions (idealised 10-20/10-10 on the unit sphere, RAS)', () => {
-  it('matches every position of checks/electrodes_1020.json to 1e-12', () => {
+  it('matches every position of electrodes_1020.json to 1e-12', () => {
     const names = Object.keys(ref.positions_unit_sphere);
     expect(names.length).toBe(73);
     for (const name of names) {
