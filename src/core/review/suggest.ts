@@ -181,21 +181,6 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
       findings.push({ signature: 'gaze', strong: eogHit || (anti && slow && frontal && steps), because, rules });
   }
 
-  // Single electrode (takes precedence over every other signature: SIGNATURE_PRECEDENCE). The map must be
-  // concentrated on one electrode AND flat elsewhere: a bad contact leaves every other electrode with the same
-  // value (the reference's share), while a focal brain or muscle source spreads unevenly onto its neighbours
-  // (restStructure, evidence/focality.ts; issue 10, ours). Without a map (NaN) focality alone decides.
-  const focalRule = check('focality.share', e.focality.share, t, 'electrodeFocality', '≥');
-  const rest = e.map && e.map.length ? restStructure(e.map) : NaN;
-  const restRule = Number.isFinite(rest) ? check('focality.restStructure', rest, t, 'electrodeRestStructure', '≤') : null;
-  if (focalRule && (!Number.isFinite(rest) || restRule))
-    findings.push({
-      signature: 'contact',
-      strong: true,
-      because: [`one electrode (${e.focality.channel}) carries ${pct(e.focality.share)} of the map${restRule ? `, the rest of the map is flat (${pct(rest)} structured)` : ''}`],
-      rules: some(focalRule, restRule),
-    });
-
   // Line noise
   const mainsRule = check('mainsShare', e.mainsShare, t, 'mainsShare', '≥');
   if (mainsRule)
@@ -300,6 +285,28 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
       if (tiny) because.push(`${fix(e.varianceShare * 100, 1)} % of the variance: a flat, diffuse, tiny component looks like sensor noise, not muscle`);
       unsupportedHighFrequency = { sensorNoise: tiny !== null, because, rules: some(hfShareRule, hfSlopeRule, tiny) };
     }
+  }
+
+  // Single electrode (takes precedence over every other signature: SIGNATURE_PRECEDENCE). The map must be
+  // concentrated on one electrode AND flat elsewhere: a bad contact leaves every other electrode with the same
+  // value (the reference's share), while a focal brain or muscle source spreads unevenly onto its neighbours
+  // (restStructure, evidence/focality.ts; issue 10, ours). A clearly flat rest is a contact whatever the
+  // spectrum; a slightly structured rest (an imperfectly separated contact, or a muscle patch under one
+  // electrode) is a contact unless the component also reads as muscle. Without a map (NaN) focality alone decides.
+  {
+    const focalRule = check('focality.share', e.focality.share, t, 'electrodeFocality', '≥');
+    const rest = e.map && e.map.length ? restStructure(e.map) : NaN;
+    const flatRule = Number.isFinite(rest) ? check('focality.restStructure', rest, t, 'electrodeRestStructure', '≤') : null;
+    const nearlyFlatRule = Number.isFinite(rest) ? check('focality.restStructure', rest, t, 'electrodeRestStructureMuscle', '≤') : null;
+    const muscleToo = findings.some((f) => f.signature === 'muscle');
+    const restRule = flatRule ?? (muscleToo ? null : nearlyFlatRule);
+    if (focalRule && (!Number.isFinite(rest) || restRule))
+      findings.push({
+        signature: 'contact',
+        strong: true,
+        because: [`one electrode (${e.focality.channel}) carries ${pct(e.focality.share)} of the map${restRule ? `, the rest of the map is ${flatRule ? 'flat' : 'nearly flat'} (${pct(rest)} structured)` : ''}`],
+        rules: some(focalRule, restRule),
+      });
   }
 
   const artifacts = findings.filter((f) => f.signature !== 'neural');

@@ -59,6 +59,8 @@ export interface Thresholds {
   readonly muscleNoiseVarianceShare: number;
   /** Share of map energy outside the strongest electrode that has spatial structure, at or below which a focal map is one bad contact. */
   readonly electrodeRestStructure: number;
+  /** Rest structure at or below which a focal map is a contact unless it also reads as muscle. */
+  readonly electrodeRestStructureMuscle: number;
   /** Alpha prominence (log10) at or above which an alpha peak keeps a muscle reading weak. */
   readonly muscleAlphaVeto: number;
   /** Excess kurtosis below which step-like vertical deflections are an eye movement rather than blinks. */
@@ -142,7 +144,11 @@ export const defaultThresholds: Thresholds = {
   muscleNoiseVarianceShare: 0.01,
   // Ours (issue 10): a bad contact leaves the other electrodes flat (the reference's share on each), so the
   // structured rest of its map is ~0; focal brain and muscle maps keep more (tuning seeds of the validation family).
-  electrodeRestStructure: 0.08,
+  // (On the tuning seeds: well-separated contacts ≤ 0.04, muscle patches under one electrode ≥ 0.05.)
+  electrodeRestStructure: 0.03,
+  // Ours (issue 10): imperfectly separated contacts reach 0.14 on the tuning seeds; in 0.03–0.15 the spectrum
+  // decides (a muscle reading wins). A brain map would need ≥ 85 % on one electrode to get here.
+  electrodeRestStructureMuscle: 0.15,
   // Ours (issue 10): three times the alpha prominence level; simulated alpha/mu components reach 1.5–2.7.
   muscleAlphaVeto: 0.3,
   // Ours (issue 10): blinks are sparse (excess kurtosis ≫ 3, common practice); vertical gaze steps are not.
@@ -179,6 +185,7 @@ export const thresholdSources: Record<keyof Thresholds, ThresholdSource> = {
   muscleNoiseVarianceShare: 'ours',
   verticalGazeMaxKurtosis: 'ours',
   electrodeRestStructure: 'ours',
+  electrodeRestStructureMuscle: 'ours',
   muscleAlphaVeto: 'ours',
 };
 
