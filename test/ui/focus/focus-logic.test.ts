@@ -86,3 +86,22 @@ describe('componentTrace', () => {
     expect(Array.from(t)).toEqual([5.5, 11.5]);
   });
 });
+
+describe('answerLines', () => {
+  it('gives each question its first numbers, percentages with a no-break space and no negative shares', async () => {
+    const { answerLines } = await import('../../../src/ui/focus/focus-logic.ts');
+    const lines = answerLines(
+      {
+        strongestChannel: { label: 'Fp1' }, varianceShare: 0.153, dipole: { residualVariance: 0.04, region: 'frontal' },
+        kurtosis: 23.1, eogCorrelation: { vertical: 0.95, horizontal: 0.02 }, cardiac: { bpm: null },
+        erp: { event: 'tone', lockedShare: -0.01, nEpochs: 138 }, stepLocking: { share: 0.006, event: 'step, foot right' },
+        oneOverF: { exponent: 2.54 }, alphaPeakHz: null, highFrequencyShare: 0.003,
+      },
+      (k) => `“${k}”`,
+    );
+    expect(lines.where).toBe('15\u00a0% of variance, strongest at Fp1 · dipole frontal');
+    expect(lines.when).toBe('kurtosis 23.1 · eye channel r 0.95');
+    expect(lines.locked).toBe('0\u00a0% locked to “tone” · 1\u00a0% to step, foot right');
+    expect(lines.frequencies).toBe('1/f exponent 2.54 · no alpha peak · 0\u00a0% above 20\u00a0Hz');
+  });
+});
