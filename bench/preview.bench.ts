@@ -59,7 +59,7 @@ export async function bench(): Promise<BenchRow[]> {
   const removed = new Set([0, 2, 4, 6, 8, 10, 12, 14, 16, 18]);
 
   const S = windowActivations(W, K, N, X, L, m);
-  const win = createPreviewWindow(X, N, L, S, K);
+  const win = createPreviewWindow({ original: X, nChannels: N, length: L, activations: S, nComponents: K });
   applyRemovedSet(win, A, removed);
 
   let flip = false;
@@ -76,7 +76,7 @@ export async function bench(): Promise<BenchRow[]> {
     for (let c = 0; c < N; c++) minMaxColumns(win.cleaned, c * L, (c + 1) * L, 1000, mn, mx);
   }, 20);
   const activationsMs = await medianMs(() => windowActivations(W, K, N, X, L, m), 7);
-  const fullMs = await medianMs(() => recomputeCleaned(X, N, L, A, S, K, removed), 5);
+  const fullMs = await medianMs(() => recomputeCleaned({ original: X, nChannels: N, length: L, mixing: A, activations: S, nComponents: K, removed }), 5);
 
   const py = numpyReference();
   const ref = (v: number | undefined) => (py && v !== undefined ? v : null);

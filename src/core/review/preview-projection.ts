@@ -88,14 +88,21 @@ export function windowActivations(
 export type WindowActivationsInput =
   Parameters<typeof windowActivations> extends [...infer Input, (Float64Array | undefined)?] ? Input : never;
 
+/** A window of samples and its activations, as `createPreviewWindow` and `recomputeCleaned` take them. */
+export interface WindowSamples {
+  /** n × L, channel-major, decomposition channel order (µV). */
+  readonly original: Float32Array;
+  readonly nChannels: number;
+  /** L, samples in the window. */
+  readonly length: number;
+  /** k × L, S_w = W (X_w − m). */
+  readonly activations: Float64Array;
+  readonly nComponents: number;
+}
+
 /** Starts a preview window with nothing removed (cleaned = original). */
-export function createPreviewWindow(
-  original: Float32Array,
-  nChannels: number,
-  length: number,
-  activations: Float64Array,
-  nComponents: number,
-): PreviewWindow {
+export function createPreviewWindow(input: WindowSamples): PreviewWindow {
+  const { original, nChannels, length, activations, nComponents } = input;
   if (original.length < nChannels * length) throw new RangeError(`createPreviewWindow: original has ${original.length} values, needs ${nChannels * length}`);
   if (activations.length < nComponents * length)
     throw new RangeError(`createPreviewWindow: activations has ${activations.length} values, needs ${nComponents * length}`);
@@ -147,15 +154,8 @@ export function applyRemovedSet(win: PreviewWindow, mixing: Float64Array, remove
  * Reference (non-incremental) cleaned window: X_w − A[:,R] S_w[R,:], computed from scratch. Used by the
  * tests and the bench to check the incremental path.
  */
-export function recomputeCleaned(
-  original: Float32Array,
-  nChannels: number,
-  length: number,
-  mixing: Float64Array,
-  activations: Float64Array,
-  nComponents: number,
-  removedSet: ReadonlySet<number>,
-): Float64Array {
+export function recomputeCleaned(input: WindowSamples & { readonly mixing: Float64Array; readonly removed: ReadonlySet<number> }): Float64Array {
+  const { original, nChannels, length, mixing, activations, nComponents, removed: removedSet } = input;
   const out = new Float64Array(nChannels * length);
   for (let c = 0; c < nChannels; c++) {
     for (let t = 0; t < length; t++) {

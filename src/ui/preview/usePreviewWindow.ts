@@ -33,7 +33,7 @@ export function usePreviewWindow(
     let stale = false;
     const { unmixing, channelMeans } = decomposition;
     const finish = (acts: Float64Array) => {
-      if (!stale) setState({ original, win: createPreviewWindow(original, n, L, acts, k) });
+      if (!stale) setState({ original, win: createPreviewWindow({ original, nChannels: n, length: L, activations: acts, nComponents: k }) });
     };
     if (!projectionWorkerAvailable() || k * n * L <= INLINE_LIMIT) {
       finish(windowActivations(unmixing, k, n, original, L, channelMeans));

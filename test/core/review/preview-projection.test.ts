@@ -27,7 +27,7 @@ describe('windowActivations and the cleaned window', () => {
 
   it('matches numpy X − A[:,R] W (X − m) after removing components 1 and 3 incrementally (docs/methods.md §7.6)', () => {
     const S = windowActivations(W, k, n, X, L, m);
-    const win = createPreviewWindow(X, n, L, S, k);
+    const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     applyRemovedSet(win, A, new Set(fixture.removed));
     fixture.clean.forEach((v, j) => expect(win.cleaned[j]).toBeCloseTo(v, 9));
   });
@@ -39,7 +39,7 @@ describe('incremental toggles', () => {
   const S = windowActivations(W, k, n, X, L, m);
 
   it('equal full recomputation after any sequence of toggles', () => {
-    const win = createPreviewWindow(X, n, L, S, k);
+    const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     const r = lcg(99);
     const removed = new Set<number>();
     for (let step = 0; step < 200; step++) {
@@ -49,21 +49,21 @@ describe('incremental toggles', () => {
       if (remove) removed.add(i);
       else removed.delete(i);
     }
-    const ref = recomputeCleaned(X, n, L, A, S, k, removed);
+    const ref = recomputeCleaned({ original: X, nChannels: n, length: L, mixing: A, activations: S, nComponents: k, removed });
     let maxErr = 0;
     for (let j = 0; j < ref.length; j++) maxErr = Math.max(maxErr, Math.abs(ref[j] - win.cleaned[j]));
     expect(maxErr).toBeLessThan(1e-9);
   });
 
   it('returns to the original bit for bit when everything is kept again', () => {
-    const win = createPreviewWindow(X, n, L, S, k);
+    const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     applyRemovedSet(win, A, new Set([0, 3, 5]));
     applyRemovedSet(win, A, new Set());
     expect(Array.from(win.cleaned)).toEqual(Array.from(X));
   });
 
   it('changes nothing for a repeated verdict or an index out of range', () => {
-    const win = createPreviewWindow(X, n, L, S, k);
+    const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     expect(setComponentRemoved(win, A, 2, true)).toBe(true);
     expect(setComponentRemoved(win, A, 2, true)).toBe(false);
     expect(setComponentRemoved(win, A, k, true)).toBe(false);
@@ -71,7 +71,7 @@ describe('incremental toggles', () => {
   });
 
   it('toggles only the components whose state differs', () => {
-    const win = createPreviewWindow(X, n, L, S, k);
+    const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     expect(applyRemovedSet(win, A, new Set([1, 2]))).toBe(2);
     expect(applyRemovedSet(win, A, new Set([2, 4]))).toBe(2);
   });
@@ -82,7 +82,7 @@ describe('windowChecksum', () => {
     const n = 4, k = 3, L = 50;
     const { X, W, A, m } = randomProblem(n, k, L, 3);
     const S = windowActivations(W, k, n, X, L, m);
-    const win = createPreviewWindow(X, n, L, S, k);
+    const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     const before = windowChecksum(win.cleaned);
     setComponentRemoved(win, A, 1, true);
     const after = windowChecksum(win.cleaned);
@@ -119,7 +119,7 @@ describe('removedVarianceShare', () => {
     const W = Float64Array.from([1, 0]);
     const A = Float64Array.from([1, 0]);
     const S = windowActivations(W, 1, 2, X, L, null);
-    const win = createPreviewWindow(X, 2, L, S, 1);
+    const win = createPreviewWindow({ original: X, nChannels: 2, length: L, activations: S, nComponents: 1 });
     setComponentRemoved(win, A, 0, true);
     const share = removedVarianceShare(win);
     expect(share[0]).toBeCloseTo(1, 12);

@@ -25,7 +25,7 @@ describe('regionErpAfter', () => {
     const compErps = new Float64Array(k * before.length);
     for (let i = 0; i < k; i++) compErps.set(erpOf(S.subarray(i * T, (i + 1) * T)), i * before.length);
     const after = regionErpAfter(before, compErps, regionMixing(A, n, k, roi), removed);
-    const direct = erpOf(roiMean(recomputeCleaned(X, n, T, A, S, k, removed)));
+    const direct = erpOf(roiMean(recomputeCleaned({ original: X, nChannels: n, length: T, mixing: A, activations: S, nComponents: k, removed })));
     for (let t = 0; t < after.length; t++) expect(after[t]).toBeCloseTo(direct[t], 8);
   });
   it('gives NaN region weights for an empty region', () => {
@@ -48,7 +48,7 @@ describe('regionErpPlan', () => {
     const S = windowActivations(W, k, n, X, T, m);
     const removed = new Set([1]);
     const after = regionErpAfter(plan.before, plan.componentErps, plan.regionWeights, removed);
-    const cleanRoi = regionMean(recomputeCleaned(X, n, T, A, S, k, removed), T, roi);
+    const cleanRoi = regionMean(recomputeCleaned({ original: X, nChannels: n, length: T, mixing: A, activations: S, nComponents: k, removed }), T, roi);
     const ep = extractEpochs(cleanRoi, fs, onsets, -0.2, 0.8);
     const direct = epochMean(ep.epochs, ep.nEpochs, ep.length);
     for (let t = 0; t < direct.length; t++) expect(after[t]).toBeCloseTo(direct[t], 8);
