@@ -26,7 +26,7 @@ async function winnow(...args: string[]) {
 beforeAll(async () => {
   dir = await mkdtemp(join(tmpdir(), 'winnow-batch-'));
   ds = join(dir, 'ds');
-  const r = await winnow('simulate-study', '--out', ds, '--participants', '4', '--minutes', '0.75', '--seed', '11');
+  const r = await winnow('simulate-study', '--out', ds, '--participants', '4', '--minutes', '0.5', '--seed', '11');
   expect(r.code).toBe(0);
 }, 120_000);
 afterAll(async () => {

@@ -103,17 +103,30 @@ beforeAll(async () => {
 
 afterAll(async () => {
   if (env.SLURM_CONF) run('scontrol', ['shutdown'], env);
+  const alive = (pid: number) => {
+    try {
+      process.kill(pid, 0);
+      return true;
+    } catch {
+      return false;
+    }
+  };
+  const pids: number[] = [];
   for (const p of pidFiles.reverse()) {
     const pid = Number((await readFile(p, 'utf8').catch(() => '')).trim());
-    if (pid > 0) {
+    if (pid > 0) pids.push(pid);
+  }
+  for (const [signal, waitMs] of [['SIGTERM', 5000], ['SIGKILL', 2000]] as const) {
+    for (const pid of pids.filter(alive)) {
       try {
-        process.kill(pid, 'SIGTERM');
+        process.kill(pid, signal);
       } catch {
         // already gone
       }
     }
+    for (let t = 0; t < waitMs && pids.some(alive); t += 100) await new Promise((r) => setTimeout(r, 100));
   }
-  if (dir) await rm(dir, { recursive: true, force: true });
+  if (dir) await rm(dir, { recursive: true, force: true, maxRetries: 10, retryDelay: 200 });
 });
 
 describe('SLURM array job (scripts/winnow-batch.sbatch)', () => {
