@@ -164,6 +164,23 @@ describe('winnow evidence (issue 6 contract)', () => {
     expect((await evidence(recording, decFile, '--epoch-event', 'flash')).err).toMatch(/--epoch-event "flash" matches no event/);
   });
 
+  it('tests time-locking for every event type and, with --lock-column, each value of that column', async () => {
+    const events = join(dir, 'events-cond.tsv');
+    // "flash" after every blink, alternately condition a / b; "press" at times unrelated to the blinks
+    const rows = blinkOnsets.map((o, k) => `${o}\t0\tflash\t${k % 2 ? 'b' : 'a'}`);
+    for (let k = 0; k < 20; k++) rows.push(`${(2 + 2.9 * k).toFixed(3)}\t0\tpress\tn/a`);
+    writeFileSync(events, 'onset\tduration\ttrial_type\tcondition\n' + rows.join('\n') + '\n');
+    const r = await evidence(recording, decFile, '--events', events, '--epoch-event', 'flash', '--lock-column', 'condition');
+    expect(r.code).toBe(0);
+    const blink = JSON.parse(r.out).components[1];
+    const tests = blink.timeLocking.filter((t: { event: string }) => t.event !== 'cue');
+    expect(tests.map((t: { event: string; value?: string }) => [t.event, t.value ?? null])).toEqual([['flash', null], ['flash', 'a'], ['flash', 'b'], ['press', null]]);
+    for (const t of tests.slice(0, 3)) expect(t.p).toBeCloseTo(1 / 1000, 12); // locked: every shuffle below the observed share
+    expect(tests[3].p).toBeGreaterThan(0.01);
+    expect(tests[3].shuffles).toBeLessThan(999); // stopped early (Besag & Clifford 1991)
+    expect((await evidence(recording, decFile, '--events', events, '--lock-column', 'colour')).err).toMatch(/--lock-column "colour" is not a column of the events/);
+  });
+
   it('fails with exit 2 and the file name for bad input', async () => {
     expect(await evidence(recording, decFile, '--aim', 'fast')).toMatchObject({ code: 2, err: expect.stringMatching(/--aim must be erp, oscillations or conservative, got "fast"/) });
     expect(await evidence(join(dir, 'none.edf'), decFile)).toMatchObject({ code: 2, err: expect.stringMatching(/none\.edf: no such file/) });
