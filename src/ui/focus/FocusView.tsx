@@ -23,9 +23,8 @@
 import { useMemo, useState, type ReactNode } from 'react';
 import { DEFAULT_EPOCH_WINDOW_S } from '../../core/evidence/compute-evidence.ts';
 import { defaultEventType, describeSelection, parseSelectionKey } from '../../core/evidence/event-selection.ts';
-import { resolveThresholds, type Thresholds } from '../../core/review/thresholds.ts';
-import { suggestWithRules, type FiredRule } from '../../core/review/suggest.ts';
-import { useWorkbench } from '../../state/index.ts';
+import type { FiredRule } from '../../core/review/suggest.ts';
+import { selectSuggestions, useWorkbench } from '../../state/index.ts';
 import { componentContext } from '../export/export-names.ts';
 import { EvidenceTable } from '../plots/EvidenceTable.tsx';
 import { evidenceRows } from '../plots/evidence-rows.ts';
@@ -45,9 +44,6 @@ import {
 } from './focus-logic.ts';
 import './focus.css';
 
-/** Threshold overrides from the store when it keeps them (the threshold editor), else none. */
-const selectThresholds = (s: object): Partial<Thresholds> | undefined => (s as { thresholds?: Partial<Thresholds> }).thresholds;
-
 const describeKey = (key: string) => `“${describeSelection(parseSelectionKey(key))}”`;
 
 export function FocusView() {
@@ -56,7 +52,8 @@ export function FocusView() {
   const decomposition = useWorkbench((s) => s.decomposition);
   const evidenceList = useWorkbench((s) => s.evidence);
   const aim = useWorkbench((s) => s.aim);
-  const thresholds = useWorkbench(selectThresholds);
+  // The suggestions for the current aim and threshold overrides (memoised in the store's selector).
+  const suggestions = useWorkbench(selectSuggestions);
   const roiWindow = useWorkbench((s) => s.roi.windowS);
   const select = useWorkbench((s) => s.select);
   const setScreen = useWorkbench((s) => s.setScreen);
@@ -72,7 +69,7 @@ export function FocusView() {
     () => evidence?.map ?? (decomposition && index ? mixingColumn(decomposition.mixing, decomposition.nChannels, n, index - 1) : null),
     [evidence, decomposition, index, n],
   );
-  const suggestion = useMemo(() => (evidence ? suggestWithRules(evidence, aim, resolveThresholds(thresholds)) : null), [evidence, aim, thresholds]);
+  const suggestion = index === null ? null : suggestions.get(index) ?? null;
   const rows = useMemo(() => (evidence ? evidenceRows(evidence, suggestion) : []), [evidence, suggestion]);
   const rowsBy = useMemo(() => byQuestion(rows, (r) => questionOfRow(r.key)), [rows]);
   const rulesBy = useMemo(() => byQuestion<FiredRule>(suggestion?.rules ?? [], (r) => questionOfMeasure(r.measure)), [suggestion]);
