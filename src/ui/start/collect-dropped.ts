@@ -18,7 +18,11 @@ export async function filesFromDataTransfer(dt: DataTransfer): Promise<File[]> {
   const out: File[] = [...loose];
   const walk = async (entry: FileSystemEntry): Promise<void> => {
     if (entry.isFile) {
-      out.push(await new Promise<File>((resolve, reject) => (entry as FileSystemFileEntry).file(resolve, reject)));
+      const file = await new Promise<File>((resolve, reject) => (entry as FileSystemFileEntry).file(resolve, reject));
+      // keep the folder path, as a folder picker gives it (webkitRelativePath), so a dropped BIDS dataset opens as a study
+      const rel = entry.fullPath.replace(/^\//, '');
+      if (rel.includes('/') && !file.webkitRelativePath) Object.defineProperty(file, 'webkitRelativePath', { value: rel });
+      out.push(file);
     } else if (entry.isDirectory) {
       const reader = (entry as FileSystemDirectoryEntry).createReader();
       for (;;) {

@@ -5,6 +5,13 @@
 import { workbenchStore } from '../../state/index.ts';
 import { hasRecording, sortParticipantFiles } from '../../state/participant-files.ts';
 import { confirmSwitchParticipant } from '../../state/review-history.ts';
+import { studyStore } from '../../state/study-hooks.ts';
+
+/** A whole BIDS dataset: dataset_description.json at the folder's root and at least one sub-* folder. */
+function isDatasetFolder(files: readonly File[]): boolean {
+  const rel = files.map((f) => f.webkitRelativePath || '');
+  return rel.some((p) => /^[^/]+\/dataset_description\.json$/.test(p)) && rel.some((p) => /^[^/]+\/sub-[^/]+\//.test(p));
+}
 
 export interface OpenExtras {
   readonly decompositionFiles?: readonly File[];
@@ -14,6 +21,10 @@ export interface OpenExtras {
 export function openFiles(files: readonly File[], extras: OpenExtras = {}): void {
   const s = workbenchStore.getState();
   if (files.length === 0) return;
+  if (isDatasetFolder(files)) {
+    void studyStore.getState().openFolder(files);
+    return;
+  }
   const sorted = sortParticipantFiles(files);
   if (!hasRecording(files)) {
     if (sorted.decisionsFile && s.decomposition) {
