@@ -30,6 +30,8 @@ import { matrixMultiply } from '../linalg/dense.ts';
 import { fastTanh } from './fast-tanh.ts';
 import { createPrng, shuffleInPlace } from './prng.ts';
 import { cancellationError, type IcaMonitor, type IcaResult } from './ica-types.ts';
+import { activeKernels } from '../kernels/kernels.ts';
+import { WASM_TILE } from '../kernels/wasm-kernels.ts';
 
 export interface InfomaxOptions {
   /** Maximum passes over the data (default 512). */
@@ -221,28 +223,46 @@ export function naturalGradientBlockStep(
 ): void {
   const { U, F, M, D, dW } = scratch;
   const kk = k * k;
-  multiplyChannelMajor(W, k, k, Z, T, U, t0, t0 + b);
-  for (let i = 0; i < k; i++) {
-    const o = i * b;
-    const ki = K[i];
-    let s2 = 0;
-    let u2 = 0;
-    let tu = 0;
-    for (let t = 0; t < b; t++) {
-      const u = U[o + t];
-      const th = fastTanh(u);
-      F[o + t] = ki * th + u;
-      s2 += th * th;
-      u2 += u * u;
-      tu += th * u;
+  const kern = activeKernels();
+  // WebAssembly SIMD path (src/core/kernels) from 16 components: below that the per-block copies cost more than
+  // they save (measured: k = 12 no gain, k = 32 2.4× faster per pass; ours).
+  if (kern.infomaxBlock && b <= WASM_TILE && k >= 16) {
+    // M = diag(K) E[tanh(U)Uᵀ] + E[UUᵀ] from the two products.
+    const PU = D;
+    const UU = dW;
+    const th2 = F;
+    kern.infomaxBlock(W, k, Z, T, t0, b, PU, UU, th2);
+    for (let i = 0; i < k; i++) {
+      stats.sech2[i] += b - th2[i];
+      stats.u2[i] += UU[i * k + i];
+      stats.tanhU[i] += PU[i * k + i];
+      const ki = K[i];
+      for (let j = 0; j < k; j++) M[i * k + j] = ki * PU[i * k + j] + UU[i * k + j];
     }
-    stats.sech2[i] += b - s2;
-    stats.u2[i] += u2;
-    stats.tanhU[i] += tu;
+  } else {
+    multiplyChannelMajor(W, k, k, Z, T, U, t0, t0 + b);
+    for (let i = 0; i < k; i++) {
+      const o = i * b;
+      const ki = K[i];
+      let s2 = 0;
+      let u2 = 0;
+      let tu = 0;
+      for (let t = 0; t < b; t++) {
+        const u = U[o + t];
+        const th = fastTanh(u);
+        F[o + t] = ki * th + u;
+        s2 += th * th;
+        u2 += u * u;
+        tu += th * u;
+      }
+      stats.sech2[i] += b - s2;
+      stats.u2[i] += u2;
+      stats.tanhU[i] += tu;
+    }
+    // D = I − E[(K tanh U + U) Uᵀ]
+    M.fill(0);
+    accumulateProductTransposed(F, b, k, U, b, k, b, M);
   }
-  // D = I − E[(K tanh U + U) Uᵀ]
-  M.fill(0);
-  accumulateProductTransposed(F, b, k, U, b, k, b, M);
   for (let i = 0; i < kk; i++) D[i] = -M[i] / b;
   for (let i = 0; i < k; i++) D[i * k + i] += 1;
   matrixMultiply(D, W, k, k, k, dW);

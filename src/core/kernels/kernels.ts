@@ -38,6 +38,12 @@ export interface Kernels {
   passSums(Z: Float32Array, k: number, T: number, W: Float64Array, t0: number, t1: number, out: PassSums, poll?: () => boolean): boolean;
   /** out (n × n) += Σ_t X[:, t] X[:, t]ᵀ over samples [t0, t1) of channel-major X (n × T); no centring. */
   accumulateGram(X: Float32Array, n: number, T: number, t0: number, t1: number, out: Float64Array): void;
+  /**
+   * The data part of one extended-Infomax block (≤ 512 samples [t0, t0 + b) of Z, U = W Z): sets
+   * PU = Σ_t tanh(U) Uᵀ, UU = Σ_t U Uᵀ (k × k) and th2_i = Σ_t tanh² u_i. Only the wasm kernels have it; the
+   * JS path keeps infomax.ts's own fused loop.
+   */
+  infomaxBlock?(W: Float64Array, k: number, Z: Float32Array, T: number, t0: number, b: number, PU: Float64Array, UU: Float64Array, th2: Float64Array): void;
 }
 
 /** The plain-JS kernels (float64 arithmetic). */

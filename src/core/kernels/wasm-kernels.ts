@@ -130,6 +130,24 @@ export function createWasmKernels(api: WasmApi, module: WasmModuleHandle): Kerne
       for (let i = 0; i < k * k; i++) out.gTanh[i] += f64[g + i];
       return ok;
     },
+    infomaxBlock(W, k, Z, T, t0, b, PU, UU, th2) {
+      if (b > WASM_TILE) throw new RangeError(`infomaxBlock takes at most ${WASM_TILE} samples, got ${b}`);
+      const [pW, pZ, pY, pP, pLc, pTh, pPU, pUU] = layout([4 * k * k, 4 * k * WASM_TILE, 4 * k * WASM_TILE, 4 * k * WASM_TILE, 8 * k, 8 * k, 8 * k * k, 8 * k * k]);
+      putWeights(W, k * k, pW);
+      f64.fill(0, pLc >> 3, (pLc >> 3) + k);
+      f64.fill(0, pTh >> 3, (pTh >> 3) + k);
+      f64.fill(0, pPU >> 3, (pPU >> 3) + k * k);
+      f64.fill(0, pUU >> 3, (pUU >> 3) + k * k);
+      const b8 = (b + 7) & ~7;
+      loadTile(Z, k, T, t0, b, pZ, b8);
+      ex.multiply(pW, k, k, pZ, WASM_TILE, pY, WASM_TILE, b8);
+      ex.tanhSums(pY, pP, k, WASM_TILE, b8, pLc, pTh);
+      ex.accumulateAbT(pP, WASM_TILE, k, pY, WASM_TILE, k, b8, pPU);
+      ex.accumulateAbT(pY, WASM_TILE, k, pY, WASM_TILE, k, b8, pUU);
+      PU.set(f64.subarray(pPU >> 3, (pPU >> 3) + k * k));
+      UU.set(f64.subarray(pUU >> 3, (pUU >> 3) + k * k));
+      th2.set(f64.subarray(pTh >> 3, (pTh >> 3) + k));
+    },
     accumulateGram(X, n, T, t0, t1, out) {
       const [pX, pG] = layout([4 * n * WASM_TILE, 8 * n * n]);
       const g = pG >> 3;

@@ -10,6 +10,7 @@ import { createJsKernels, installKernelModule, simdSupported, useJsKernels, type
 import { createPassSums } from '../../../src/core/ica/picard-pass.ts';
 import { loadKernelModule } from '../../../src/cli/wasm-kernels.ts';
 import { createPrng } from '../../../src/core/ica/prng.ts';
+import { createBlockScratch, naturalGradientBlockStep } from '../../../src/core/ica/infomax.ts';
 
 const mod = loadKernelModule();
 
@@ -129,6 +130,27 @@ describe('wasm and JS kernels agree to float32 tolerance', () => {
     js.accumulateGram(X, n, T, 0, T, a);
     wasm.accumulateGram(X, n, T, 0, T, b);
     expect(maxAbsDiff(a, b) / T).toBeLessThan(1e-6);
+  });
+  it('one extended-Infomax block update (k = 17, 301 samples) gives the same W and statistics on both paths', () => {
+    const k = 17;
+    const T = 1000;
+    const Z = data(k, T, 9);
+    const K = Float64Array.from({ length: k }, (_, i) => (i % 3 === 0 ? -1 : 1));
+    const run = (kern: 'js' | 'wasm') => {
+      if (kern === 'wasm') installKernelModule(mod);
+      else useJsKernels();
+      const W = weights(k, k, 4);
+      const stats = { sech2: new Float64Array(k), u2: new Float64Array(k), tanhU: new Float64Array(k) };
+      naturalGradientBlockStep(W, k, Z, T, 17, 301, K, 0.04, createBlockScratch(k, 301), stats);
+      useJsKernels();
+      return { W, stats };
+    };
+    const a = run('js');
+    const b = run('wasm');
+    expect(maxAbsDiff(a.W, b.W)).toBeLessThan(1e-6);
+    expect(maxAbsDiff(a.stats.sech2, b.stats.sech2) / 301).toBeLessThan(2e-6);
+    expect(maxAbsDiff(a.stats.u2, b.stats.u2) / 301).toBeLessThan(2e-6);
+    expect(maxAbsDiff(a.stats.tanhU, b.stats.tanhU) / 301).toBeLessThan(2e-6);
   });
   it('a poll that says stop ends the wasm pass early with false', () => {
     const k = 4;
