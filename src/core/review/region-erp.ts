@@ -53,9 +53,9 @@ export interface RegionErpPlan {
   readonly regionWeights: Float64Array;
 }
 
-/** Inputs of `regionErpPlan`. */
-export interface RegionErpPlanInput {
-  /** Channel-major samples of the recording's signal block (µV). */
+/** The recording's samples and a region of interest in decomposition channel terms (what region measures read). */
+export interface RegionSamples {
+  /** Channel-major samples of the recording's signal block (µV), `nSamples` per row. */
   readonly data: Float32Array;
   readonly nSamples: number;
   /** Hz. */
@@ -64,6 +64,10 @@ export interface RegionErpPlanInput {
   readonly rows: ArrayLike<number>;
   /** Decomposition channel indices of the region. */
   readonly roi: readonly number[];
+}
+
+/** Inputs of `regionErpPlan`. */
+export interface RegionErpPlanInput extends RegionSamples {
   /** k × n, components × decomposition channels. */
   readonly unmixing: Float64Array;
   /** n × k, decomposition channels × components. */

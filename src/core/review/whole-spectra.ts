@@ -9,7 +9,7 @@
  * weight vector v gives the cleaned region signal for any removed set R, whatever the number of
  * components. Both signals then go through Welch's method (src/core/signal/welch.ts; Welch 1967).
  */
-import { regionMixing } from './region-erp.ts';
+import { regionMixing, type RegionSamples } from './region-erp.ts';
 import { createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength } from '../signal/welch.ts';
 
 export interface WholeRegionSpectra {
@@ -45,15 +45,7 @@ export function removedRegionWeights(
   return v;
 }
 
-export interface WholeRegionSpectraInput {
-  /** Channel-major recording samples (µV), `nSamples` per row. */
-  readonly data: Float32Array;
-  readonly nSamples: number;
-  readonly sampleRate: number;
-  /** Recording row of each decomposition channel (−1 when absent). */
-  readonly rows: ArrayLike<number>;
-  /** Decomposition channel indices of the region. */
-  readonly roi: readonly number[];
+export interface WholeRegionSpectraInput extends RegionSamples {
   /** `removedRegionWeights` for the removed set, length n. */
   readonly removedWeights: Float64Array;
   /** m, the channel means removed before unmixing (null = 0). */
