@@ -8,6 +8,7 @@
  * and commit the new pictures with the change.
  */
 import { expect, test, type Page } from '@playwright/test';
+import { tinyEdf } from './edf-bytes.ts';
 
 /** Demo load = read + decomposition + evidence in the browser. */
 const LOAD_TIMEOUT = 75_000;
@@ -148,4 +149,26 @@ test('the board works with the keyboard alone at 1280 × 720', async ({ page }) 
   await expect(page.getByTestId('export-undecided-warning')).toBeVisible();
   await page.keyboard.press('Escape');
   await expect(page.getByTestId('export-panel')).toHaveCount(0);
+});
+
+test('a recording without a decomposition: the summary states positions, reference and sidecars; each method shows its time here', async ({ page }) => {
+  test.setTimeout(120_000);
+  await page.goto('/?demo=0');
+  const labels = ['Fp1', 'Fp2', 'C3', 'C4', 'O1', 'O2'];
+  const bytes = Array.from(tinyEdf({ labels, sampleRate: 128, records: 40, noiseUv: 20 }));
+  const channels = `name\ttype\tunits\treference\n${labels.map((l) => `${l}\tEEG\tuV\tCz`).join('\n')}\n`;
+  const dataTransfer = await page.evaluateHandle(([b, tsv]) => {
+    const dt = new DataTransfer();
+    dt.items.add(new File([new Uint8Array(b as number[])], 'sub-07_task-rest_eeg.edf', { type: 'application/octet-stream' }));
+    dt.items.add(new File([tsv as string], 'sub-07_task-rest_channels.tsv', { type: 'text/tab-separated-values' }));
+    return dt;
+  }, [bytes, channels] as const);
+  await page.dispatchEvent('[data-testid="drop-zone"]', 'drop', { dataTransfer });
+  await expect(page.getByTestId('decompose-form')).toBeVisible({ timeout: 30_000 });
+  await expect(page.getByTestId('recording-positions')).toHaveText('6 of 6 EEG channels, idealised 10-20/10-10 positions by channel name (no electrodes.tsv)');
+  await expect(page.getByTestId('recording-reference')).toHaveText('Cz (sub-07_task-rest_channels.tsv)');
+  await expect(page.getByTestId('recording-sidecars')).toHaveText('sub-07_task-rest_channels.tsv (channels)');
+  const method = page.getByTestId('decompose-method');
+  await expect(method.locator('option[value="picard"]')).toHaveText(/^Picard — (about|at least|under) .+ here$|^Picard — under 1 s here$/, { timeout: 60_000 });
+  await expect(method.locator('option[value="infomax"]')).toHaveText(/^extended Infomax — (about|at least|under) .+ here$/, { timeout: 60_000 });
 });

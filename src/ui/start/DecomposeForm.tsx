@@ -23,8 +23,8 @@ export function DecomposeForm() {
   const [seed, setSeed] = useState<number>(DEFAULT_DECOMPOSE.seed);
   const [highpassHz, setHighpass] = useState<number>(DEFAULT_DECOMPOSE.highpassHz);
   const recording = useWorkbench((s) => s.recording);
-  const times = useMethodTimes(recording, DEFAULT_DECOMPOSE.seed, DEFAULT_DECOMPOSE.highpassHz);
-  const timing = recording !== null && typeof Worker !== 'undefined';
+  const times = useMethodTimes(recording, DEFAULT_DECOMPOSE.seed, DEFAULT_DECOMPOSE.highpassHz, !busy);
+  const timing = recording !== null && !busy && typeof Worker !== 'undefined';
   return (
     <section className="decompose-form" aria-label="Decomposition" data-testid="decompose-form">
       <h2>No decomposition yet</h2>

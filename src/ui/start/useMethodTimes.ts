@@ -2,7 +2,8 @@
  * Times each decomposition method on the loaded recording: a short run of the same pipeline on its first
  * 30 s in the decomposition worker (Picard first, then extended Infomax, one at a time), scaled to the
  * recording's length (src/core/ica/time-estimate.ts). Runs once per recording while the offer to decompose
- * is shown; leaving the screen stops it.
+ * is shown and nothing else is running; leaving the screen or starting a decomposition stops it (a stopped
+ * timing starts again from the method not yet timed).
  */
 import { useEffect, useState } from 'react';
 import { runDecompositionDetailed } from '../../bridge/decomposition-client.ts';
@@ -19,10 +20,10 @@ const TIMING_MAX_ITER = 200;
 
 const cache = new WeakMap<LoadedRecording, MethodTimes>();
 
-export function useMethodTimes(recording: LoadedRecording | null, seed: number, highpassHz: number): MethodTimes {
+export function useMethodTimes(recording: LoadedRecording | null, seed: number, highpassHz: number, enabled = true): MethodTimes {
   const [times, setTimes] = useState<MethodTimes>(() => (recording ? cache.get(recording) ?? {} : {}));
   useEffect(() => {
-    if (!recording || typeof Worker === 'undefined') return;
+    if (!recording || !enabled || typeof Worker === 'undefined') return;
     const known = cache.get(recording);
     if (known && known.picard && known.infomax) {
       setTimes(known);
@@ -31,10 +32,11 @@ export function useMethodTimes(recording: LoadedRecording | null, seed: number, 
     const controller = new AbortController();
     const full = decomposeInputOf(recording);
     const slice = timingSlice(full, TIMING_SECONDS);
-    const out: MethodTimes = {};
+    const out: MethodTimes = { ...known };
     void (async () => {
       for (const method of ['picard', 'infomax'] as const) {
         if (controller.signal.aborted) return;
+        if (out[method]) continue;
         let t0: number | null = null;
         try {
           const r = await runDecompositionDetailed(
@@ -58,6 +60,6 @@ export function useMethodTimes(recording: LoadedRecording | null, seed: number, 
     })();
     return () => controller.abort();
     // The timing is for the method on this recording; seed and high-pass change it little.
-  }, [recording]);
+  }, [recording, enabled]);
   return times;
 }
