@@ -1,13 +1,24 @@
 import { describe, expect, it } from 'vitest';
 import {
+  decompositionExtrasOf,
   parseDecompositionJson,
   parseMatrixTsv,
   serializeDecomposition,
 } from '../../../src/core/formats/decomposition-file.ts';
 import { sha256Hex } from '../../../src/core/formats/sha256.ts';
 import type { Decomposition } from '../../../src/core/decomposition.ts';
-
 import { base, s } from './decomposition-fixture.ts';
+
+describe('decompositionExtrasOf (the run details workbench and CLI both write)', () => {
+  it('writes rank reason, variance shares, warnings and seed beside the contract fields; readers ignore them', () => {
+    const result = { rankReason: 'full rank (3 channels)', varianceShare: Float64Array.of(0.6, 0.3), warnings: ['not converged'], densitySigns: Int8Array.of(1, 1) };
+    const text = serializeDecomposition(base, decompositionExtrasOf(result, 7));
+    const o = JSON.parse(text);
+    expect(o).toMatchObject({ rankReason: 'full rank (3 channels)', varianceShare: [0.6, 0.3], warnings: ['not converged'], seed: 7 });
+    const back = parseDecompositionJson(text, 'd.json');
+    expect(back.ok && Array.from(back.value.unmixing)).toEqual(Array.from(base.unmixing));
+  });
+});
 
 describe('serializeDecomposition / parseDecompositionJson', () => {
   it('round-trips every field bit for bit', () => {
