@@ -132,6 +132,76 @@ test('reviewing the demo participant: decide, preview, focus, export, reload, ke
   // EDF+ anonymous patient field "X X X X" (Kemp & Olivan 2003, EDF+ §2.1.3.3) and "EDF+C" in the reserved field.
   expect(edf.subarray(8, 88).toString('latin1').trim()).toBe('X X X X');
   expect(edf.subarray(192, 197).toString('latin1')).toBe('EDF+C');
+  {
+    // The removed component is gone and the kept ones are intact (docs/methods.md §7.6): with W A = I,
+    // X_clean = X − A[:,R] W[R,:] (X − m) gives W[r,:] (X_clean − m) = 0 for r in R and W[k,:] X_clean = W[k,:] X
+    // otherwise. Both files are read with the core EDF reader; the only allowed residue is what writing EDF
+    // must leave: each 16-bit sample rounded to half its digital step (EDF spec, Kemp et al. 1992) plus float32
+    // rounding, carried through the row: Σ_j |W_rj| (Δ_j/2 + 2⁻²³ |x_j|).
+    const { bytesByteSource } = await import('../src/core/formats/byte-source.ts');
+    const { readEdfInfo, readEdfSignals } = await import('../src/core/formats/edf.ts');
+    const { parseDecompositionJson } = await import('../src/core/formats/decomposition-file.ts');
+    const demoDir = new URL('../demo-data/sub-01/eeg/', import.meta.url);
+    const decName = 'sub-01_task-walkoddball_desc-ica_decomposition.json';
+    const dec = parseDecompositionJson(await readFile(new URL(decName, demoDir), 'utf8'), decName);
+    if (!dec.ok) throw new Error(dec.error.message);
+    const { channels, nChannels: nc, nComponents: k, mixing: A, unmixing: W } = dec.value;
+    const means = dec.value.channelMeans ?? new Float64Array(nc);
+    for (let r = 0; r < k; r++)
+      for (let q = 0; q < k; q++) {
+        let s = 0;
+        for (let j = 0; j < nc; j++) s += W[r * nc + j] * A[j * k + q];
+        expect(Math.abs(s - (r === q ? 1 : 0))).toBeLessThan(1e-6); // precondition W A = I
+      }
+    const read = async (bytes: Uint8Array, name: string) => {
+      const src = bytesByteSource(bytes, name);
+      const info = await readEdfInfo(src);
+      if (!info.ok) throw new Error(info.error.message);
+      const block = await readEdfSignals(src, info.value, { channels: [...channels] });
+      if (!block.ok) throw new Error(block.error.message);
+      const byLabel = new Map(info.value.channels.map((c) => [c.label, c] as const));
+      const step = channels.map((l) => {
+        const c = byLabel.get(l)!;
+        return (c.physicalMax - c.physicalMin) / (c.digitalMax - c.digitalMin);
+      });
+      return { block: block.value, step };
+    };
+    const orig = await read(await readFile(new URL('sub-01_task-walkoddball_eeg.edf', demoDir)), 'demo.edf');
+    const clean = await read(new Uint8Array(edf), 'cleaned.edf');
+    const T = orig.block.nSamples;
+    expect(clean.block.nSamples).toBe(T);
+    expect([...clean.block.labels]).toEqual([...orig.block.labels]);
+    const X = orig.block.data;
+    const Y = clean.block.data;
+    const worst = (r: number, x: Float32Array, t: number) => {
+      let b = 0;
+      for (let j = 0; j < nc; j++) b += Math.abs(W[r * nc + j]) * (clean.step[j] / 2 + Math.abs(x[j * T + t]) * 2 ** -23);
+      return b;
+    };
+    const rms = (v: Float64Array) => Math.sqrt(v.reduce((s, x) => s + x * x, 0) / v.length);
+    for (let r = 0; r < k; r++) {
+      const before = new Float64Array(T);
+      const after = new Float64Array(T);
+      let maxExcess = -Infinity;
+      for (let t = 0; t < T; t++) {
+        let sx = 0;
+        let sy = 0;
+        for (let j = 0; j < nc; j++) {
+          sx += W[r * nc + j] * (X[j * T + t] - means[j]);
+          sy += W[r * nc + j] * (Y[j * T + t] - means[j]);
+        }
+        before[t] = sx;
+        after[t] = sy;
+        const target = r === 0 ? 0 : sx; // component 1 was removed above
+        maxExcess = Math.max(maxExcess, Math.abs(sy - target) - worst(r, Y, t) - (r === 0 ? 0 : worst(r, X, t)));
+      }
+      expect(maxExcess, `component ${r + 1}: |W_r X_clean − expected| beyond the EDF rounding bound`).toBeLessThanOrEqual(1e-9);
+      if (r === 0) {
+        test.info().annotations.push({ type: 'removed component 1', description: `rms after / before ${(rms(after) / rms(before)).toExponential(2)}` });
+        expect(rms(after) / rms(before), 'removed component: rms after / before').toBeLessThan(0.01);
+      }
+    }
+  }
   await page.keyboard.press('Escape');
 
   // Reload: the saved review is offered and restored.
