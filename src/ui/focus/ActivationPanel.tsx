@@ -2,7 +2,7 @@
  * The component's time course (back-projected to its strongest channel, µV) above chosen sensor traces,
  * on one time axis with the recording's event markers; a scrollable window.
  */
-import { useMemo } from 'react';
+import { useCallback, useMemo } from 'react';
 import type { Decomposition } from '../../core/decomposition.ts';
 import type { LoadedRecording } from '../../core/recording.ts';
 import { extractWindow } from '../../core/review/preview-projection.ts';
@@ -12,6 +12,7 @@ import { clampWindowStart, markerEvents, niceScaleAbove, peakRowSpan, robustRowS
 import { EventMarkerSelect } from '../plots/EventMarkerSelect.tsx';
 import type { TraceSpec } from '../plots/trace-draw.ts';
 import { useElementWidth } from '../plots/useElementWidth.ts';
+import { SensorPicker } from '../plots/SensorPicker.tsx';
 import { backProjectedActivation, strongestChannels } from './focus-logic.ts';
 
 export interface ActivationSettings {
@@ -28,6 +29,8 @@ export interface ActivationPanelProps {
   readonly recording: LoadedRecording;
   readonly decomposition: Decomposition;
   readonly rows: Int32Array;
+  /** n × 3 electrode unit vectors in decomposition order (NaN rows unknown), for the sensor drawing; null = none. */
+  readonly positions: Float64Array | null;
   readonly settings: ActivationSettings;
   readonly onSettings: (patch: Partial<ActivationSettings>) => void;
   readonly context: string;
@@ -35,7 +38,7 @@ export interface ActivationPanelProps {
 
 const LENGTHS_S = [2, 5, 10, 20, 30];
 
-export function ActivationPanel({ index, recording, decomposition, rows, settings, onSettings, context }: ActivationPanelProps) {
+export function ActivationPanel({ index, recording, decomposition, rows, positions, settings, onSettings, context }: ActivationPanelProps) {
   const { signals } = recording;
   const fs = signals.sampleRate;
   const n = decomposition.nChannels;
@@ -52,6 +55,7 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
     [settings.sensors, n, rows, strongest],
   );
   const [box, boxWidth] = useElementWidth<HTMLDivElement>(640);
+  const usable = useCallback((c: number) => rows[c] >= 0, [rows]);
 
   const spec = useMemo((): TraceSpec => {
     const win = extractWindow(signals.data, signals.nSamples, rows, start, end);
@@ -99,15 +103,13 @@ export function ActivationPanel({ index, recording, decomposition, rows, setting
           ))}
         </select>
       </label>
-      <label>
+      <span className="sensors-field">
         Sensors{' '}
-        <select
-          multiple size={3} value={sensors.map(String)}
-          onChange={(e) => onSettings({ sensors: Array.from(e.target.selectedOptions, (o) => Number(o.value)).slice(0, 8) })}
-        >
-          {decomposition.channels.map((label, c) => (rows[c] >= 0 ? <option key={c} value={c}>{label}</option> : null))}
-        </select>
-      </label>
+        <SensorPicker
+          label="Sensors" labels={decomposition.channels} positions={positions} usable={usable} selected={sensors}
+          onChange={(next) => onSettings({ sensors: next })} size={96} testId="focus-sensors"
+        />
+      </span>
       {settings.sensors ? <button type="button" onClick={() => onSettings({ sensors: null })}>strongest</button> : null}
       <EventMarkerSelect events={recording.events} shown={settings.markers} onChange={(markers) => onSettings({ markers })} />
     </>

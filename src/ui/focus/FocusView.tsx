@@ -130,6 +130,7 @@ export function FocusView() {
         recording={recording}
         decomposition={decomposition}
         rows={montage.rows}
+        positions={montage.drawable ? montage.positions : null}
         settings={activation}
         onSettings={(p) => setActivation((s) => ({ ...s, ...p }))}
         context={context}

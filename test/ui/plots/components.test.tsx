@@ -121,3 +121,26 @@ describe('TrialStack split by a column', () => {
     expect(html.match(/stroke-width="1.5"/g)?.length).toBe(1); // one fence between two blocks
   });
 });
+
+describe('SensorPicker', () => {
+  it('shows the chosen channels as chips, offers the others to add, and draws the usable electrodes', async () => {
+    const { SensorPicker } = await import('../../../src/ui/plots/SensorPicker.tsx');
+    const labels = ['Fpz', 'Oz', 'T7', 'T8', 'Cz', 'X1'];
+    const html = renderToStaticMarkup(
+      <SensorPicker label="Sensors" labels={labels} positions={positions} usable={(c) => c !== 3} selected={[4, 0]} onChange={() => {}} />,
+    );
+    expect(html).toContain('aria-label="remove Cz"');
+    expect(html).toContain('aria-label="remove Fpz"');
+    expect(html).toContain('<option value="1">Oz</option>');
+    expect(html).not.toContain('<option value="3">T8</option>'); // not usable
+    expect(html).not.toContain('<option value="4">'); // already chosen
+    // dots for the usable channels with a position: Fpz, Oz, T7, Cz (T8 unusable, X1 has none)
+    expect(html.match(/<circle/g)?.length).toBe(4);
+  });
+  it('toggles a channel, keeping at most `max` (the oldest goes)', async () => {
+    const { toggleChannel } = await import('../../../src/ui/plots/SensorPicker.tsx');
+    expect(toggleChannel([1, 2], 2, 3)).toEqual([1]);
+    expect(toggleChannel([1, 2], 5, 3)).toEqual([1, 2, 5]);
+    expect(toggleChannel([1, 2, 5], 7, 3)).toEqual([2, 5, 7]);
+  });
+});
