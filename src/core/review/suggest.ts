@@ -292,13 +292,15 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
   // value (the reference's share), while a focal brain or muscle source spreads unevenly onto its neighbours
   // (restStructure, evidence/focality.ts; issue 10, ours). A clearly flat rest is a contact whatever the
   // spectrum; a slightly structured rest (an imperfectly separated contact, or a muscle patch under one
-  // electrode) is a contact unless the component also reads as muscle. Without a map (NaN) focality alone decides.
+  // electrode) is a contact unless the component also reads as unmistakable muscle. Without a map (NaN) focality alone decides.
   {
     const focalRule = check('focality.share', e.focality.share, t, 'electrodeFocality', '≥');
     const rest = e.map && e.map.length ? restStructure(e.map) : NaN;
     const flatRule = Number.isFinite(rest) ? check('focality.restStructure', rest, t, 'electrodeRestStructure', '≤') : null;
     const nearlyFlatRule = Number.isFinite(rest) ? check('focality.restStructure', rest, t, 'electrodeRestStructureMuscle', '≤') : null;
-    const muscleToo = findings.some((f) => f.signature === 'muscle');
+    // Only unmistakable muscle (high-frequency share ≥ the strong level) outweighs a nearly flat rest: a noisy
+    // electrode's broadband noise falls off below the muscle band's flat top (tuning seeds: ≤ 0.61 vs ≥ 0.65).
+    const muscleToo = findings.some((f) => f.signature === 'muscle') && e.highFrequencyShare >= t.muscleHighFrequencyShareStrong;
     const restRule = flatRule ?? (muscleToo ? null : nearlyFlatRule);
     if (focalRule && (!Number.isFinite(rest) || restRule))
       findings.push({
