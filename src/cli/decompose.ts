@@ -82,7 +82,7 @@ function progressLine(p: DecomposeProgress): string {
   if (p.stage !== 'ica') return `decompose: ${p.stage}\n`;
   const conv = Number.isFinite(p.convergence) ? p.convergence.toExponential(2) : '—';
   const eta = p.etaSeconds === null ? '' : `, about ${Math.ceil(p.etaSeconds)} s left`;
-  return `decompose: ica iteration ${p.iteration}, convergence ${conv}${eta}\n`;
+  return `decompose: ica iteration ${p.iteration}, convergence ${conv}${eta}, ${Math.floor(100 * p.fraction)} % done\n`;
 }
 
 export async function run(args: string[], io: CliIo): Promise<number> {

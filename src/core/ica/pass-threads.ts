@@ -18,7 +18,7 @@
  */
 import { accumulatePassSums, clearPassSums, createPassScratch, createPassSums, type PassEvaluator } from './picard-pass.ts';
 import { installedKernelModule, installKernelModule } from '../kernels/kernels.ts';
-import type { WasmModuleHandle } from '../kernels/wasm-kernels.ts';
+import { WASM_TILE, type WasmModuleHandle } from '../kernels/wasm-kernels.ts';
 
 const IDLE = 0;
 const WORK = 1;
@@ -92,7 +92,9 @@ export function createIcaThreads(post: (setup: PassHelperSetup) => void, helperS
     allocate: (length) => new Float32Array(new SharedArrayBuffer(4 * length)),
     evaluator(Z, k, T) {
       if (!(Z.buffer instanceof SharedArrayBuffer)) throw new RangeError('IcaThreads.evaluator needs Z allocated by IcaThreads.allocate');
-      const split = Math.max(0, Math.min(T, Math.round(T * (1 - helperShare))));
+      // Split on the kernels' tile grid (512 samples, a multiple of the JS tile): every tile is then summed exactly
+      // as on one thread, and 1 and 2 threads differ only in the order the float64 tile sums are added.
+      const split = Math.max(0, Math.min(T, Math.round((T * (1 - helperShare)) / WASM_TILE) * WASM_TILE));
       // control[0]: the pass state; control[1]: 1 once the helper has taken this setup.
       const control = new Int32Array(new SharedArrayBuffer(8));
       const weights = new Float64Array(new SharedArrayBuffer(8 * k * k));
