@@ -70,7 +70,7 @@ export function ActivationPanel({ index, recording, decomposition, rows, positio
     // The component row gets its own scale, to its robust peak so its events (blinks, beats) fit the row;
     // the sensors share ±3 robust SD; both on the 1-2-5 sequence so the scale bars read (docs/methods.md §18).
     const sensorSpan = niceScaleAbove(sensors.length ? robustRowSpan(data.subarray(L), sensors.length, L) : 1);
-    const rowSpans = Float64Array.from({ length: nRows }, (_, r) => (r === 0 ? niceScaleAbove(peakRowSpan(act, L)) : sensorSpan));
+    const rowSpans = Float64Array.from({ length: nRows }, (_, r) => (r === 0 ? peakRowSpan(act, L) : sensorSpan));
     return {
       width: Math.max(420, boxWidth),
       height: 60 + 46 * nRows,
