@@ -31,7 +31,7 @@ export function allTileFigures(e: ComponentEvidence): Record<string, TileFigure>
     kurtosis: { label: 'kurtosis', value: num(e.kurtosis, 1), title: 'Excess kurtosis of the activation (0 for Gaussian), unitless' },
     // Not the evidence table's "Time-locking" (the locked share above shuffled event times): the share of the
     // trials' variance in their average, which cannot be negative (an estimate below 0 shows as 0).
-    locked: { label: 'locked variance', value: e.erp ? pct(Math.max(0, e.erp.lockedShare)) : 'n/a', title: 'Share of single-trial variance phase-locked to the events (%); not the time-locking above chance of the evidence table' },
+    locked: { label: 'phase-locked', value: e.erp ? pct(Math.max(0, e.erp.lockedShare)) : 'n/a', title: 'Share of single-trial variance phase-locked to the events (%); not the time-locking above chance of the evidence table' },
     rv: { label: 'dipole RV', value: e.dipole ? pct(e.dipole.residualVariance) : 'n/a', title: 'Residual variance of the single-dipole fit (%), a model estimate' },
     alpha: { label: 'alpha', value: e.alphaPeakHz === null ? 'none' : `${e.alphaPeakHz.toFixed(1)} Hz`, title: 'Alpha peak frequency above the 1/f fit (Hz)' },
     slope: { label: 'exponent', value: num(e.oneOverF.exponent, 2), title: '1/f exponent χ in P ∝ f^−χ, unitless' },

@@ -16,7 +16,7 @@ describe('tileFigures', () => {
   it('shows the figures behind the suggested reason, each with its unit', () => {
     expect(tileFigures(evidence, suggested('remove', 'blink')).map((f) => `${f.label} ${f.value}`)).toEqual(['EOG |r| 0.91', 'frontal 4.6×', 'kurtosis 12.3']);
     expect(tileFigures(evidence, suggested('remove', 'cardiac')).map((f) => `${f.label} ${f.value}`)).toEqual(['beat 72 bpm', 'dipole RV 5.2\u00a0%', 'kurtosis 12.3']);
-    expect(tileFigures(evidence, suggested('keep', 'neural')).map((f) => `${f.label} ${f.value}`)).toEqual(['dipole RV 5.2\u00a0%', 'alpha none', 'locked variance n/a']);
+    expect(tileFigures(evidence, suggested('keep', 'neural')).map((f) => `${f.label} ${f.value}`)).toEqual(['dipole RV 5.2\u00a0%', 'alpha none', 'phase-locked n/a']);
     expect(tileFigures(evidence, null).map((f) => f.label)).toEqual(['dipole RV', 'EOG |r|', '20 Hz+ share']); // unclear
   });
 });
