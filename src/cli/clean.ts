@@ -9,10 +9,9 @@
  * The decisions file names the SHA-256 of the recording's and the decomposition file's bytes; a mismatch
  * is an error (exit 2) unless --ignore-hashes.
  */
-import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { CliError, sha256OfFile, parseCommandArgs, type CliIo } from './cli-support.ts';
-import { openCliRecording, orFail } from './recording-files.ts';
+import { openCliRecording, orFail, readInputFile } from './recording-files.ts';
 import { writeFileAtomicChunks } from './atomic-write.ts';
 import { parseDecompositionJson } from '../core/formats/decomposition-file.ts';
 import { matchDecompositionToRecording } from '../core/formats/decomposition-match.ts';
@@ -38,14 +37,6 @@ options:
 `;
 
 
-async function readInput(path: string): Promise<Uint8Array> {
-  try {
-    return new Uint8Array(await readFile(path));
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new CliError(`${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : (e as Error).message}`, 2);
-  }
-}
 
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { positionals, values } = parseCommandArgs('clean', args, {
@@ -58,8 +49,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   if (typeof out !== 'string' || out.trim() === '') throw new CliError(`winnow clean: --out is required (${USAGE})`);
   const [recordingPath, decompositionPath, decisionsPath] = positionals;
 
-  const decompositionBytes = await readInput(decompositionPath);
-  const decisionsBytes = await readInput(decisionsPath);
+  const decompositionBytes = await readInputFile(decompositionPath);
+  const decisionsBytes = await readInputFile(decisionsPath);
   const decisions = parseDecisionsJson(new TextDecoder().decode(decisionsBytes), basename(decisionsPath));
   if (!decisions.ok) throw new CliError(decisions.error.message);
   const decomposition = parseDecompositionJson(new TextDecoder().decode(decompositionBytes), basename(decompositionPath));

@@ -8,9 +8,8 @@
  * model sphere. `--radius fit` fits a sphere to the positions and uses its centre and radius (the dipole is
  * then given in the same frame as the electrodes). Dipole position in mm, moment in nA·m.
  */
-import { readFile } from 'node:fs/promises';
 import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
-import { readCliElectrodes } from './recording-files.ts';
+import { readCliElectrodes, readInputFile } from './recording-files.ts';
 import { createHeadModel, dipolePotentials, type HeadModel, type HeadModelKind } from '../core/headmodel/forward.ts';
 import { fitSphere } from '../core/headmodel/sphere-fit.ts';
 
@@ -18,12 +17,7 @@ import { fitSphere } from '../core/headmodel/sphere-fit.ts';
 export const MIN_ELECTRODES = 8;
 
 export async function readTextFile(path: string): Promise<string> {
-  try {
-    return await readFile(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new CliError(`${path}: cannot read the file (${code ?? (e as Error).message})`, 2);
-  }
+  return new TextDecoder('utf-8').decode(await readInputFile(path));
 }
 
 export interface LoadedElectrodes {

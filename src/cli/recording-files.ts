@@ -25,13 +25,18 @@ export async function openRecordingSource(path: string): Promise<ByteSource & { 
   }
 }
 
-async function readSidecar(path: string): Promise<ByteSource> {
+/** The bytes of an input file named on the command line; a missing or unreadable file is an exit-2 error naming it. */
+export async function readInputFile(path: string): Promise<Uint8Array> {
   try {
-    return bytesByteSource(new Uint8Array(await readFile(path)), path);
+    return new Uint8Array(await readFile(path));
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
     throw new CliError(`${path}: ${code === 'ENOENT' ? 'no such file' : code === 'EISDIR' ? 'is a directory' : (e as Error).message}`);
   }
+}
+
+async function readSidecar(path: string): Promise<ByteSource> {
+  return bytesByteSource(await readInputFile(path), path);
 }
 
 /** The *_eeg.json / eeg.json files in the recording's folder (none when the folder is unreadable). */
