@@ -157,7 +157,9 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   }
   const n = used.length;
   if (n === 0) throw new RangeError('no good EEG channels left to decompose');
-  let X: Float32Array | null = new Float32Array(n * nSamples);
+  // The decomposition's one working copy (shared with the helper thread when there is one): filtered in place,
+  // then whitened in place (Z takes its first k rows), so the run holds the input plus one float32 copy.
+  let X: Float32Array | null = opts.threads ? opts.threads.allocate(n * nSamples) : new Float32Array(n * nSamples);
   const channelMeans = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const src = data.subarray(used[i] * nSamples, (used[i] + 1) * nSamples);
@@ -203,8 +205,9 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   if (k === 0) throw new RangeError(`the channel data have rank 0 (${pw.rankReason})`);
   if (nSamples < 20 * k * k)
     warnings.push(`${nSamples} samples for ${k} components is fewer than the common rule of thumb of 20·k² = ${20 * k * k}; components may be unreliable`);
-  const Z = applyWhitening(pw.whitening, k, n, cv.means, X, nSamples, opts.threads ? opts.threads.allocate(k * nSamples) : undefined, pollWork);
-  X = null; // the filtered copy is no longer needed; let it be collected during the ICA
+  // In place: each chunk of samples is read for all channels before its whitened rows are written (whitening.ts).
+  const Z = applyWhitening(pw.whitening, k, n, cv.means, X, nSamples, X.subarray(0, k * nSamples), pollWork);
+  X = null;
   checkAbort();
 
   // 4. ICA

@@ -175,7 +175,8 @@ export function pcaWhitening(cov: Float64Array, n: number, opts: { nComponents?:
 /**
  * Z = Ww (X − means) for channel-major X (n × nSamples) into `out` (k × nSamples, channel-major, Float32).
  * Float32 storage of unit-variance whitened data keeps 7 significant digits, ample for ICA, and halves memory.
- * Works in chunks of 16 384 samples through a small buffer; `poll` is called after each chunk.
+ * Works in chunks of 16 384 samples through a small buffer; `poll` is called after each chunk. `out` may be
+ * X's own first k rows (k ≤ n, in place): a chunk is read for all channels before its rows are written.
  */
 export function applyWhitening(
   Ww: Float64Array,
