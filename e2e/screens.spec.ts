@@ -8,6 +8,7 @@
  * and commit the new pictures with the change.
  */
 import { expect, test, type Page } from '@playwright/test';
+import { readFile } from 'node:fs/promises';
 import { tinyEdf } from './edf-bytes.ts';
 
 /** Demo load = read + decomposition + evidence in the browser. */
@@ -101,6 +102,14 @@ test('the preview strip removes and restores a component while the cleaned signa
   await expect(page.getByTestId('preview-strip-1')).toHaveAttribute('aria-current', 'true');
   await toggle.click();
   await expect(page.getByTestId('preview-strip-1')).toHaveAttribute('data-verdict', 'keep');
+
+  // An exported figure carries the participant in its name and keeps its caption.
+  const spectra = page.locator('section.panel-region-spectra');
+  const [download] = await Promise.all([page.waitForEvent('download'), spectra.getByRole('button', { name: 'SVG' }).click()]);
+  expect(download.suggestedFilename()).toBe('sub-01_task-walkoddball_winnow-preview-spectra-before-after.svg');
+  const svg = await readFile((await download.path())!, 'utf8');
+  expect(svg).toContain('sub-01 task-walkoddball · preview · Spectra before / after');
+  expect(svg).toContain('Welch PSD of the mean of');
   await expect(page.getByTestId('preview-removed-count')).toHaveText('0');
   await expect(checksum).toHaveText(before);
 });
