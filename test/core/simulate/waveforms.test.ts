@@ -13,20 +13,31 @@ import {
   shapedNoise,
 } from '../../../src/core/simulate/waveforms.ts';
 
-function slope(p: Float64Array, f: Float64Array, lo: number, hi: number): number {
-  let sx = 0, sy = 0, sxx = 0, sxy = 0, k = 0;
-  for (let i = 1; i < p.length; i++) {
-    if (f[i] < lo || f[i] > hi) continue;
-    const x = Math.log10(f[i]);
-    const y = Math.log10(p[i]);
-    sx += x; sy += y; sxx += x * x; sxy += x * y; k++;
-  }
-  return (k * sxy - sx * sy) / (k * sxx - sx * sx);
+/** OLS slope of y on x with its residual standard error (common practice). */
+function ols(xs: number[], ys: number[]): { slope: number; se: number } {
+  const k = xs.length;
+  const xm = xs.reduce((a, b) => a + b) / k;
+  const ym = ys.reduce((a, b) => a + b) / k;
+  let sxx = 0, sxy = 0;
+  for (let i = 0; i < k; i++) ((sxx += (xs[i] - xm) ** 2), (sxy += (xs[i] - xm) * (ys[i] - ym)));
+  const slope = sxy / sxx;
+  let rss = 0;
+  for (let i = 0; i < k; i++) rss += (ys[i] - ym - slope * (xs[i] - xm)) ** 2;
+  return { slope, se: Math.sqrt(rss / (k - 2) / sxx) };
 }
 
+/**
+ * Adjacent Welch bins correlate: the squared periodic Hann window's transform weighs 3/8, 1/4, 1/16 at 0, 1, 2
+ * bins, i.e. power correlations (2/3)² and (1/6)² (Harris 1978, Proc. IEEE 66:51–83), so the slope's standard
+ * error grows by √(1 + 2 Σ ρ_k). The bound is 4 standard errors (common practice for seeded statistical tests).
+ */
+const BIN_CORRELATION_INFLATION = Math.sqrt(1 + 2 * ((2 / 3) ** 2 + (1 / 6) ** 2));
+const SE_BOUND = 4;
+
 describe('simulator waveforms', () => {
-  it('shapes Gaussian noise to a power law: PSD slope −χ above the knee, unit variance', () => {
-    // Closed form: |H(f)|² = (f² + fk²)^(−χ/2) → log-log slope −χ for f ≫ fk.
+  it('shapes Gaussian noise to a power law: PSD slope as the closed form with its knee, unit variance', () => {
+    // Closed form: |H(f)|² = (f² + fk²)^(−χ/2), log-log slope −χ f²/(f² + fk²) (→ −χ for f ≫ fk). The expected
+    // OLS slope over the Welch bins of 5–60 Hz is that of the closed form at the same bins, computed here.
     const fs = 250;
     const n = 60 * fs;
     for (const chi of [1, 1.5, 2]) {
@@ -36,7 +47,15 @@ describe('simulator waveforms', () => {
       expect(ss / n).toBeCloseTo(1, 9);
       const plan = createWelchPlan(512);
       const p = welchPsd(plan, x, fs);
-      expect(Math.abs(-slope(p, welchFrequencies(plan, fs), 5, 60) - chi)).toBeLessThan(0.15);
+      const f = welchFrequencies(plan, fs);
+      const xs: number[] = [];
+      const measured: number[] = [];
+      const closed: number[] = [];
+      for (let i = 1; i < p.length; i++)
+        if (f[i] >= 5 && f[i] <= 60) (xs.push(Math.log10(f[i])), measured.push(Math.log10(p[i])), closed.push((-chi / 2) * Math.log10(f[i] ** 2 + 1)));
+      const fit = ols(xs, measured);
+      const expected = ols(xs, closed).slope;
+      expect(Math.abs(fit.slope - expected)).toBeLessThan(SE_BOUND * fit.se * BIN_CORRELATION_INFLATION);
     }
   });
 
@@ -60,8 +79,12 @@ describe('simulator waveforms', () => {
       s0 += x[i] * x[i];
       if (i > 0) s1 += x[i] * x[i - 1];
     }
-    expect(s0 / x.length).toBeCloseTo(1, 1);
-    expect(s1 / s0).toBeCloseTo(Math.exp(-1 / (fs * tau)), 2);
+    // Standard errors for an AR(1) series of N samples (Bartlett 1946; common practice): sample variance
+    // √(2 (1 + a²) / ((1 − a²) N)) σ², lag-1 autocorrelation √((1 − a²) / N).
+    const a = Math.exp(-1 / (fs * tau));
+    const N = x.length;
+    expect(Math.abs(s0 / N - 1)).toBeLessThan(SE_BOUND * Math.sqrt((2 * (1 + a * a)) / ((1 - a * a) * N)));
+    expect(Math.abs(s1 / s0 - a)).toBeLessThan(SE_BOUND * Math.sqrt((1 - a * a) / N));
   });
 
   it('makes a bursty rhythm whose spectrum peaks at the set frequency', () => {
