@@ -1,11 +1,11 @@
 import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { DEMO_OPTIONS } from '../../../src/cli/demo-data.ts';
-import { simulateSession } from '../../../src/core/simulate/simulate.ts';
-import { channelsTsv, eventsTsv, sessionEdf } from '../../../src/core/simulate/session-files.ts';
+import { DEMO_OPTIONS } from '../../src/cli/demo-data.ts';
+import { simulateSession } from '../../src/core/simulate/simulate.ts';
+import { channelsTsv, eventsTsv, sessionEdf } from '../../src/core/simulate/session-files.ts';
 
-const demo = (path: string) => readFileSync(new URL(`../../../demo-data/${path}`, import.meta.url));
+const demo = (path: string) => readFileSync(new URL(`../../demo-data/${path}`, import.meta.url));
 const sha = (b: Uint8Array | string) => createHash('sha256').update(b).digest('hex');
 
 describe('the bundled demo participant', () => {
