@@ -154,7 +154,7 @@ export function startAutosave(
     }
     const snap: ReviewSnapshot = {
       id: `${seg.key}#${seg.id}`, key: seg.key, startedAt: seg.startedAt, savedAt: clock().toISOString(), seq: seg.seq,
-      aim: s.aim, reviewer: s.reviewer, decisions,
+      aim: s.aim, thresholds: s.thresholds, reviewer: s.reviewer, decisions,
       recordingName: s.recording?.fileName ?? null, nComponents: s.decomposition?.nComponents ?? null, origin: seg.origin,
     };
     journalHeld = journal ? journal.write(snap) : false;
@@ -175,7 +175,7 @@ export function startAutosave(
     }
     if (prev.resumeOffer !== null && s.resumeOffer === null) answered = prev.resumeOffer;
     for (const [i, note] of drafts) if ((s.decisions[i]?.note ?? '') === note) drafts.delete(i);
-    if (s.decisions === prev.decisions && s.aim === prev.aim && s.reviewer === prev.reviewer) return;
+    if (s.decisions === prev.decisions && s.aim === prev.aim && s.reviewer === prev.reviewer && s.thresholds === prev.thresholds) return;
 
     if (s.decisions !== prev.decisions && changedIndices(prev.decisions, s.decisions) > 1) {
       // Several decisions replaced at once: what was there stays in its own snapshot; a new one begins.
@@ -190,7 +190,7 @@ export function startAutosave(
       return;
     }
     if (s.decisions !== prev.decisions) answered = null;
-    if (seg.baseline !== null && changedIndices(seg.baseline, s.decisions) === 0 && s.reviewer === prev.reviewer && s.aim === prev.aim) return;
+    if (seg.baseline !== null && changedIndices(seg.baseline, s.decisions) === 0 && s.reviewer === prev.reviewer && s.aim === prev.aim && s.thresholds === prev.thresholds) return;
     seg.baseline = null;
     if (seg.seq === 0 && s.resumeOffer !== null) seg.origin = 'while-offered';
     write(s);

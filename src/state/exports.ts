@@ -38,6 +38,7 @@ export function decisionsFileFromState(s: WorkbenchState, createdAt = new Date()
     nComponents: s.decomposition.nComponents,
     decisions: s.decisions,
     suggestions: (i) => suggestions.get(i)?.suggestion ?? null,
+    thresholds: s.thresholds,
   });
 }
 

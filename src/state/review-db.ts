@@ -191,7 +191,7 @@ export async function openReviewDb(factory: IDBFactory = indexedDB, options: Ope
       // The journal may hold a newer write of this participant than IndexedDB (a replay that failed).
       const pending = journal.entries().snapshots.filter((s) => s.key === key);
       const best = [...pending, ...snapshots].sort(newestFirst).find((s) => hasWork(s.decisions));
-      return best ? { savedAt: best.savedAt, aim: best.aim, reviewer: best.reviewer, decisions: best.decisions } : null;
+      return best ? { savedAt: best.savedAt, aim: best.aim, ...(best.thresholds ? { thresholds: best.thresholds } : {}), reviewer: best.reviewer, decisions: best.decisions } : null;
     },
     save: (key, review) =>
       writeSnapshot({

@@ -67,7 +67,7 @@ const demoRecordingNames = (): string[] => {
 function apply(snap: ReviewSnapshot) {
   const s = workbenchStore.getState();
   workbenchStore.setState({
-    resumeOffer: { savedAt: snap.savedAt, aim: snap.aim, decisions: snap.decisions, decidedCount: decidedCount(snap.decisions) },
+    resumeOffer: { savedAt: snap.savedAt, aim: snap.aim, thresholds: snap.thresholds ?? {}, decisions: snap.decisions, decidedCount: decidedCount(snap.decisions) },
   });
   s.resume(true);
   workbenchStore.setState({

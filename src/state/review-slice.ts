@@ -35,9 +35,9 @@ export const createReviewSlice: StateCreator<WorkbenchState, [], [], ReviewSlice
   },
   setAim: (aim) => set({ aim }),
   setReviewer: (reviewer) => set({ reviewer }),
-  replaceDecisions: (decisions, aim) => {
+  replaceDecisions: (decisions, aim, thresholds) => {
     const s = get();
-    set({ decisions: { ...decisions }, past: pushPast(s.past, s.decisions), future: [], ...(aim ? { aim } : {}) });
+    set({ decisions: { ...decisions }, past: pushPast(s.past, s.decisions), future: [], ...(aim ? { aim } : {}), ...(thresholds ? { thresholds } : {}) });
   },
   undo: () => {
     const { past, future, decisions } = get();

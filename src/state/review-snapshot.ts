@@ -8,6 +8,8 @@
  */
 import { AIMS, REASON_CODES, VERDICTS, type Aim } from '../core/review/vocabulary.ts';
 import type { ReviewDecision } from '../core/review/decisions-file.ts';
+import type { Thresholds } from '../core/review/thresholds.ts';
+import { readThresholdOverrides } from '../core/review/threshold-changes.ts';
 
 /** Snapshots kept per participant (newest first); older ones are dropped. */
 export const SNAPSHOT_LIMIT = 20;
@@ -33,6 +35,8 @@ export interface ReviewSnapshot {
   /** Write counter within the snapshot: a write never replaces a newer one (journal replay, retries). */
   readonly seq: number;
   readonly aim: Aim;
+  /** Suggestion threshold overrides (absent in snapshots saved before they could be changed: the defaults). */
+  readonly thresholds?: Partial<Thresholds>;
   readonly reviewer: string;
   readonly decisions: Record<number, ReviewDecision>;
   readonly recordingName: string | null;
@@ -94,10 +98,12 @@ export function readSnapshot(raw: unknown, fallbackId: string): { snapshot: Revi
   }
   const aim = typeof raw.aim === 'string' && (AIMS as readonly string[]).includes(raw.aim) ? (raw.aim as Aim) : 'erp';
   if (aim !== raw.aim) lost.push({ id, what: `the aim of the snapshot${when(savedAt)} (set to erp)` });
+  const thresholds = readThresholdOverrides(raw.thresholds);
+  if (thresholds.rejected.length > 0) lost.push({ id, what: `the threshold${thresholds.rejected.length === 1 ? '' : 's'} ${thresholds.rejected.join(', ')} of the snapshot${when(savedAt)} (set to the default)` });
   const origin = typeof raw.origin === 'string' && raw.origin in ORIGIN_LABELS ? (raw.origin as SnapshotOrigin) : 'review';
   return {
     snapshot: {
-      id, key, savedAt, decisions, aim, origin,
+      id, key, savedAt, decisions, aim, origin, thresholds: thresholds.overrides,
       startedAt: typeof raw.startedAt === 'string' ? raw.startedAt : savedAt,
       seq: typeof raw.seq === 'number' && Number.isFinite(raw.seq) ? raw.seq : 0,
       reviewer: typeof raw.reviewer === 'string' ? raw.reviewer : '',

@@ -9,6 +9,7 @@ import type { ComponentEvidence } from '../core/evidence/types.ts';
 import type { Aim } from '../core/review/vocabulary.ts';
 import type { DecomposeOptions, ParticipantInput, ResumeOffer } from './types.ts';
 import type { ReviewDecision } from '../core/review/decisions-file.ts';
+import type { Thresholds } from '../core/review/thresholds.ts';
 
 /** Reports progress of one step as a fraction 0…1, optionally with the engine's own estimate of seconds left. */
 export type OnFraction = (fraction: number, etaSeconds?: number | null) => void;
@@ -16,6 +17,8 @@ export type OnFraction = (fraction: number, etaSeconds?: number | null) => void;
 export interface SavedReview {
   readonly savedAt: string;
   readonly aim: Aim;
+  /** Suggestion threshold overrides saved with the review (absent: the defaults). */
+  readonly thresholds?: Partial<Thresholds>;
   readonly reviewer: string;
   readonly decisions: Record<number, ReviewDecision>;
 }
@@ -72,5 +75,5 @@ export function resumeOfferFrom(saved: SavedReview | null): ResumeOffer | null {
   if (!saved) return null;
   const n = Object.values(saved.decisions).filter((d) => d.verdict !== 'undecided' || d.reason !== null || d.note !== '').length;
   if (n === 0) return null;
-  return { savedAt: saved.savedAt, aim: saved.aim, decisions: saved.decisions, decidedCount: Object.values(saved.decisions).filter((d) => d.verdict !== 'undecided').length };
+  return { savedAt: saved.savedAt, aim: saved.aim, ...(saved.thresholds ? { thresholds: saved.thresholds } : {}), decisions: saved.decisions, decidedCount: Object.values(saved.decisions).filter((d) => d.verdict !== 'undecided').length };
 }

@@ -204,7 +204,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
           return false;
         }
         if (!(await confirmImport(name, get(), f.components.length, false))) return false;
-        get().replaceDecisions(decisionsFromFile(f), f.aim);
+        get().replaceDecisions(decisionsFromFile(f), f.aim, f.thresholdOverrides ?? {});
         set({ reviewer: f.reviewer, resumeOffer: null, notice: { kind: 'info', text: `Restored ${f.components.length} decisions from ${name}.` } });
         return true;
       }
@@ -228,7 +228,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
       const offer = get().resumeOffer;
       set({ resumeOffer: null });
       // Undo never reaches back past a resume (it would empty the resumed review).
-      if (accept && offer) { get().replaceDecisions(offer.decisions, offer.aim); set({ past: [], future: [] }); }
+      if (accept && offer) { get().replaceDecisions(offer.decisions, offer.aim, offer.thresholds); set({ past: [], future: [] }); }
     },
 
     closeParticipant: () => {

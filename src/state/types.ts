@@ -58,6 +58,8 @@ export interface DecomposeOptions {
 export interface ResumeOffer {
   readonly savedAt: string;
   readonly aim: Aim;
+  /** Threshold overrides saved with the review (absent: the defaults). */
+  readonly thresholds?: Partial<Thresholds>;
   readonly decisions: Record<number, ReviewDecision>;
   readonly decidedCount: number;
 }
@@ -97,8 +99,8 @@ export interface ReviewSlice {
   decide: (index: number, patch: Partial<ReviewDecision>) => void;
   setAim: (aim: Aim) => void;
   setReviewer: (name: string) => void;
-  /** Replaces every decision at once (import, resume); undoable. */
-  replaceDecisions: (decisions: Record<number, ReviewDecision>, aim?: Aim) => void;
+  /** Replaces every decision at once (import, resume); undoable. The aim and threshold overrides, when given, change with them. */
+  replaceDecisions: (decisions: Record<number, ReviewDecision>, aim?: Aim, thresholds?: Partial<Thresholds>) => void;
   undo: () => void;
   redo: () => void;
 }

@@ -16,6 +16,7 @@ import { SaveStatus } from './layout/SaveStatus.tsx';
 import { ConfirmDialog } from './layout/ConfirmDialog.tsx';
 import { ExportPanel } from './layout/ExportPanel.tsx';
 import { HelpPanel } from './help/HelpPanel.tsx';
+import { ThresholdsPanelHost } from './thresholds/ThresholdsPanel.tsx';
 import { useReviewKeys } from './layout/useReviewKeys.ts';
 import { useAutosave } from './layout/useAutosave.ts';
 import { usePageDrop } from './layout/usePageDrop.ts';
@@ -49,6 +50,7 @@ export function App() {
       <ProgressOverlay />
       {exportOpen && <ExportPanel onClose={() => setExportOpen(false)} />}
       {helpOpen && <HelpPanel onClose={() => setHelpOpen(false)} />}
+      <ThresholdsPanelHost />
       {inStudyParticipant && screen !== 'study' && <BackToStudy />}
       <main className="review-area" aria-label="Review area">
         {screen === 'study' && <StudyView />}

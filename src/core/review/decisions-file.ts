@@ -13,6 +13,8 @@
  */
 import { parseFail, parseOk, type ParseResult } from '../formats/parse-result.ts';
 import { formatTsv, parseTsv } from '../formats/bids.ts';
+import { readThresholdOverrides, thresholdOverridesOf } from './threshold-changes.ts';
+import type { Thresholds } from './thresholds.ts';
 import { AIMS, LEGACY_REASON_CODES, REASON_CODES, VERDICTS, type Aim, type ReasonCode, type Suggestion, type Verdict } from './vocabulary.ts';
 
 export const DECISIONS_FORMAT = 'winnow-decisions/2';
@@ -46,6 +48,8 @@ export interface DecisionsFile {
   readonly software: string;
   readonly recordingSha256: string;
   readonly decompositionSha256: string;
+  /** Suggestion thresholds that differ from the defaults (review/thresholds.ts); absent when none does. */
+  readonly thresholdOverrides?: Partial<Record<keyof Thresholds, number>>;
   readonly components: readonly DecisionsFileComponent[];
 }
 
@@ -57,6 +61,8 @@ export interface DecisionsFileInput
   readonly decisions: Readonly<Record<number, ReviewDecision>>;
   /** Suggestion per 1-based index (undefined/null when none was computed). */
   readonly suggestions?: (index: number) => Suggestion | null | undefined;
+  /** The threshold overrides the suggestions were made with (only those differing from the defaults are written). */
+  readonly thresholds?: Partial<Thresholds>;
 }
 
 /** Builds the decisions file object: one component entry per index 1…nComponents, in order. */
@@ -73,6 +79,7 @@ export function buildDecisionsFile(input: DecisionsFileInput): DecisionsFile {
       suggested: s ? { verdict: s.verdict, reason: s.reason, because: [...s.because] } : null,
     });
   }
+  const overrides = thresholdOverridesOf(input.thresholds);
   return {
     format: DECISIONS_FORMAT,
     aim: input.aim,
@@ -81,6 +88,7 @@ export function buildDecisionsFile(input: DecisionsFileInput): DecisionsFile {
     software: input.software,
     recordingSha256: input.recordingSha256,
     decompositionSha256: input.decompositionSha256,
+    ...(overrides ? { thresholdOverrides: overrides } : {}),
     components,
   };
 }
@@ -164,6 +172,9 @@ export function parseDecisionsJson(text: string, fileName: string): ParseResult<
     }
     components.push({ index: c.index, verdict: c.verdict, reason, note: (c.note as string | undefined) ?? '', suggested });
   }
+  const thresholds = readThresholdOverrides(raw.thresholdOverrides);
+  if (thresholds.rejected.length > 0) return fail(`"thresholdOverrides" must map threshold names to numbers; not read: ${thresholds.rejected.join(', ')}`);
+  const thresholdOverrides = thresholdOverridesOf(thresholds.overrides);
   return parseOk({
     format: DECISIONS_FORMAT,
     aim: raw.aim,
@@ -172,6 +183,7 @@ export function parseDecisionsJson(text: string, fileName: string): ParseResult<
     software,
     recordingSha256: raw.recordingSha256 as string,
     decompositionSha256: raw.decompositionSha256 as string,
+    ...(thresholdOverrides ? { thresholdOverrides } : {}),
     components,
   }, warnings);
 }

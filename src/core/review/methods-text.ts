@@ -7,6 +7,7 @@ import type { Aim, ReasonCode } from './vocabulary.ts';
 import type { ReviewDecision } from './decisions-file.ts';
 import type { Thresholds } from './thresholds.ts';
 import type { FiredRule } from './suggest.ts';
+import { thresholdChangesText } from './threshold-changes.ts';
 
 export interface MethodsTextInput {
   readonly software: string;
@@ -118,6 +119,8 @@ export function methodsText(input: MethodsTextInput): string {
     `Suggested verdicts (which the reviewer could overrule) used these thresholds: ${thresholdSentence(input.thresholds)}. ` +
       'These are starting points, not validated cut-offs.',
   );
+  const changedThresholds = thresholdChangesText(input.thresholds);
+  if (changedThresholds) parts.push(`The reviewer changed these thresholds from Winnow's defaults: ${changedThresholds}.`);
   if (input.residualWarnings && input.residualWarnings.length > 0)
     parts.push(`After cleaning, artefact remained that no removed component held: ${input.residualWarnings.join('; ')}.`);
   else if (input.residualWarnings) parts.push('After cleaning, no remaining ocular, mains or heartbeat artefact was found on the cleaned channels.');

@@ -1,5 +1,6 @@
 /** Title, caution and privacy note, participant, aim, screens, undo/redo, export and help. */
 import { AIMS, type Aim } from '../../core/review/vocabulary.ts';
+import { ThresholdsButton } from '../thresholds/ThresholdsPanel.tsx';
 import { selectCanRedo, selectCanUndo, selectComponentCount, selectDecidedCount, useWorkbench, type Screen } from '../../state/index.ts';
 
 export const AIM_LABELS: Record<Aim, string> = {
@@ -80,6 +81,7 @@ export function TopBar({ onHelp, onExport, helpOpen, exportOpen }: TopBarProps) 
         <button type="button" onClick={undo} disabled={!canUndo} title="Undo (Ctrl+Z)" data-testid="undo">Undo</button>
         <button type="button" onClick={redo} disabled={!canRedo} title="Redo (Ctrl+Shift+Z or Ctrl+Y)" data-testid="redo">Redo</button>
       </div>
+      <ThresholdsButton />
       <button type="button" onClick={onExport} aria-expanded={exportOpen} disabled={!hasEvidence} data-testid="export-open" title="Export and import (key E)">
         Export…
       </button>
