@@ -2,6 +2,7 @@
 import type { RecordingEvent } from '../../core/recording.ts';
 import { clampWindowStart, formatScale, stepScale } from '../plots/trace-layout.ts';
 import { EventMarkerSelect } from '../plots/EventMarkerSelect.tsx';
+import { SensorPicker } from '../plots/SensorPicker.tsx';
 
 export interface PreviewSettings {
   readonly startS: number;
@@ -27,12 +28,14 @@ export interface PreviewToolbarProps {
   readonly rows: Int32Array;
   readonly regionRows: readonly number[];
   readonly events: readonly RecordingEvent[];
+  /** n × 3 electrode positions in decomposition order (NaN when unknown); null: no montage drawing. */
+  readonly positions?: Float64Array | null;
   readonly onChange: (patch: Partial<PreviewSettings>) => void;
 }
 
 const LENGTHS_S = [2, 5, 10, 20, 30, 60];
 
-export function PreviewToolbar({ settings, uvPerDiv, durationS, channels, rows, regionRows, events, onChange }: PreviewToolbarProps) {
+export function PreviewToolbar({ settings, uvPerDiv, durationS, channels, rows, regionRows, events, positions = null, onChange }: PreviewToolbarProps) {
   const { startS, lengthS } = settings;
   const step = (dir: number) => onChange({ startS: clampWindowStart(startS + dir * lengthS * 0.8, lengthS, durationS) });
   const present = channels.map((_, c) => c).filter((c) => rows[c] >= 0);
@@ -73,21 +76,18 @@ export function PreviewToolbar({ settings, uvPerDiv, durationS, channels, rows, 
         side by side
       </button>
       <EventMarkerSelect events={events} shown={settings.markers} onChange={(markers) => onChange({ markers })} />
-      <label className="channel-select">
+      {/* The channels drawn as chips (each removes itself), added from the montage or the list. */}
+      <span className="channel-select">
         Channels{' '}
-        <select
-          multiple size={4} value={settings.channels.map(String)}
-          onChange={(e) => onChange({ channels: Array.from(e.target.selectedOptions, (o) => Number(o.value)) })}
-        >
-          {present.map((c) => (
-            <option key={c} value={c}>{channels[c]}</option>
-          ))}
-        </select>
-      </label>
-      <span className="channel-presets">
-        <button type="button" onClick={() => onChange({ channels: present.slice(0, 16) })}>first 16</button>
-        <button type="button" onClick={() => onChange({ channels: present })}>all</button>
-        <button type="button" onClick={() => onChange({ channels: [...regionRows] })}>region</button>
+        <SensorPicker
+          label="Channels" labels={channels} positions={positions} usable={(c) => rows[c] >= 0} selected={settings.channels}
+          onChange={(next) => onChange({ channels: next })} max={Math.max(1, present.length)} size={72} testId="preview-channels"
+        />
+        <span className="channel-presets">
+          <button type="button" onClick={() => onChange({ channels: present.slice(0, 16) })}>first 16</button>
+          <button type="button" onClick={() => onChange({ channels: present })}>all</button>
+          <button type="button" onClick={() => onChange({ channels: [...regionRows] })}>region</button>
+        </span>
       </span>
     </div>
   );

@@ -216,6 +216,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
         rows={rows}
         regionRows={roiRows}
         events={recording.events}
+        positions={montage.drawable ? montage.positions : null}
         onChange={(p) => setSettings((s) => ({ ...s, ...p }))}
       />
       <div className="preview-grid">
@@ -249,6 +250,7 @@ function PreviewWorkspace({ recording, decomposition }: { recording: LoadedRecor
             regionRows={roiRows}
             events={recording.events}
             eventLabel={eventLabel}
+            positions={montage.drawable ? montage.positions : null}
           />
           <ExportablePanel title="Variance removed per channel" context="preview" className="panel-variance">
             {varianceRemoved && montage.drawable ? (

@@ -6,6 +6,7 @@
 import type { RecordingEvent } from '../../core/recording.ts';
 import { selectionChoices, type SelectionChoice } from '../../core/evidence/event-selection.ts';
 import { useWorkbench } from '../../state/index.ts';
+import { SensorPicker } from '../plots/SensorPicker.tsx';
 
 export interface RegionControlsProps {
   readonly channels: readonly string[];
@@ -14,6 +15,8 @@ export interface RegionControlsProps {
   readonly regionRows: readonly number[];
   readonly events: readonly RecordingEvent[];
   readonly eventLabel: string | null;
+  /** n × 3 electrode positions in decomposition order (NaN when unknown), for picking from the montage. */
+  readonly positions?: Float64Array | null;
 }
 
 /** Event choices by BIDS events.tsv columns: each trial_type, then each type with one column value (event-selection.ts). */
@@ -21,21 +24,20 @@ export function eventChoices(events: readonly RecordingEvent[]): SelectionChoice
   return selectionChoices(events);
 }
 
-export function RegionControls({ channels, rows, regionRows, events, eventLabel }: RegionControlsProps) {
+export function RegionControls({ channels, rows, regionRows, events, eventLabel, positions = null }: RegionControlsProps) {
   const roi = useWorkbench((s) => s.roi);
   const setRoi = useWorkbench((s) => s.setRoi);
   const choices = eventChoices(events);
   return (
     <div className="region-controls" role="group" aria-label="Region of interest">
-      <label>
+      {/* The region's channels as chips (each removes itself), added from the montage or the list. */}
+      <span className="region-channels">
         Region{' '}
-        <select
-          multiple size={3} value={regionRows.map(String)}
-          onChange={(e) => setRoi({ channels: Array.from(e.target.selectedOptions, (o) => channels[Number(o.value)]) })}
-        >
-          {channels.map((l, c) => (rows[c] >= 0 ? <option key={c} value={c}>{l}</option> : null))}
-        </select>
-      </label>
+        <SensorPicker
+          label="Region" labels={channels} positions={positions} usable={(c) => rows[c] >= 0} selected={regionRows}
+          onChange={(next) => setRoi({ channels: next.map((c) => channels[c]) })} max={16} size={84} testId="preview-region"
+        />
+      </span>
       <label>
         Event{' '}
         <select value={eventLabel ?? ''} onChange={(e) => setRoi({ epochEvent: e.target.value || null })} disabled={choices.length === 0}>
