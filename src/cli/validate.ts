@@ -110,6 +110,8 @@ export function formatTargets(report: ValidationReport): string {
   return `${lines.join('\n')}\n`;
 }
 
+const reportJson = (report: ValidationReport) => `${JSON.stringify(report, (_k, v) => (v instanceof Float64Array || v instanceof Float32Array ? Array.from(v) : v), 1)}\n`;
+
 export async function run(args: string[], io: CliIo): Promise<number> {
   const a = parseValidateArgs(args);
   const t0 = performance.now();
@@ -123,12 +125,14 @@ export async function run(args: string[], io: CliIo): Promise<number> {
         `oscillations removes ${osc.removed} for ${osc.trueArtefacts} true artefacts, ${r.seconds.total.toFixed(1)} s\n`,
     );
     scenarios.push(r);
+    // The report so far, rewritten after every recording, so a long run stopped early keeps what it measured.
+    if (a.out && k + 1 < a.scenarios) await writeFileAtomic(a.out, reportJson(buildReport(scenarios, a.limits, (performance.now() - t0) / 1000)));
   }
   const report = buildReport(scenarios, a.limits, (performance.now() - t0) / 1000);
   io.stdout(formatSummary(report.summary, `all seeds ${report.seeds.used[0]}–${report.seeds.used[report.seeds.used.length - 1]}`));
   if (report.heldOutSummary && report.seeds.roles.tuning.length > 0) io.stdout(`\n${formatSummary(report.heldOutSummary, 'held-out seeds only')}`);
   io.stdout(formatTargets(report));
   io.stdout(`\nseeds used: ${report.seeds.used.join(', ')} (tuning seeds ${report.seeds.tuning}, held out ${report.seeds.heldOut}); ${report.seconds.toFixed(0)} s\n`);
-  if (a.out) await writeFileAtomic(a.out, `${JSON.stringify(report, (_k, v) => (v instanceof Float64Array || v instanceof Float32Array ? Array.from(v) : v), 1)}\n`);
+  if (a.out) await writeFileAtomic(a.out, reportJson(report));
   return 0;
 }
