@@ -66,6 +66,8 @@ export interface EvidenceSettings {
   readonly epochEvent?: string;
   readonly window?: readonly [number, number];
   readonly permutations?: number;
+  /** events.tsv column whose values are each tested for time-locking (EvidenceInput.lockColumn). */
+  readonly lockColumn?: string;
 }
 
 /** The evidence input of a recording and a decomposition matched to it, and where the mains frequency came from. */
@@ -90,6 +92,7 @@ export function evidenceInputOf(
     ...(settings.epochEvent !== undefined ? { epochEvent: settings.epochEvent } : {}),
     ...(settings.window !== undefined ? { window: settings.window } : {}),
     ...(settings.permutations !== undefined ? { permutations: settings.permutations } : {}),
+    ...(settings.lockColumn !== undefined ? { lockColumn: settings.lockColumn } : {}),
   };
   return { input, mains };
 }

@@ -17,6 +17,7 @@ import { computeEvidenceInWorker } from '../bridge/evidence-client.ts';
 import { LOCKING_MAX_SHUFFLES } from '../core/evidence/time-locking.ts';
 import type { LoadedRecording } from '../core/recording.ts';
 import { decomposeInputOf, evidenceInputOf } from '../core/recording-input.ts';
+import { evidenceChoicesFor } from './evidence-settings.ts';
 
 
 /** The files each loaded recording came from (File objects are references, not copies). */
@@ -83,7 +84,13 @@ export const browserServices: WorkbenchServices = {
     // The recording's inputs as every CLI command builds them (src/core/recording-input.ts); mains frequency
     // from the paired *_eeg.json, else 50 Hz (the recording summary says which). Sequential test up to 999
     // shuffles (p can reach 1/1000); unlocked components stop after ~tens.
-    const { input } = evidenceInputOf(recording, decomposition, { permutations: LOCKING_MAX_SHUFFLES });
+    // The reviewer's mains and lock-column choices (evidence-settings.ts) override the files.
+    const chosen = evidenceChoicesFor(recording);
+    const { input } = evidenceInputOf(recording, decomposition, {
+      permutations: LOCKING_MAX_SHUFFLES,
+      ...(chosen.lineHz !== null ? { lineHz: chosen.lineHz } : {}),
+      ...(chosen.lockColumn !== null ? { lockColumn: chosen.lockColumn } : {}),
+    });
     const result = await computeEvidenceInWorker(
       input,
       signal,

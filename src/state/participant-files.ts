@@ -12,7 +12,7 @@ export interface SortedFiles<F extends { readonly name: string }> {
   readonly ignored: F[];
 }
 
-const SIDECAR = /_(channels|electrodes|events)\.tsv$|_(coordsystem|eeg|events|channels|electrodes)\.json$|^(channels|electrodes|events)\.tsv$|^coordsystem\.json$/i;
+const SIDECAR = /_(channels|electrodes|events)\.tsv$|_(coordsystem|eeg|events|channels|electrodes)\.json$|^(channels|electrodes|events)\.tsv$|^(coordsystem|eeg)\.json$/i;
 const DECISIONS = /decisions?[^/]*\.(json|tsv)$/i;
 const DECOMPOSITION = /(decomposition|mixing|unmixing|weights|ica)[^/]*\.(json|tsv|csv|txt)$|\.csv$/i;
 

@@ -3,8 +3,8 @@
  * sidecars paired with it, every channel and the events (plain text).
  */
 import { useMemo } from 'react';
-import { mainsFrequency } from '../../core/formats/power-line.ts';
 import type { LoadedRecording } from '../../core/recording.ts';
+import { LockColumnChoice, MainsChoice, MainsText } from './EvidenceChoices.tsx';
 
 /** Event labels with their counts, most frequent first. */
 export function eventCounts(recording: Pick<LoadedRecording, 'events'>): { label: string; count: number; firstOnset: number }[] {
@@ -75,7 +75,8 @@ export function RecordingSummary({ recording }: { recording: LoadedRecording }) 
         <dt>Channels</dt><dd>{recording.channels.length} ({recording.signals.labels.length} at {recording.signals.sampleRate} Hz read for review)</dd>
         <dt>Start</dt><dd>{recording.header.start}</dd>
         <dt>Electrode positions</dt><dd data-testid="recording-positions">{positionsText(recording)}</dd>
-        <dt>Mains</dt><dd data-testid="recording-mains">{mainsFrequency(recording.powerLine).text}</dd>
+        <dt>Mains</dt><dd data-testid="recording-mains"><MainsText recording={recording} /></dd>
+        <dt>Mains for evidence</dt><dd><MainsChoice recording={recording} /></dd>
         <dt>Reference</dt><dd data-testid="recording-reference">{referenceText(recording)}</dd>
         <dt>Sidecars paired</dt><dd data-testid="recording-sidecars">{sidecarsText(recording)}</dd>
       </dl>
@@ -114,6 +115,7 @@ export function RecordingSummary({ recording }: { recording: LoadedRecording }) 
           </tbody>
         </table>
       </div>
+      <LockColumnChoice recording={recording} />
     </section>
   );
 }
