@@ -151,6 +151,46 @@ export function tanhSums(Y: usize, P: usize, k: i32, ld: i32, len: i32, lc: usiz
   }
 }
 
+/**
+ * Extended-Infomax nonlinearity over rows i < k of Y (k × ld, len a multiple of 4), with K (float64, k) the
+ * density signs: F[i, t] = K_i tanh(y) + y; th2[i] += Σ tanh² y, u2[i] += Σ y², tu[i] += Σ tanh(y) y (float64).
+ * tanh as in tanhSums. Zero padding adds nothing.
+ */
+export function infomaxNonlin(Y: usize, F: usize, K: usize, k: i32, ld: i32, len: i32, th2: usize, u2: usize, tu: usize): void {
+  const s = <usize>ld << 2;
+  const signMask = i32x4.splat(0x80000000);
+  const one = f32x4.splat(1.0);
+  for (let i = 0; i < k; i++) {
+    let yp = Y + <usize>i * s;
+    let fp = F + <usize>i * s;
+    const ki = f32x4.splat(<f32>load<f64>(K + (<usize>i << 3)));
+    let a0 = f64x2.splat(0), a1 = f64x2.splat(0);
+    let b0 = f64x2.splat(0), b1 = f64x2.splat(0);
+    let c0 = f64x2.splat(0), c1 = f64x2.splat(0);
+    for (let t = 0; t < len; t += 4) {
+      const y = v128.load(yp);
+      const e = expNeg(f32x4.mul(f32x4.abs(y), f32x4.splat(-2.0)));
+      const th = v128.or(f32x4.div(f32x4.sub(one, e), f32x4.add(one, e)), v128.and(y, signMask));
+      v128.store(fp, f32x4.add(f32x4.mul(ki, th), y));
+      const t2 = f32x4.mul(th, th);
+      const yy = f32x4.mul(y, y);
+      const ty = f32x4.mul(th, y);
+      a0 = f64x2.add(a0, f64x2.promote_low_f32x4(t2));
+      a1 = f64x2.add(a1, f64x2.promote_low_f32x4(f32x4.shuffle(t2, t2, 2, 3, 0, 1)));
+      b0 = f64x2.add(b0, f64x2.promote_low_f32x4(yy));
+      b1 = f64x2.add(b1, f64x2.promote_low_f32x4(f32x4.shuffle(yy, yy, 2, 3, 0, 1)));
+      c0 = f64x2.add(c0, f64x2.promote_low_f32x4(ty));
+      c1 = f64x2.add(c1, f64x2.promote_low_f32x4(f32x4.shuffle(ty, ty, 2, 3, 0, 1)));
+      yp += 16;
+      fp += 16;
+    }
+    const o = <usize>i << 3;
+    store<f64>(th2 + o, load<f64>(th2 + o) + hsum2(f64x2.add(a0, a1)));
+    store<f64>(u2 + o, load<f64>(u2 + o) + hsum2(f64x2.add(b0, b1)));
+    store<f64>(tu + o, load<f64>(tu + o) + hsum2(f64x2.add(c0, c1)));
+  }
+}
+
 // @ts-ignore: decorator
 @inline
 function hsum2(v: v128): f64 {

@@ -227,17 +227,15 @@ export function naturalGradientBlockStep(
   // WebAssembly SIMD path (src/core/kernels) from 16 components: below that the per-block copies cost more than
   // they save (measured: k = 12 no gain, k = 32 2.4× faster per pass; ours).
   if (kern.infomaxBlock && b <= WASM_TILE && k >= 16) {
-    // M = diag(K) E[tanh(U)Uᵀ] + E[UUᵀ] from the two products.
-    const PU = D;
-    const UU = dW;
-    const th2 = F;
-    kern.infomaxBlock(W, k, Z, T, t0, b, PU, UU, th2);
+    // M = Σ (K tanh U + U) Uᵀ and the row sums, in one block call.
+    const th2 = F.subarray(0, k);
+    const u2 = F.subarray(k, 2 * k);
+    const tu = F.subarray(2 * k, 3 * k);
+    kern.infomaxBlock(W, k, Z, T, t0, b, K, M, th2, u2, tu);
     for (let i = 0; i < k; i++) {
       stats.sech2[i] += b - th2[i];
-      stats.u2[i] += UU[i * k + i];
-      stats.tanhU[i] += PU[i * k + i];
-      const ki = K[i];
-      for (let j = 0; j < k; j++) M[i * k + j] = ki * PU[i * k + j] + UU[i * k + j];
+      stats.u2[i] += u2[i];
+      stats.tanhU[i] += tu[i];
     }
   } else {
     multiplyChannelMajor(W, k, k, Z, T, U, t0, t0 + b);

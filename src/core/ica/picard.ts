@@ -125,10 +125,10 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
   for (let i = 0; i < kk; i++) C[i] /= T;
 
   const evaluator = opts.evaluator ?? singleThreadEvaluator(Z, k, T);
-  // Resolution of the loss: the kernels round W to their arithmetic (unit roundoff u), which moves each row
-  // off the orthogonal manifold by ~u, where the loss has an O(1) slope; k rows add like a random walk. 2u√k
-  // (ours: ~6× the largest loss jitter measured with float32 kernels at k = 32, docs/methods.md §7.7).
-  const lossResolution = 2 * activeKernels().unitRoundoff * Math.sqrt(k);
+  // Resolution of the mean loss once the weight rounding is taken off (lossOf): per-sample rounding (unit
+  // roundoff u) adds up like a random walk over T samples and k rows; 16u√(k/T) is ~4× the jitter measured with
+  // float32 kernels at k = 32, T = 150 000 (ours, docs/methods.md §7.7).
+  const lossResolution = 16 * activeKernels().unitRoundoff * Math.sqrt(k / T);
   const poll = monitor?.poll ? () => monitor.poll!() : undefined;
   /** One fused pass: statistics of Y = Wc Z, normalised by T. */
   const evaluate = (Wc: Float64Array, out: PassStats): void => {
@@ -145,9 +145,23 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
     matrixTranspose(Wc, k, k, tmpT);
     return matrixMultiply(tmp, tmpT, k, k, k, out);
   };
-  const lossOf = (st: PassStats, sg: Int8Array, cy: Float64Array): number => {
+  // Kernels with float32 arithmetic see W rounded, W + ρ, off the orthogonal manifold, where the loss has an O(1)
+  // slope: to first order the ln cosh part changes by Σ_ij s_i E[tanh(y_i) y_j] (ρ Wᵀ)_ij (as Z = Wᵀ Y), which is
+  // taken off again, so that loss differences along the manifold stay resolved (ours, docs/methods.md §7.7).
+  const roundsWeights = activeKernels().unitRoundoff > 1e-12;
+  const rho = new Float64Array(kk);
+  const lossOf = (st: PassStats, sg: Int8Array, cy: Float64Array, Wc: Float64Array): number => {
     let L = 0;
     for (let i = 0; i < k; i++) L += sg[i] * st.logcosh[i] + 0.5 * cy[i * k + i];
+    if (roundsWeights) {
+      for (let i = 0; i < kk; i++) rho[i] = Math.fround(Wc[i]) - Wc[i];
+      for (let i = 0; i < k; i++)
+        for (let j = 0; j < k; j++) {
+          let m = 0;
+          for (let c = 0; c < k; c++) m += rho[i * k + c] * Wc[j * k + c];
+          L -= sg[i] * st.gTanh[i * k + j] * m;
+        }
+    }
     return L;
   };
 
@@ -262,7 +276,7 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
       for (let i = 0; i < kk; i++) dir[i] = -q[i];
     };
 
-    const currentLoss = lossOf(cur, signs, cy);
+    const currentLoss = lossOf(cur, signs, cy, W);
     const lineSearch = (): { W: Float64Array; step: Float64Array } | null => {
       let alpha = 1;
       for (let tr = 0; tr < lsTries; tr++) {
@@ -271,7 +285,7 @@ export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: Pi
         const Wt = matrixMultiply(R, W, k, k, k);
         evaluate(Wt, trial);
         covY(Wt, cyTrial, tmp, tmpT);
-        const L = lossOf(trial, signs, cyTrial);
+        const L = lossOf(trial, signs, cyTrial, Wt);
         if (L < currentLoss) return { W: Wt, step: Float64Array.from(Estep) };
         // Within the loss's arithmetic resolution a decrease cannot be seen; the (accurate) gradient decides.
         if (L < currentLoss + lossResolution && maxAntisymmetricGradient(trial, signs, cyTrial, k) < gradNorm) return { W: Wt, step: Float64Array.from(Estep) };

@@ -39,11 +39,11 @@ export interface Kernels {
   /** out (n × n) += Σ_t X[:, t] X[:, t]ᵀ over samples [t0, t1) of channel-major X (n × T); no centring. */
   accumulateGram(X: Float32Array, n: number, T: number, t0: number, t1: number, out: Float64Array): void;
   /**
-   * The data part of one extended-Infomax block (≤ 512 samples [t0, t0 + b) of Z, U = W Z): sets
-   * PU = Σ_t tanh(U) Uᵀ, UU = Σ_t U Uᵀ (k × k) and th2_i = Σ_t tanh² u_i. Only the wasm kernels have it; the
-   * JS path keeps infomax.ts's own fused loop.
+   * The data part of one extended-Infomax block (≤ 512 samples [t0, t0 + b) of Z, U = W Z, density signs K):
+   * sets M = Σ_t (K tanh U + U) Uᵀ (k × k), th2_i = Σ_t tanh² u_i, u2_i = Σ_t u_i², tu_i = Σ_t tanh(u_i) u_i.
+   * Only the wasm kernels have it; the JS path keeps infomax.ts's own fused loop.
    */
-  infomaxBlock?(W: Float64Array, k: number, Z: Float32Array, T: number, t0: number, b: number, PU: Float64Array, UU: Float64Array, th2: Float64Array): void;
+  infomaxBlock?(W: Float64Array, k: number, Z: Float32Array, T: number, t0: number, b: number, K: Float64Array, M: Float64Array, th2: Float64Array, u2: Float64Array, tu: Float64Array): void;
 }
 
 /** The plain-JS kernels (float64 arithmetic). */

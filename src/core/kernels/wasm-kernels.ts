@@ -23,6 +23,7 @@ interface KernelExports {
   multiply(W: number, k: number, n: number, X: number, ldx: number, Y: number, ldy: number, len: number): void;
   tanhSums(Y: number, P: number, k: number, ld: number, len: number, lc: number, th2: number): void;
   accumulateAbT(A: number, lda: number, k: number, B: number, ldb: number, m: number, len: number, out: number): void;
+  infomaxNonlin(Y: number, F: number, K: number, k: number, ld: number, len: number, th2: number, u2: number, tu: number): void;
 }
 
 /** Samples per tile of the wasm kernels (a multiple of 8). */
@@ -130,23 +131,23 @@ export function createWasmKernels(api: WasmApi, module: WasmModuleHandle): Kerne
       for (let i = 0; i < k * k; i++) out.gTanh[i] += f64[g + i];
       return ok;
     },
-    infomaxBlock(W, k, Z, T, t0, b, PU, UU, th2) {
+    infomaxBlock(W, k, Z, T, t0, b, K, M, th2, u2, tu) {
       if (b > WASM_TILE) throw new RangeError(`infomaxBlock takes at most ${WASM_TILE} samples, got ${b}`);
-      const [pW, pZ, pY, pP, pLc, pTh, pPU, pUU] = layout([4 * k * k, 4 * k * WASM_TILE, 4 * k * WASM_TILE, 4 * k * WASM_TILE, 8 * k, 8 * k, 8 * k * k, 8 * k * k]);
+      const [pW, pZ, pY, pF, pK, pS, pM] = layout([4 * k * k, 4 * k * WASM_TILE, 4 * k * WASM_TILE, 4 * k * WASM_TILE, 8 * k, 3 * 8 * k, 8 * k * k]);
       putWeights(W, k * k, pW);
-      f64.fill(0, pLc >> 3, (pLc >> 3) + k);
-      f64.fill(0, pTh >> 3, (pTh >> 3) + k);
-      f64.fill(0, pPU >> 3, (pPU >> 3) + k * k);
-      f64.fill(0, pUU >> 3, (pUU >> 3) + k * k);
+      f64.set(K.subarray(0, k), pK >> 3);
+      const s = pS >> 3;
+      f64.fill(0, s, s + 3 * k);
+      f64.fill(0, pM >> 3, (pM >> 3) + k * k);
       const b8 = (b + 7) & ~7;
       loadTile(Z, k, T, t0, b, pZ, b8);
       ex.multiply(pW, k, k, pZ, WASM_TILE, pY, WASM_TILE, b8);
-      ex.tanhSums(pY, pP, k, WASM_TILE, b8, pLc, pTh);
-      ex.accumulateAbT(pP, WASM_TILE, k, pY, WASM_TILE, k, b8, pPU);
-      ex.accumulateAbT(pY, WASM_TILE, k, pY, WASM_TILE, k, b8, pUU);
-      PU.set(f64.subarray(pPU >> 3, (pPU >> 3) + k * k));
-      UU.set(f64.subarray(pUU >> 3, (pUU >> 3) + k * k));
-      th2.set(f64.subarray(pTh >> 3, (pTh >> 3) + k));
+      ex.infomaxNonlin(pY, pF, pK, k, WASM_TILE, b8, pS, pS + 8 * k, pS + 16 * k);
+      ex.accumulateAbT(pF, WASM_TILE, k, pY, WASM_TILE, k, b8, pM);
+      M.set(f64.subarray(pM >> 3, (pM >> 3) + k * k));
+      th2.set(f64.subarray(s, s + k));
+      u2.set(f64.subarray(s + k, s + 2 * k));
+      tu.set(f64.subarray(s + 2 * k, s + 3 * k));
     },
     accumulateGram(X, n, T, t0, t1, out) {
       const [pX, pG] = layout([4 * n * WASM_TILE, 8 * n * n]);
