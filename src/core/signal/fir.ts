@@ -2,8 +2,9 @@
  * Linear-phase FIR filters for the decomposition's copy of the data (the review shows the original data).
  *
  * Design: windowed sinc with a Hamming window, the textbook window method (Oppenheim & Schafer, Discrete-Time
- * Signal Processing, 3rd ed., §7.5, Table 7.2: Hamming main-lobe transition width Δω ≈ 6.6π/M for order M, peak
- * approximation error ≈ −53 dB). Coefficients match scipy.signal.firwin(numtaps, cutoff, window='hamming',
+ * Signal Processing, 3rd ed., §7.5; Hamming peak approximation error ≈ −53 dB). Transition width of the
+ * Hamming design Δf ≈ 3.3·fs/N (Ifeachor & Jervis 2002, Digital Signal Processing, 2nd ed., Table 7.2; the
+ * same as Δω ≈ 6.6π/N) — the basis of the order rule below. Coefficients match scipy.signal.firwin(numtaps, cutoff, window='hamming',
  * fs=fs) including its scaling (unit gain at DC for low-pass, at Nyquist for high-pass); the fixture in
  * test/fixtures/signal/ checks that. The cutoff is the −6 dB point (gain 0.5) of the design.
  *
