@@ -21,6 +21,10 @@ export function HelpPanel({ onClose }: { onClose: () => void }) {
         </tbody>
       </table>
       <p>
+        In the focus view, the four questions (where from, when, locked to the task, which frequencies) are tabs: with one of them
+        focused, <kbd>↑</kbd> / <kbd>↓</kbd> move between them and <kbd>Home</kbd> / <kbd>End</kbd> go to the first and last.
+      </p>
+      <p>
         Every measure, threshold and formula, with its published source:{' '}
         <a href={methodsHref()} target="_blank" rel="noopener" data-testid="methods-page-link">methods and sources</a>.
         Winnow is a research tool, not for clinical diagnosis; dipole locations are approximate model estimates.
