@@ -8,6 +8,12 @@ const NODE_BUILTINS = new Set(builtinModules.filter((m) => !m.startsWith('_')));
 /** Packages that bring a UI, a store, worker wiring or the DOM. */
 const UI_PACKAGES = ['react', 'react-dom', 'zustand', 'comlink', 'd3', 'd3-selection', 'd3-transition', 'd3-zoom', 'd3-drag', 'd3-brush'];
 
+/**
+ * The EDF/BDF reader's modules. The CLI opens recordings only through src/cli/recording-files.ts, over the
+ * workbench's loader (src/core/formats/recording-loader.ts), so both read a file the same way (issue 13).
+ */
+const CLI_FORBIDDEN_READERS = new Set(['src/core/formats/edf.ts', 'src/core/formats/edf-header.ts', 'src/core/formats/edf-samples.ts']);
+
 /** Data any layer may read (the version number in package.json). */
 const SHARED_DATA = new Set(['package.json']);
 
@@ -158,6 +164,8 @@ const RULES = {
   },
   cli(ref, target, targetLayer) {
     if (target !== undefined) {
+      if (CLI_FORBIDDEN_READERS.has(target))
+        return `src/cli opens recordings through src/cli/recording-files.ts (the workbench's loader, src/core/formats/recording-loader.ts), not the EDF reader directly: ${target}`;
       return targetLayer === 'core' || targetLayer === 'cli' ? undefined : `src/cli imports only src/core and node, not ${target}`;
     }
     const pkg = packageName(ref.specifier);

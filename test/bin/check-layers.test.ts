@@ -73,13 +73,36 @@ describe('layer rules (DEVELOPERS.md, Layout)', () => {
   it('reports cli importing ui, state, bridge or workers, not core or node', () => {
     const source = [
       "import { readFile } from 'node:fs/promises';",
-      "import { readEdf } from '../core/formats/edf.ts';",
+      "import { writeEdf } from '../core/formats/edf-writer.ts';",
       "import { store } from '../state/index.ts';",
       "import { App } from '../ui/App.tsx';",
       "import { client } from '../bridge/evidence-client.ts';",
       "import type { Api } from '../../workers/evidence.worker.ts';",
     ].join('\n');
     expect(specifiers('src/cli/bad.ts', source)).toEqual(['../state/index.ts', '../ui/App.tsx', '../bridge/evidence-client.ts', '../../workers/evidence.worker.ts']);
+  });
+
+  it('reports cli importing the EDF reader instead of going through recording-files.ts', () => {
+    const source = [
+      "import { readEdfInfo } from '../core/formats/edf.ts';",
+      "import { parseEdfHeader } from '../core/formats/edf-header.ts';",
+      "import type { SampleReader } from '../core/formats/edf-samples.ts';",
+      "export { readEdfSignals } from '../core/formats/edf.ts';",
+      "import { loadRecording } from '../core/formats/recording-loader.ts';",
+      "import { writeEdf } from '../core/formats/edf-writer.ts';",
+      "import { parseTal } from '../core/formats/tal.ts';",
+      "import { openRecording } from './recording-files.ts';",
+    ].join('\n');
+    const found = layerViolations({ file: 'src/cli/read.ts', source });
+    expect(found.map((v) => v.specifier)).toEqual([
+      '../core/formats/edf.ts',
+      '../core/formats/edf-header.ts',
+      '../core/formats/edf-samples.ts',
+      '../core/formats/edf.ts',
+    ]);
+    expect(found[0].message).toContain('src/cli/recording-files.ts');
+    // The rule is the CLI's: core (the loader itself) still reads through the EDF modules.
+    expect(layerViolations({ file: 'src/core/formats/recording-loader.ts', source: "import { readEdfInfo } from './edf.ts';" })).toEqual([]);
   });
 
   it('parses every import form and tells type-only ones apart', () => {
