@@ -3,7 +3,8 @@
  * specification v1.11 "EEG sidecar") is opened through the file picker; the summary says 60 Hz, the evidence
  * counts power at 60 Hz and its harmonics, so the simulated mains source is suggested as mains. Overriding
  * the mains frequency with 50 Hz computes the evidence again at 50 Hz, where that component has no line
- * power left, and a mains-share threshold raised in the thresholds panel re-suggests at once.
+ * power left, and a mains-share threshold raised in the thresholds panel re-suggests at once. Choosing the
+ * events.tsv column "condition" tests time-locking for each of its values too.
  */
 import { expect, test, type Page } from '@playwright/test';
 import { simulateSession } from '../src/core/simulate/simulate.ts';
@@ -58,4 +59,17 @@ test('a 60 Hz recording: the summary says 60 Hz, the mains component is suggeste
   await page.getByTestId('mains-override').selectOption('file');
   await expect(page.getByTestId('board')).toBeVisible({ timeout: 120_000 });
   await expect(mainsTiles(page)).toHaveCount(atSixty);
+
+  // Lock column: time-locking is then also tested for each value of events.tsv "condition" (before: event types only).
+  await page.getByTestId('tile-1').dblclick();
+  await page.getByTestId('focus-question-locked').click();
+  await expect(page.getByText('Time-locking (tone)').first()).toBeAttached();
+  await expect(page.getByText('Time-locking (tone, condition rare)')).toHaveCount(0);
+  await page.getByTestId('screen-start').click();
+  await page.getByTestId('lock-column-select').selectOption('condition');
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: 120_000 });
+  await page.getByTestId('tile-1').dblclick();
+  await page.getByTestId('focus-question-locked').click();
+  await expect(page.getByText('Time-locking (tone, condition rare)').first()).toBeAttached();
+  await expect(page.getByText('Time-locking (tone, condition standard)').first()).toBeAttached();
 });
