@@ -35,6 +35,8 @@ test('a study: two participants reviewed, a flag followed, the study exported, a
   await expect(page.getByTestId('study-view')).toBeVisible({ timeout: 60_000 });
   await expect(page.getByTestId('study-row')).toHaveCount(4);
   await expect(page.locator('[data-testid="study-row"][data-state="not started"]')).toHaveCount(4);
+  // headers are read lazily, one recording at a time: 32 EEG channels, 1.5 minutes each
+  await expect(page.getByTestId('study-length').nth(3)).toHaveText(/^32\s?ch · 1\.5\s?min$/);
 
   // participant 1: two decisions; participant 2: one
   await reviewParticipant(page, 0, async (p) => {

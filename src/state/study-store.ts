@@ -17,6 +17,8 @@ import { parseDecisionsJson, type DecisionsFile, type ReviewDecision } from '../
 import { buildAdjudicatedFile, disagreements, type Disagreement } from '../core/review/adjudication.ts';
 import { agreementByKey, type KeyedAgreement } from '../core/review/kappa.ts';
 import { REASON_CODES, VERDICTS } from '../core/review/vocabulary.ts';
+import { readEdfLayout } from '../core/formats/edf-header.ts';
+import { blobByteSource } from '../core/formats/byte-source.ts';
 import { workbenchStore } from './store.ts';
 import { decisionsFileFromState, SOFTWARE } from './exports.ts';
 import { version } from '../../package.json';
@@ -31,6 +33,13 @@ export interface RecordingReview {
   readonly decisions: DecisionsFile;
   /** Variance share per component (index − 1), when evidence was computed. */
   readonly varianceShares: readonly number[] | null;
+}
+
+export interface RecordingHeader {
+  readonly channels: number | null;
+  readonly seconds: number | null;
+  /** The header's fault, when it cannot be read (the recording stays listed). */
+  readonly error: string | null;
 }
 
 export interface SecondReviewer {
@@ -56,6 +65,8 @@ export interface StudyState {
   /** The recording under review (path), or null on the overview. */
   current: string | null;
   reviews: Readonly<Record<string, RecordingReview>>;
+  /** Header facts per recording path, read lazily one file at a time after the study opens (headers only). */
+  headers: Readonly<Record<string, RecordingHeader>>;
   second: SecondReviewer | null;
   /** Adjudicated decisions by recording path and component index. */
   adjudicated: Readonly<Record<string, Readonly<Record<number, ReviewDecision>>>>;
@@ -148,6 +159,7 @@ export const studyStore = createStore<StudyState>()((set, get) => ({
   recordings: [],
   current: null,
   reviews: {},
+  headers: {},
   second: null,
   adjudicated: {},
   message: null,
@@ -166,8 +178,24 @@ export const studyStore = createStore<StudyState>()((set, get) => ({
     const name = await datasetName(files, root);
     const saved = loadSaved(name);
     const fromDerivatives = await derivativeDecisions(files, recordings);
-    set({ name, files, recordings, current: null, reviews: { ...fromDerivatives, ...saved.reviews }, adjudicated: saved.adjudicated, second: null, message: null });
+    set({ name, files, recordings, current: null, reviews: { ...fromDerivatives, ...saved.reviews }, headers: {}, adjudicated: saved.adjudicated, second: null, message: null });
     workbenchStore.getState().setScreen('study');
+    // headers only, one recording at a time, never all recordings' samples
+    const byPath = new Map(files.map((f) => [f.path, f.file]));
+    for (const rec of recordings) {
+      if (get().name !== name) return;
+      const file = byPath.get(rec.path);
+      if (!file) continue;
+      const res = await readEdfLayout(blobByteSource(file, rec.path));
+      const header: RecordingHeader = res.ok
+        ? {
+            channels: res.value.channels.filter((c) => c.unit === 'uV').length,
+            seconds: res.value.layout.records * res.value.layout.recordDurationSeconds,
+            error: null,
+          }
+        : { channels: null, seconds: null, error: res.error.message };
+      set((s) => ({ headers: { ...s.headers, [rec.path]: header } }));
+    }
   },
 
   openDemoStudy: async () => {
@@ -258,7 +286,7 @@ export const studyStore = createStore<StudyState>()((set, get) => ({
   },
 
   closeStudy: () => {
-    set({ name: null, files: [], recordings: [], current: null, reviews: {}, second: null, adjudicated: {}, message: null });
+    set({ name: null, files: [], recordings: [], current: null, reviews: {}, headers: {}, second: null, adjudicated: {}, message: null });
     workbenchStore.getState().setScreen('start');
   },
 }));

@@ -27,7 +27,7 @@ function DotStrip({ values, label }: { values: readonly (number | null)[]; label
 }
 
 export function StudyView() {
-  const { name, recordings, reviews, message } = useStudy(useShallow((s) => ({ name: s.name, recordings: s.recordings, reviews: s.reviews, message: s.message })));
+  const { name, recordings, reviews, message, headers } = useStudy(useShallow((s) => ({ name: s.name, recordings: s.recordings, reviews: s.reviews, message: s.message, headers: s.headers })));
   const reviewer = useWorkbench((s) => s.reviewer);
   const rows = useMemo(() => selectStudyRows({ recordings, reviews }), [recordings, reviews]);
   const [sort, setSort] = useState<{ key: StudySortKey; descending: boolean }>({ key: 'key', descending: false });
@@ -88,6 +88,7 @@ export function StudyView() {
         <thead>
           <tr>
             {header('key', 'Recording')}
+            <th scope="col">Recording length</th>
             {header('state', 'Review')}
             {header('decided', 'Decided')}
             {header('removed', 'Removed')}
@@ -101,6 +102,7 @@ export function StudyView() {
           <tr className="strip-row" aria-hidden="true">
             <td />
             <td />
+            <td />
             <td><DotStrip values={rows.map((r) => r.decided)} label="decided" /></td>
             <td><DotStrip values={rows.map((r) => (r.state === 'not started' ? null : r.removed))} label="removed" /></td>
             <td><DotStrip values={rows.map((r) => r.removedVariance)} label="variance removed" /></td>
@@ -111,6 +113,13 @@ export function StudyView() {
           {sorted.map((r) => (
             <tr key={r.path} data-testid="study-row" data-state={r.state} className={r.flags.length > 0 ? 'flagged' : undefined}>
               <th scope="row">{r.key}</th>
+              <td data-testid="study-length">
+                {headers[r.path] === undefined
+                  ? '…'
+                  : headers[r.path].error
+                    ? <span className="study-error">cannot read: {headers[r.path].error}</span>
+                    : `${headers[r.path].channels}\u00a0ch · ${((headers[r.path].seconds ?? 0) / 60).toFixed(1)}\u00a0min`}
+              </td>
               <td>{r.state}</td>
               <td className="num">{r.components === null ? '—' : `${r.decided}\u00a0of\u00a0${r.components}`}</td>
               <td className="num">{r.state === 'not started' ? '—' : r.removed}</td>
