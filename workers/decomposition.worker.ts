@@ -9,6 +9,7 @@
  * nested helper worker (decomposition-helper.worker.ts, src/core/ica/pass-threads.ts): both cores work.
  */
 import { expose, transfer } from 'comlink';
+import { guardWorkerApi } from '../src/core/coded-error.ts';
 import { createIcaThreads, type IcaThreads } from '../src/core/ica/pass-threads.ts';
 import { decomposeRecording, type DecomposeInput, type DecomposeOptions, type DecomposeProgress, type DecomposeResult } from '../src/core/ica/decompose.ts';
 import { installKernelModule } from '../src/core/kernels/kernels.ts';
@@ -90,4 +91,5 @@ const api = {
 };
 
 export type DecompositionApi = typeof api;
-expose(api);
+// Faults cross as WireErrors (code kept); the bridge client rethrows them as CodedError.
+expose(guardWorkerApi(api));

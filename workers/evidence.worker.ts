@@ -4,6 +4,7 @@
  * transferred, not copied. Abort: the client terminates the worker.
  */
 import { expose, transfer } from 'comlink';
+import { guardWorkerApi } from '../src/core/coded-error.ts';
 import { computeEvidence, type EvidenceInput, type EvidenceResult } from '../src/core/evidence/compute-evidence.ts';
 
 /** What crosses to the worker: functions cannot be cloned, so progress is a separate proxied argument. */
@@ -45,4 +46,5 @@ const api = {
 };
 
 export type EvidenceApi = typeof api;
-expose(api);
+// Faults cross as WireErrors (code kept); the bridge client rethrows them as CodedError.
+expose(guardWorkerApi(api));

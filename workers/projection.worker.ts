@@ -3,6 +3,7 @@
  * the core's register-blocked kernel off the main thread. The result is transferred, not copied.
  */
 import { expose, transfer } from 'comlink';
+import { guardWorkerApi } from '../src/core/coded-error.ts';
 import { windowActivations, type WindowActivationsInput } from '../src/core/review/preview-projection.ts';
 import { wholeRegionSpectra, type WholeRegionSpectraInput } from '../src/core/review/whole-spectra.ts';
 
@@ -29,4 +30,5 @@ const api = {
 };
 
 export type ProjectionApi = typeof api;
-expose(api);
+// Faults cross as WireErrors (code kept); the bridge client rethrows them as CodedError.
+expose(guardWorkerApi(api));

@@ -5,6 +5,7 @@
  * copy, and writes cleaned recordings (src/core/recording-input.ts, src/core/formats/edf-writer.ts).
  */
 import { expose, transfer } from 'comlink';
+import { CodedError, guardWorkerApi } from '../src/core/coded-error.ts';
 import { blobByteSource } from '../src/core/formats/byte-source.ts';
 import { loadRecording, readOtherRateBlocks } from '../src/core/formats/recording-loader.ts';
 import { isRecordingFileName } from '../src/core/formats/recording-file-name.ts';
@@ -64,7 +65,7 @@ const api = {
     let otherBlocks: SignalBlock[] = [];
     if (main && rec.channels.length > rec.signals.labels.length) {
       const res = await readOtherRateBlocks(blobByteSource(main, main.name), rec);
-      if (!res.ok) throw new Error(res.error.message);
+      if (!res.ok) throw CodedError.fromParseError(res.error);
       otherBlocks = res.value;
     }
     const { input, warnings } = cleanedRecordingInput(rec, {
@@ -83,4 +84,5 @@ const api = {
 };
 
 export type RecordingWorkerApi = typeof api;
-expose(api);
+// Faults cross as WireErrors (code kept); the bridge client rethrows them as CodedError.
+expose(guardWorkerApi(api));

@@ -3,6 +3,7 @@
  * of the removed components and measure what remains — off the main thread. Abort: the client terminates it.
  */
 import { expose } from 'comlink';
+import { guardWorkerApi } from '../src/core/coded-error.ts';
 import type { Decomposition } from '../src/core/decomposition.ts';
 import type { LoadedRecording } from '../src/core/recording.ts';
 import { residualForReview, type ResidualResult } from '../src/core/review/residual.ts';
@@ -14,4 +15,5 @@ const api = {
 };
 
 export type ResidualApi = typeof api;
-expose(api);
+// Faults cross as WireErrors (code kept); the bridge client rethrows them as CodedError.
+expose(guardWorkerApi(api));

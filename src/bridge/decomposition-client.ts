@@ -9,6 +9,7 @@
  * SharedArrayBuffer, in which case the worker reads the same memory (no copy).
  */
 import { proxy, wrap } from 'comlink';
+import { rethrowFromWorker } from '../core/coded-error.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import type { DecomposeInput, DecomposeProgress, DecomposeResult } from '../core/ica/decompose.ts';
 import type { DecompositionApi, DecomposeJobOptions } from '../../workers/decomposition.worker.ts';
@@ -22,7 +23,7 @@ function abortError(): Error {
 /**
  * Runs a decomposition in a dedicated worker and resolves with the full result (decomposition, rank reason,
  * warnings, variance shares). Rejects with an Error named 'AbortError' when `signal` aborts (the worker is
- * terminated), or with the worker's error (message kept; class lost crossing the boundary).
+ * terminated), or with the worker's error as a CodedError (code, name and message kept; src/core/coded-error.ts).
  */
 export async function runDecompositionDetailed(
   input: DecomposeInput,
@@ -44,7 +45,7 @@ export async function runDecompositionDetailed(
     signal.addEventListener('abort', onAbort, { once: true });
   });
   try {
-    return await Promise.race([remote.decompose(input, opts, proxy(onProgress), flag), aborted]);
+    return await Promise.race([remote.decompose(input, opts, proxy(onProgress), flag).catch(rethrowFromWorker), aborted]);
   } finally {
     if (onAbort) signal.removeEventListener('abort', onAbort);
     worker.terminate();

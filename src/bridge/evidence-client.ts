@@ -8,6 +8,7 @@
  * SharedArrayBuffer (cross-origin isolated pages), in which case both workers read the same memory.
  */
 import { proxy, wrap } from 'comlink';
+import { rethrowFromWorker } from '../core/coded-error.ts';
 import type { EvidenceResult } from '../core/evidence/compute-evidence.ts';
 import { mergeEvidenceResults, splitComponentRanges } from '../core/evidence/partition.ts';
 import type { EvidenceApi, EvidenceJobInput } from '../../workers/evidence.worker.ts';
@@ -25,7 +26,8 @@ export interface EvidenceWorkerOptions {
 
 /**
  * Computes the evidence of every component (or of `input.componentRange`) in workers. `onProgress` gets the
- * overall fraction done (0–1) and the stage. Rejects with an Error named 'AbortError' when `signal` aborts.
+ * overall fraction done (0–1) and the stage. Rejects with an Error named 'AbortError' when `signal` aborts,
+ * or with the worker's fault as a CodedError (code kept; src/core/coded-error.ts).
  */
 export async function computeEvidenceInWorker(
   input: EvidenceJobInput,
@@ -59,7 +61,7 @@ export async function computeEvidenceInWorker(
           fractions[i] = fraction * weight;
           if (!signal.aborted) onProgress(fractions.reduce((s, f) => s + f, 0), stage);
         }),
-      );
+      ).catch(rethrowFromWorker);
     });
     const parts = await Promise.race([Promise.all(jobs), aborted]);
     return mergeEvidenceResults(parts);

@@ -5,6 +5,7 @@
  * the stale result (the jobs are a few milliseconds long).
  */
 import { wrap, type Remote } from 'comlink';
+import { rethrowFromWorker } from '../core/coded-error.ts';
 import type { ProjectionApi } from '../../workers/projection.worker.ts';
 import type { WindowActivationsInput } from '../core/review/preview-projection.ts';
 import type { WholeRegionSpectra, WholeRegionSpectraInput } from '../core/review/whole-spectra.ts';
@@ -51,7 +52,7 @@ function scheduleIdleShutdown(): void {
 export async function windowActivationsInWorker(...input: WindowActivationsInput): Promise<Float64Array> {
   pending++;
   try {
-    return await api().activations(...input);
+    return await api().activations(...input).catch(rethrowFromWorker);
   } finally {
     pending--;
     scheduleIdleShutdown();
@@ -76,7 +77,7 @@ export async function wholeRegionSpectraInWorker(input: WholeRegionSpectraInput)
       const fresh = !sentSamples || sentSamples.data !== data;
       if (fresh) sentSamples = { data, id: nextSamplesId++ };
       const id = sentSamples!.id;
-      const out = await api().wholeSpectra(id, fresh ? data : null, plain);
+      const out = await api().wholeSpectra(id, fresh ? data : null, plain).catch(rethrowFromWorker);
       if (out) return out;
       sentSamples = null;
     }

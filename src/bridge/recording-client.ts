@@ -1,8 +1,10 @@
 /**
  * Client of workers/recording.worker.ts. Each call gets its own worker, terminated when the call ends or
- * its AbortSignal fires (terminating is the only way to stop a parse or an export already running).
+ * its AbortSignal fires (terminating is the only way to stop a parse or an export already running). A bad file
+ * comes back as a parse result; a fault in the worker rejects as a CodedError with its code (src/core/coded-error.ts).
  */
 import { proxy, wrap, type Remote } from 'comlink';
+import { rethrowFromWorker } from '../core/coded-error.ts';
 import type { CleanedExportRequest, LoadResult, RecordingWorkerApi } from '../../workers/recording.worker.ts';
 
 export type { CleanedExportRequest, LoadResult } from '../../workers/recording.worker.ts';
@@ -17,7 +19,7 @@ async function withWorker<T>(signal: AbortSignal, run: (api: Remote<RecordingWor
     signal.addEventListener('abort', onAbort, { once: true });
   });
   try {
-    return await Promise.race([run(api), aborted]);
+    return await Promise.race([run(api).catch(rethrowFromWorker), aborted]);
   } finally {
     if (onAbort) signal.removeEventListener('abort', onAbort);
     worker.terminate();

@@ -3,6 +3,7 @@
  * (src/core/review/residual.ts). One worker per call, terminated when the call ends or is aborted.
  */
 import { wrap } from 'comlink';
+import { rethrowFromWorker } from '../core/coded-error.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import type { LoadedRecording } from '../core/recording.ts';
 import type { ResidualResult } from '../core/review/residual.ts';
@@ -14,7 +15,7 @@ function abortError(): Error {
   return e;
 }
 
-/** Rejects with an Error named 'AbortError' when `signal` aborts. */
+/** Rejects with an Error named 'AbortError' when `signal` aborts, or with the worker's fault as a CodedError (code kept). */
 export async function computeResidualInWorker(
   recording: LoadedRecording,
   decomposition: Decomposition,
@@ -33,7 +34,7 @@ export async function computeResidualInWorker(
   });
   try {
     const remote = wrap<ResidualApi>(worker);
-    return await Promise.race([remote.residual(recording, decomposition, [...removed]), aborted]);
+    return await Promise.race([remote.residual(recording, decomposition, [...removed]).catch(rethrowFromWorker), aborted]);
   } finally {
     if (onAbort) signal.removeEventListener('abort', onAbort);
     worker.terminate();
