@@ -6,7 +6,8 @@
  *
  * Required when reading: `format`, `aim`, `recordingSha256`, `decompositionSha256`, `components` (each with
  * `index` and `verdict`). Optional, with a warning when absent: `reviewer`, `createdAt`, `software`; per
- * component `reason`, `note`, `suggested` are optional without a warning. `winnow-decisions/1` files still
+ * component `reason`, `note`, `suggested` are optional without a warning; `thresholdOverrides` (the
+ * suggestion thresholds that differ from the defaults, name → number) is written only when some do. `winnow-decisions/1` files still
  * load: their reason codes are mapped to today's words (LEGACY_REASON_CODES).
  *
  * Parsing never throws: bad input gives a ParseResult error naming the file and the fault.

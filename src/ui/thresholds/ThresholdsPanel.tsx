@@ -77,6 +77,20 @@ function Row({ row, onSet, onReset }: { row: ThresholdRow; onSet: (text: string)
 export function ThresholdsPanel({ onClose }: { onClose: () => void }) {
   const thresholds = useWorkbench((s) => s.thresholds ?? NO_OVERRIDES);
   const setThresholds = useWorkbench((s) => s.setThresholds);
+  return <ThresholdsView thresholds={thresholds} current={currentThresholds} setThresholds={setThresholds} onClose={onClose} />;
+}
+
+export interface ThresholdsViewProps {
+  /** The overrides shown. */
+  readonly thresholds: Partial<Thresholds>;
+  /** The overrides as they are at the moment of an edit (two edits within one render both count). */
+  readonly current: () => Partial<Thresholds>;
+  readonly setThresholds: (thresholds: Partial<Thresholds>) => void;
+  readonly onClose: () => void;
+}
+
+/** The panel's content from props (no store). */
+export function ThresholdsView({ thresholds, current, setThresholds, onClose }: ThresholdsViewProps) {
   const closeRef = useRef<HTMLButtonElement>(null);
   useEffect(() => closeRef.current?.focus(), []);
   const rows = thresholdRows(thresholds);
@@ -111,13 +125,13 @@ export function ThresholdsPanel({ onClose }: { onClose: () => void }) {
               key={row.key}
               row={row}
               onSet={(text) => {
-                const current = currentThresholds();
-                const parsed = parseThreshold(row.key, text, current);
+                const now = current();
+                const parsed = parseThreshold(row.key, text, now);
                 if (!parsed.ok) return parsed.error;
-                setThresholds(withThreshold(current, row.key, parsed.value));
+                setThresholds(withThreshold(now, row.key, parsed.value));
                 return null;
               }}
-              onReset={() => setThresholds(withoutThreshold(currentThresholds(), row.key))}
+              onReset={() => setThresholds(withoutThreshold(current(), row.key))}
             />
           ))}
         </tbody>
