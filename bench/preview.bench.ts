@@ -58,7 +58,7 @@ export async function bench(): Promise<BenchRow[]> {
   const m = Float64Array.from({ length: N }, () => r());
   const removed = new Set([0, 2, 4, 6, 8, 10, 12, 14, 16, 18]);
 
-  const S = windowActivations(W, K, N, X, L, m);
+  const S = windowActivations({ unmixing: W, nComponents: K, nChannels: N, window: X, length: L, channelMeans: m });
   const win = createPreviewWindow({ original: X, nChannels: N, length: L, activations: S, nComponents: K });
   applyRemovedSet(win, A, removed);
 
@@ -75,7 +75,7 @@ export async function bench(): Promise<BenchRow[]> {
   const decimateMs = await perCallMs(() => {
     for (let c = 0; c < N; c++) minMaxColumns(win.cleaned, c * L, (c + 1) * L, 1000, mn, mx);
   }, 20);
-  const activationsMs = await medianMs(() => windowActivations(W, K, N, X, L, m), 7);
+  const activationsMs = await medianMs(() => windowActivations({ unmixing: W, nComponents: K, nChannels: N, window: X, length: L, channelMeans: m }), 7);
   const fullMs = await medianMs(() => recomputeCleaned({ original: X, nChannels: N, length: L, mixing: A, activations: S, nComponents: K, removed }), 5);
 
   const py = numpyReference();

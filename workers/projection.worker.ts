@@ -12,8 +12,8 @@ let samples: { id: number; data: Float32Array } | null = null;
 
 const api = {
   /** k × length activations of a channel-major n × length window (see windowActivations). */
-  activations(...input: WindowActivationsInput): Float64Array {
-    const out = windowActivations(...input);
+  activations(input: WindowActivationsInput): Float64Array {
+    const out = windowActivations(input);
     return transfer(out, [out.buffer]);
   },
   /**

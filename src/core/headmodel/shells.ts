@@ -279,7 +279,10 @@ export function equivalentDipolesLeadField(
   out.fill(0);
   for (let i = 0; i < eq.eccentricity.length; i++) {
     const mu = eq.eccentricity[i];
-    sphereLeadFieldAccumulate(unit, radius, mu * position[0], mu * position[1], mu * position[2], eq.magnitude[i], out, true);
+    sphereLeadFieldAccumulate(
+      { electrodes: unit, radius, x0: mu * position[0], y0: mu * position[1], z0: mu * position[2], weight: eq.magnitude[i], electrodesAreUnit: true },
+      out,
+    );
   }
   return out;
 }

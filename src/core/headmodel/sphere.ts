@@ -13,23 +13,28 @@
  * Dipole at the centre: F = 3 r̂ / R², i.e. V = 3 q cos θ / (4πσR²).
  */
 
+/** One dipole term of `sphereLeadFieldAccumulate`. Lengths in any one unit; F comes out in 1/unit². */
+export interface SphereLeadFieldTerm {
+  /** M × 3, any non-zero vectors: each is projected radially onto the sphere of radius `radius`. */
+  readonly electrodes: Float64Array;
+  readonly radius: number;
+  /** Dipole position (x0, y0, z0), |r0| < radius. */
+  readonly x0: number;
+  readonly y0: number;
+  readonly z0: number;
+  /** Factor on F (1 for one dipole; the magnitudes of an equivalent-dipole set, shells.ts). */
+  readonly weight: number;
+  /** True when `electrodes` are already unit vectors (skips the projection). Default false. */
+  readonly electrodesAreUnit?: boolean;
+}
+
 /**
  * Adds `weight` × F for a dipole at (x0, y0, z0) to `out` (M × 3 row-major; row m is F for unit moments
- * along x, y, z at electrode m). Electrodes are given as any non-zero vectors (M × 3): each is projected
- * radially onto the sphere of radius `radius` (pass `electrodesAreUnit` when they are already unit vectors).
- * Lengths in any one unit; F in 1/unit².
- * The caller guarantees |r0| < radius; at or beyond it the result is not finite.
+ * along x, y, z at electrode m). The caller guarantees |r0| < radius; at or beyond it the result is not
+ * finite.
  */
-export function sphereLeadFieldAccumulate(
-  electrodes: Float64Array,
-  radius: number,
-  x0: number,
-  y0: number,
-  z0: number,
-  weight: number,
-  out: Float64Array,
-  electrodesAreUnit = false,
-): Float64Array {
+export function sphereLeadFieldAccumulate(term: SphereLeadFieldTerm, out: Float64Array): Float64Array {
+  const { electrodes, radius, x0, y0, z0, weight, electrodesAreUnit = false } = term;
   const m = Math.floor(electrodes.length / 3);
   for (let e = 0; e < m; e++) {
     let ex = electrodes[3 * e];
@@ -83,7 +88,7 @@ export function sphereLeadField(
   out: Float64Array = new Float64Array(electrodes.length - (electrodes.length % 3)),
 ): Float64Array {
   out.fill(0);
-  return sphereLeadFieldAccumulate(electrodes, radius, position[0], position[1], position[2], 1, out);
+  return sphereLeadFieldAccumulate({ electrodes, radius, x0: position[0], y0: position[1], z0: position[2], weight: 1 }, out);
 }
 
 /**

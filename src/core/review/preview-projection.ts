@@ -54,10 +54,31 @@ export function extractWindow(
   return out;
 }
 
+/** What `windowActivations` takes (and what the projection worker receives from its client). */
+export interface WindowActivationsInput {
+  /** W, k × n row-major. */
+  readonly unmixing: Float64Array;
+  /** k, components (rows of W). */
+  readonly nComponents: number;
+  /** n, channels (columns of W, rows of the window). */
+  readonly nChannels: number;
+  /** X_w, n × L channel-major (µV). */
+  readonly window: Float32Array;
+  /** L, samples in the window. */
+  readonly length: number;
+  /** m, the channel means the decomposition subtracted, or null when it used the data as is. */
+  readonly channelMeans: Float64Array | null;
+}
+
 /**
  * S_w = W (X_w − m) for a channel-major window X_w (n × L): W is k × n row-major, m the channel means
  * (or null when the decomposition was computed on the data as is). Uses the register-blocked kernel,
- * then subtracts W m once per component: W (X − m) = W X − W m.
+ * then subtracts W m once per component: W (X − m) = W X − W m. Returns k × L (in `out` when given).
+ */
+export function windowActivations(input: WindowActivationsInput, out?: Float64Array): Float64Array;
+/**
+ * @deprecated The positional form, kept while src/ui/preview/usePreviewWindow.ts still calls it; pass one
+ * WindowActivationsInput instead.
  */
 export function windowActivations(
   unmixing: Float64Array,
@@ -66,27 +87,34 @@ export function windowActivations(
   window: Float32Array,
   length: number,
   channelMeans: Float64Array | null,
-  out = new Float64Array(k * length),
+  out?: Float64Array,
+): Float64Array;
+export function windowActivations(
+  first: WindowActivationsInput | Float64Array,
+  ...rest: [Float64Array?] | [number, number, Float32Array, number, Float64Array | null, Float64Array?]
 ): Float64Array {
-  multiplyChannelMajor(unmixing, k, n, window, length, out);
+  if (first instanceof Float64Array) {
+    const [nComponents, nChannels, window, length, channelMeans, out] = rest as [number, number, Float32Array, number, Float64Array | null, Float64Array?];
+    return activationsOf({ unmixing: first, nComponents, nChannels, window, length, channelMeans }, out);
+  }
+  return activationsOf(first, rest[0] as Float64Array | undefined);
+}
+
+function activationsOf(input: WindowActivationsInput, out?: Float64Array): Float64Array {
+  const { unmixing, nComponents: k, nChannels: n, window, length, channelMeans } = input;
+  const S = out ?? new Float64Array(k * length);
+  multiplyChannelMajor(unmixing, k, n, window, length, S);
   if (channelMeans) {
     for (let i = 0; i < k; i++) {
       let wm = 0;
       for (let c = 0; c < n; c++) wm += unmixing[i * n + c] * channelMeans[c];
       if (wm === 0) continue;
       const row = i * length;
-      for (let t = 0; t < length; t++) out[row + t] -= wm;
+      for (let t = 0; t < length; t++) S[row + t] -= wm;
     }
   }
-  return out;
+  return S;
 }
-
-/**
- * The arguments of `windowActivations` without `out`: what the projection worker receives and its client
- * passes on (taken from the signature, so the list is written once).
- */
-export type WindowActivationsInput =
-  Parameters<typeof windowActivations> extends [...infer Input, (Float64Array | undefined)?] ? Input : never;
 
 /** A window of samples and its activations, as `createPreviewWindow` and `recomputeCleaned` take them. */
 export interface WindowSamples {

@@ -155,7 +155,7 @@ function muscleActivation(ctx: SourceContext, id: string, bursts: Scenario['jawL
   const hi = Math.min(100, 0.4 * ctx.fs);
   const noise = shapedNoise(r, ctx.n, ctx.fs, bandGain(15, hi, 8, Math.min(15, 0.5 * ctx.fs - hi)));
   const env = new Float64Array(ctx.n).fill(tonic);
-  for (const b of bursts) addKernel(env, ctx.fs, b.timeS, b.amplitude, 0, b.durS, (t) => burstWindow(t, b.durS));
+  for (const b of bursts) addKernel(env, { fs: ctx.fs, onsetS: b.timeS, amplitude: b.amplitude, startS: 0, endS: b.durS, kernel: (t) => burstWindow(t, b.durS) });
   for (let i = 0; i < ctx.n; i++) noise[i] *= env[i];
   return noise;
 }
@@ -227,7 +227,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
       // Latency 300–400 ms (P3b to counted rare tones; common practice), width σ = 70 ms.
       const lat = Math.min(0.4, Math.max(0.3, 0.35 + 0.025 * r.normal()));
       const amp = r.between(0.7, 1.3);
-      addKernel(act, fs, tone.timeS + lat, amp, -0.3, 0.3, (t) => gaussianBump(t, 0.07));
+      addKernel(act, { fs, onsetS: tone.timeS + lat, amplitude: amp, startS: -0.3, endS: 0.3, kernel: (t) => gaussianBump(t, 0.07) });
     }
     neural(
       'p3-parietal',
@@ -244,7 +244,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     for (const tone of scenario.tones) {
       const amp = r.between(0.7, 1.3) * (tone.rare ? 1.2 : 1);
       // N1 at ~100 ms and P2 at ~190 ms after every tone (common practice; widths from memory).
-      addKernel(act, fs, tone.timeS, amp, 0, 0.35, (t) => -gaussianBump(t - 0.1, 0.018) + 0.55 * gaussianBump(t - 0.19, 0.03));
+      addKernel(act, { fs, onsetS: tone.timeS, amplitude: amp, startS: 0, endS: 0.35, kernel: (t) => -gaussianBump(t - 0.1, 0.018) + 0.55 * gaussianBump(t - 0.19, 0.03) });
     }
     const { map, dipoles } = dipoleMap(
       ctx.brain,
@@ -294,7 +294,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
   const eyes: Vec3 = [0, 72, -22];
   {
     const act = new Float64Array(n);
-    for (const b of scenario.blinks) addKernel(act, fs, b.timeS, b.amplitude, 0, b.riseS + b.fallS, (t) => blinkKernel(t, b.riseS, b.fallS));
+    for (const b of scenario.blinks) addKernel(act, { fs, onsetS: b.timeS, amplitude: b.amplitude, startS: 0, endS: b.riseS + b.fallS, kernel: (t) => blinkKernel(t, b.riseS, b.fallS) });
     const { map, dipoles } = dipoleMap(ctx.sphere, ctx, [{ positionMm: eyes, direction: [0, 0.6, 0.8] }], 100);
     out.push({
       id: 'blink',
@@ -374,7 +374,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
   // --- Cardiac --------------------------------------------------------------------------------------
   {
     const act = new Float64Array(n);
-    for (const r of scenario.heartbeats) addKernel(act, fs, r, 1, -0.3, 0.5, heartbeatKernel);
+    for (const r of scenario.heartbeats) addKernel(act, { fs, onsetS: r, amplitude: 1, startS: -0.3, endS: 0.5, kernel: heartbeatKernel });
     // Heart below, left and in front of the head: a uniform field along this direction.
     const d = unitVec([-0.5, 0.35, -0.8]);
     const map = sensorMap(ctx, (_l, c) => ctx.directions[3 * c] * d[0] + ctx.directions[3 * c + 1] * d[1] + ctx.directions[3 * c + 2] * d[2], 5);
@@ -421,7 +421,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
     const drift = ornsteinUhlenbeck(r, n, fs, 10);
     const act = new Float64Array(n);
     for (let i = 0; i < n; i++) act[i] = 0.8 * drift[i];
-    for (const p of scenario.pops) addKernel(act, fs, p.timeS, p.height, 0, 8 * p.tauS, (t) => Math.exp(-t / p.tauS));
+    for (const p of scenario.pops) addKernel(act, { fs, onsetS: p.timeS, amplitude: p.height, startS: 0, endS: 8 * p.tauS, kernel: (t) => Math.exp(-t / p.tauS) });
     out.push({
       id: 'electrode-P7',
       class: 'contact',
@@ -442,7 +442,7 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
       const sign = st.foot === 'left' ? 1 : -1;
       const amp = sign * r.between(0.7, 1.3) * (st.turning ? 1.5 : 1);
       // Damped 2.5 Hz sway of the lead bundle after each heel strike (τ = 0.2 s; our round numbers).
-      addKernel(act, fs, st.timeS, amp, 0, 1, (t) => Math.exp(-t / 0.2) * Math.sin(2 * Math.PI * 2.5 * t));
+      addKernel(act, { fs, onsetS: st.timeS, amplitude: amp, startS: 0, endS: 1, kernel: (t) => Math.exp(-t / 0.2) * Math.sin(2 * Math.PI * 2.5 * t) });
     }
     // The posterior lead bundle: electrodes with y < −0.75 (unit sphere), gains 0.6–1 fixed per label.
     const map = sensorMap(ctx, (l, c) => (ctx.directions[3 * c + 1] < -0.75 ? 0.6 + 0.4 * labelHash01(l) : 0), 15);

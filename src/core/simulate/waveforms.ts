@@ -143,10 +143,26 @@ export function burstyOscillation(rng: Rng, n: number, fs: number, o: BurstyOsci
   return out;
 }
 
+/** One event waveform for `addKernel`: where it sits and how it is shaped. */
+export interface KernelPlacement {
+  /** Sample rate of `out`, Hz. */
+  readonly fs: number;
+  /** Event time, s from the first sample. */
+  readonly onsetS: number;
+  readonly amplitude: number;
+  /** Kernel time span [startS, endS) relative to the onset, s. */
+  readonly startS: number;
+  readonly endS: number;
+  /** The waveform, of time in seconds relative to the onset. */
+  readonly kernel: (tS: number) => number;
+}
+
 /**
  * Adds `amplitude · kernel((i/fs) − onsetS)` to `out` for every sample with kernel time in
  * [startS, endS). The kernel is in seconds relative to the onset.
  */
+export function addKernel(out: Float64Array, placement: KernelPlacement): void;
+/** @deprecated The positional form, kept while src/core/simulate/family/simulate-family.ts still calls it. */
 export function addKernel(
   out: Float64Array,
   fs: number,
@@ -155,7 +171,18 @@ export function addKernel(
   startS: number,
   endS: number,
   kernel: (tS: number) => number,
+): void;
+export function addKernel(
+  out: Float64Array,
+  first: KernelPlacement | number,
+  ...rest: [] | [number, number, number, number, (tS: number) => number]
 ): void {
+  let p = first as KernelPlacement;
+  if (typeof first === 'number') {
+    const [onsetS, amplitude, startS, endS, kernel] = rest as [number, number, number, number, (tS: number) => number];
+    p = { fs: first, onsetS, amplitude, startS, endS, kernel };
+  }
+  const { fs, onsetS, amplitude, startS, endS, kernel } = p;
   const i0 = Math.max(0, Math.ceil((onsetS + startS) * fs));
   const i1 = Math.min(out.length, Math.ceil((onsetS + endS) * fs));
   for (let i = i0; i < i1; i++) out[i] += amplitude * kernel(i / fs - onsetS);

@@ -38,7 +38,7 @@ export function backProjectedActivation(
   length: number,
   channelMeans: Float64Array | null,
 ): Float64Array {
-  const s = windowActivations(unmixing.subarray(i * n, (i + 1) * n), 1, n, window, length, channelMeans);
+  const s = windowActivations({ unmixing: unmixing.subarray(i * n, (i + 1) * n), nComponents: 1, nChannels: n, window, length, channelMeans });
   const a = mixing[c * k + i];
   for (let t = 0; t < length; t++) s[t] *= a;
   return s;

@@ -21,12 +21,12 @@ describe('windowActivations and the cleaned window', () => {
   const m = Float64Array.from(fixture.m);
 
   it('computes S = W (X − m) as numpy does (fixtures/preview, numpy 2.4.6, 1e-9)', () => {
-    const S = windowActivations(W, k, n, X, L, m);
+    const S = windowActivations({ unmixing: W, nComponents: k, nChannels: n, window: X, length: L, channelMeans: m });
     fixture.S.forEach((v, j) => expect(S[j]).toBeCloseTo(v, 9));
   });
 
   it('matches numpy X − A[:,R] W (X − m) after removing components 1 and 3 incrementally (docs/methods.md §7.6)', () => {
-    const S = windowActivations(W, k, n, X, L, m);
+    const S = windowActivations({ unmixing: W, nComponents: k, nChannels: n, window: X, length: L, channelMeans: m });
     const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     applyRemovedSet(win, A, new Set(fixture.removed));
     fixture.clean.forEach((v, j) => expect(win.cleaned[j]).toBeCloseTo(v, 9));
@@ -36,7 +36,7 @@ describe('windowActivations and the cleaned window', () => {
 describe('incremental toggles', () => {
   const n = 16, k = 12, L = 300;
   const { X, W, A, m } = randomProblem(n, k, L, 7);
-  const S = windowActivations(W, k, n, X, L, m);
+  const S = windowActivations({ unmixing: W, nComponents: k, nChannels: n, window: X, length: L, channelMeans: m });
 
   it('equal full recomputation after any sequence of toggles', () => {
     const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
@@ -81,7 +81,7 @@ describe('windowChecksum', () => {
   it('changes when a verdict changes and comes back when it is undone', () => {
     const n = 4, k = 3, L = 50;
     const { X, W, A, m } = randomProblem(n, k, L, 3);
-    const S = windowActivations(W, k, n, X, L, m);
+    const S = windowActivations({ unmixing: W, nComponents: k, nChannels: n, window: X, length: L, channelMeans: m });
     const win = createPreviewWindow({ original: X, nChannels: n, length: L, activations: S, nComponents: k });
     const before = windowChecksum(win.cleaned);
     setComponentRemoved(win, A, 1, true);
@@ -118,7 +118,7 @@ describe('removedVarianceShare', () => {
     }
     const W = Float64Array.from([1, 0]);
     const A = Float64Array.from([1, 0]);
-    const S = windowActivations(W, 1, 2, X, L, null);
+    const S = windowActivations({ unmixing: W, nComponents: 1, nChannels: 2, window: X, length: L, channelMeans: null });
     const win = createPreviewWindow({ original: X, nChannels: 2, length: L, activations: S, nComponents: 1 });
     setComponentRemoved(win, A, 0, true);
     const share = removedVarianceShare(win);
@@ -128,10 +128,26 @@ describe('removedVarianceShare', () => {
 });
 
 describe('WindowActivationsInput', () => {
-  it('is windowActivations\' six inputs without the out buffer (what the projection worker takes)', () => {
+  it('is one options object of six named inputs (what the projection worker takes)', () => {
     // Checked by the type checker (tsc --noEmit covers test/).
-    expectTypeOf<WindowActivationsInput>().toEqualTypeOf<
-      [unmixing: Float64Array, k: number, n: number, window: Float32Array, length: number, channelMeans: Float64Array | null]
-    >();
+    expectTypeOf<WindowActivationsInput>().toEqualTypeOf<{
+      readonly unmixing: Float64Array;
+      readonly nComponents: number;
+      readonly nChannels: number;
+      readonly window: Float32Array;
+      readonly length: number;
+      readonly channelMeans: Float64Array | null;
+    }>();
+  });
+
+  it('the positional form still in use gives the same activations, bit for bit', () => {
+    const W = Float64Array.from([0.5, -1, 2, 0.25, 1, -0.5]);
+    const X = Float32Array.from([1, 2, 3, 4, -1, 0, 2, 5]);
+    const m = Float64Array.from([0.5, -0.25]);
+    const byObject = windowActivations({ unmixing: W, nComponents: 3, nChannels: 2, window: X, length: 4, channelMeans: m });
+    expect(windowActivations(W, 3, 2, X, 4, m)).toEqual(byObject);
+    const out = new Float64Array(12);
+    expect(windowActivations({ unmixing: W, nComponents: 3, nChannels: 2, window: X, length: 4, channelMeans: m }, out)).toBe(out);
+    expect(out).toEqual(byObject);
   });
 });

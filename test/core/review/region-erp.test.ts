@@ -8,7 +8,7 @@ describe('regionErpAfter', () => {
   it('equals the ERP of the fully cleaned data averaged over the region (linearity of §5 and §7.6)', () => {
     const n = 6, k = 4, T = 2000, fs = 100;
     const { X, W, A, m } = randomProblem(n, k, T, 11);
-    const S = windowActivations(W, k, n, X, T, m);
+    const S = windowActivations({ unmixing: W, nComponents: k, nChannels: n, window: X, length: T, channelMeans: m });
     const onsets = [2, 4.5, 7.01, 9.5, 12, 15.3];
     const roi = [1, 4];
     const removed = new Set([0, 2]);
@@ -45,7 +45,7 @@ describe('regionErpPlan', () => {
     const roi = [0, 2];
     const plan = regionErpPlan({ data, nSamples: T, sampleRate: fs, rows: perm, roi, unmixing: W, mixing: A, nComponents: k, onsetsS: onsets })!;
     expect(plan.nEpochs).toBe(5);
-    const S = windowActivations(W, k, n, X, T, m);
+    const S = windowActivations({ unmixing: W, nComponents: k, nChannels: n, window: X, length: T, channelMeans: m });
     const removed = new Set([1]);
     const after = regionErpAfter(plan.before, plan.componentErps, plan.regionWeights, removed);
     const cleanRoi = regionMean(recomputeCleaned({ original: X, nChannels: n, length: T, mixing: A, activations: S, nComponents: k, removed }), T, roi);
