@@ -38,8 +38,8 @@ export interface PicardOptions {
   /** Maximum L-BFGS iterations (default 500). */
   maxIter?: number;
   /**
-   * Stop when max |antisymmetric relative gradient| < tol (default 1e-6, PICARD_TOL: far below the gradient's
-   * sampling error ≈ 1/√T, and above the float32 arithmetic floor of the SIMD kernels; docs/methods.md §7.7).
+   * Stop when max |antisymmetric relative gradient| < tol (default picardTolerance(T) = max(1e-6, 0.01/√T): 1 % of
+   * the gradient's sampling error, and not below the float32 floor of the SIMD kernels; docs/methods.md §7.7).
    */
   tol?: number;
   /** L-BFGS memory (default 7). */
@@ -58,12 +58,25 @@ export interface PicardOptions {
 }
 
 /**
- * Default gradient tolerance of Picard-O. python-picard's 1e-7 (Ablin et al. 2018) assumes float64 passes; our
- * SIMD passes run in float32, whose loss differences stop resolving line-search decreases near 5e-7 (measured on a
- * simulated 32-channel recording), and 1e-6 still lies three orders below the sampling error 1/√T of the gradient
- * for any recording shorter than 10¹¹ samples (ours; docs/methods.md §7.7).
+ * Floor of Picard-O's gradient tolerance. python-picard's 1e-7 (Ablin et al. 2018) assumes float64 passes; our
+ * SIMD passes run in float32, where plain loss comparisons stopped resolving line-search decreases near 5e-7
+ * (measured on a simulated 32-channel recording; ours, docs/methods.md §7.7).
  */
 export const PICARD_TOL = 1e-6;
+
+/** Fraction of the gradient's sampling standard error 1/√T at which Picard-O stops by default (ours). */
+export const PICARD_SAMPLING_FRACTION = 0.01;
+
+/**
+ * Default stopping tolerance for T samples: max(PICARD_TOL, 0.01/√T). Each entry of the relative gradient is a
+ * mean over T samples of products of unit-variance outputs, so its standard error is about 1/√T; once the
+ * gradient is 1 % of that, a Newton step would move W by 1 % of its own statistical uncertainty in every
+ * direction — also along the near-flat rotations between noise-like components, where realistic recordings
+ * otherwise spend most of their iterations (ours, docs/methods.md §7.7).
+ */
+export function picardTolerance(T: number): number {
+  return Math.max(PICARD_TOL, PICARD_SAMPLING_FRACTION / Math.sqrt(Math.max(1, T)));
+}
 
 /** Pass sums normalised by T: E[ln cosh y_i], E[sech² y_i], E[tanh(Y) Yᵀ]. */
 type PassStats = PassSums;
@@ -111,7 +124,7 @@ export function initialRotation(k: number, seed: number | undefined): Float64Arr
  */
 export function picardOrthogonal(Z: Float32Array, k: number, T: number, opts: PicardOptions = {}): IcaResult {
   const maxIter = opts.maxIter ?? 500;
-  const tol = opts.tol ?? PICARD_TOL;
+  const tol = opts.tol ?? picardTolerance(T);
   const mem = opts.memory ?? 7;
   const lsTries = opts.lsTries ?? 10;
   const lambdaMin = opts.lambdaMin ?? 1e-2;
@@ -367,7 +380,7 @@ export function picardWarmStarted(Z: Float32Array, k: number, T: number, opts: P
       evaluator,
       tol: opts.warmTol ?? Math.max(1e-4, 0.3 / Math.sqrt(Ts)),
       maxIter,
-      monitor: opts.monitor ? { poll: opts.monitor.poll, iteration: (it, c) => opts.monitor?.iteration?.(it, c, opts.tol ?? 1e-7) } : undefined,
+      monitor: opts.monitor ? { poll: opts.monitor.poll, iteration: (it, c) => opts.monitor?.iteration?.(it, c, opts.tol ?? picardTolerance(T)) } : undefined,
     }),
   );
   const offset = first.iterations;
