@@ -12,7 +12,8 @@
  *   −ln p_i(y) = s_i·ln cosh(y) + y²/2,   score ψ_i(y) = s_i·tanh(y) + y,   s_i ∈ {+1 super, −1 sub}
  * (s = −1 is the score of ½N(1,1)+½N(−1,1), docs/methods.md §7.2). Loss L(W) = E[Σ_i −ln p_i(y_i)] (ln|det W| = 0).
  * Updates W ← expm(E) W with E antisymmetric. Relative gradient G = E[ψ(Y) Yᵀ]; its antisymmetric part
- * Gₛ = (G − Gᵀ)/2 is the gradient on the constraint manifold; the solver stops when max|Gₛ| < tol.
+ * Gₛ = (G − Gᵀ)/2 is the gradient on the constraint manifold; the solver stops when max|Gₛ| < tol, by default
+ * picardTolerance(T) = max(1e-6, 0.01/√T), 1 % of the gradient's sampling error (docs/methods.md §7.7).
  * Hessian approximation on antisymmetric E (derived as in the ICASSP paper, assuming independent outputs and
  * E[y²] = 1): with Y → (I + E + E²/2) Y the loss changes by
  *   Σ_ij E_ij G_ij + ½ Σ_i Σ_j E_ij² (E[ψ_i'] E[y_j²] − E[ψ_i y_i]) = Σ_{i<j} [2 Gₛ_ij E_ij + ½ E_ij² (κ_i + κ_j)],
@@ -21,8 +22,9 @@
  * missed that factor 2 and took half steps, which doubled the iterations: docs/methods.md §7.7). Pair curvature
  * sums κ_i + κ_j are floored at λ_min = 1e-2 to stay positive.
  * s_i = sign of the switching statistic (so κ_i = |statistic| ≥ 0). The L-BFGS memory (m = 7) is cleared
- * whenever a sign changes. Line search: step 1, halved up to 10 times until the loss decreases; if it fails
- * the memory is cleared and the preconditioned gradient is tried; if that fails too the solver stops.
+ * whenever a sign changes. Line search: step 1, halved up to 10 times until the loss decreases (or, inside the
+ * loss's arithmetic resolution, the gradient norm does); if it fails the memory is cleared and the
+ * preconditioned gradient is tried; if that fails too the solver stops.
  *
  * One pass over the data computes, tile by tile, Y = W Z, tanh, ln cosh and E[tanh(Y) Yᵀ], so a line-search
  * trial that is accepted already holds the next gradient: one pass per iteration in the usual case.
