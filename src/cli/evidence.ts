@@ -32,6 +32,7 @@ import { suggestWithRules } from '../core/review/suggest.ts';
 import { parseDecompositionJson } from '../core/formats/decomposition-file.ts';
 import { matchDecompositionToRecording } from '../core/formats/decomposition-match.ts';
 import { evidenceInputOf } from '../core/recording-input.ts';
+import { secondsWindow, type SecondsWindow } from '../core/units.ts';
 import { resolveThresholds } from '../core/review/thresholds.ts';
 import { AIMS, type Aim } from '../core/review/vocabulary.ts';
 
@@ -86,12 +87,12 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   const lineOverride = lineText === undefined ? undefined : Number(lineText);
   if (lineOverride !== undefined && lineOverride !== 50 && lineOverride !== 60)
     throw new CliError(`winnow evidence: ${lineOption} must be 50 or 60 (Hz), got "${lineText}"`);
-  let epochWindow: [number, number] = [DEFAULT_EPOCH_WINDOW_S[0], DEFAULT_EPOCH_WINDOW_S[1]];
+  let epochWindow: SecondsWindow = DEFAULT_EPOCH_WINDOW_S;
   if (values.window !== undefined) {
     const parts = values.window.split(',').map((s) => Number(s.trim()));
     if (parts.length !== 2 || !parts.every(Number.isFinite) || !(parts[0] < 0 && parts[1] > 0))
       throw new CliError(`winnow evidence: --window must be TMIN,TMAX in seconds with TMIN < 0 < TMAX, got "${values.window}"`);
-    epochWindow = [parts[0], parts[1]];
+    epochWindow = secondsWindow(parts[0], parts[1]);
   }
 
   // decomposition

@@ -10,6 +10,7 @@ import { mainsFrequency, type MainsFrequency } from './formats/power-line.ts';
 import type { DecomposeInput } from './ica/decompose.ts';
 import type { LoadedRecording, RecordingEvent, SignalBlock } from './recording.ts';
 import { cleanedEdfInput, cleanedRecordingSamples } from './review/clean.ts';
+import type { SecondsWindow } from './units.ts';
 
 /**
  * Sample indices (0 < i < nSamples, ascending, once each) where a new segment of the block starts, so that
@@ -64,7 +65,7 @@ export interface EvidenceSettings {
   /** Mains frequency given by the user (CLI --line-frequency); else the recording's *_eeg.json, else 50 Hz. */
   readonly lineHz?: 50 | 60;
   readonly epochEvent?: string;
-  readonly window?: readonly [number, number];
+  readonly window?: SecondsWindow;
   readonly permutations?: number;
   /** events.tsv column whose values are each tested for time-locking (EvidenceInput.lockColumn). */
   readonly lockColumn?: string;

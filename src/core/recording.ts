@@ -3,6 +3,9 @@
  * simulator writes through the EDF writer; decomposition, evidence, the workbench and the CLI consume it.
  * Samples are kept channel-major in Float32Array (a 24-bit significand holds 24-bit ADC counts exactly).
  */
+import type { Hz, Lenient, Seconds } from './units.ts';
+import type { MainsHz } from './formats/power-line.ts';
+
 export type RecordingFormat = 'EDF' | 'EDF+C' | 'EDF+D' | 'BDF' | 'BDF+C' | 'BDF+D';
 
 /** BIDS channel types (BIDS specification, *_channels.tsv). */
@@ -17,7 +20,7 @@ export interface ChannelInfo {
   readonly unit: string;
   /** The unit as written in the header. */
   readonly headerUnit: string;
-  readonly sampleRate: number;
+  readonly sampleRate: Hz;
   readonly samplesPerRecord: number;
   readonly physicalMin: number;
   readonly physicalMax: number;
@@ -33,15 +36,15 @@ export interface ChannelInfo {
 
 export interface RecordingEvent {
   /** Seconds from the first stored sample (BIDS convention). */
-  readonly onset: number;
+  readonly onset: Lenient<Seconds>;
   /** Seconds; 0 when absent. */
-  readonly duration: number;
+  readonly duration: Lenient<Seconds>;
   /** UTF-8 text (EDF+ annotation or BIDS trial_type). Never rendered as HTML. */
   readonly label: string;
   /** Where the event came from. 'boundary' marks a gap in an EDF+D/BDF+D file. */
   readonly source: 'annotation' | 'boundary' | 'events-tsv';
   /** Seconds, from events.tsv response_time when present. */
-  readonly responseTime?: number;
+  readonly responseTime?: Seconds;
   /**
    * Every other events.tsv column of this row (column name → cell text, 'n/a' kept as written), e.g.
    * { condition: 'rare' }; the factors a reviewer can select or split events by. BIDS specification,
@@ -57,7 +60,7 @@ export interface RecordingHeader {
   readonly start: string;
   readonly headerBytes: number;
   readonly records: number;
-  readonly recordDurationSeconds: number;
+  readonly recordDurationSeconds: Seconds;
   /** Start time of each data record in seconds from the file start (from time-keeping TALs in EDF+/BDF+). */
   readonly recordOnsets: Float64Array;
 }
@@ -69,7 +72,7 @@ export interface RecordingInfo {
   readonly header: RecordingHeader;
   /** Signal channels only (annotation channels excluded). */
   readonly channels: readonly ChannelInfo[];
-  readonly durationSeconds: number;
+  readonly durationSeconds: Seconds;
   readonly events: readonly RecordingEvent[];
 }
 
@@ -80,7 +83,7 @@ export interface RecordingInfo {
  */
 export interface SignalBlock {
   readonly labels: readonly string[];
-  readonly sampleRate: number;
+  readonly sampleRate: Hz;
   readonly nSamples: number;
   readonly data: Float32Array;
   /** Only for discontinuous files: the time in seconds of each sample. */
@@ -90,7 +93,7 @@ export interface SignalBlock {
 /** Mains (power-line) frequency as the recording's *_eeg.json states it (BIDS PowerLineFrequency). */
 export interface PowerLine {
   /** Hz (50 or 60); null when no sidecar was paired or it gave none ("n/a", missing, or another value). */
-  readonly hz: 50 | 60 | null;
+  readonly hz: MainsHz | null;
   /** Base name of the *_eeg.json read, or null when none was paired. */
   readonly sidecar: string | null;
 }

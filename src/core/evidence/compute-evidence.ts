@@ -16,6 +16,7 @@ import { createDipoleFitter } from '../headmodel/dipole-fit.ts';
 import { approximateRegion } from '../headmodel/region.ts';
 import { roundHalfAway } from '../signal/epochs.ts';
 import { createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength, type WelchPlan } from '../signal/welch.ts';
+import { millimetres, secondsWindow, type Hz, type Lenient, type Millimetres, type Seconds, type SecondsWindow } from '../units.ts';
 import { channelMoments, computeActivations, signalMoments } from './activations.ts';
 import { cardiacPeriodicity } from './cardiac.ts';
 import { mapFocality } from './focality.ts';
@@ -27,10 +28,11 @@ import { defaultEventType, eventTypes, isStepType, parseSelectionKey, selectEven
 import type { ComponentEvidence, DipoleEvidence, TrialStack, ErpEvidence, TimeLockingTest } from './types.ts';
 
 export interface EvidenceEvent {
-  readonly onset: number;
-  readonly duration: number;
+  /** Seconds from the first sample. */
+  readonly onset: Lenient<Seconds>;
+  readonly duration: Lenient<Seconds>;
   readonly label: string;
-  readonly responseTime?: number;
+  readonly responseTime?: Lenient<Seconds>;
   /** The other events.tsv columns of this event (RecordingEvent.columns). */
   readonly columns?: Readonly<Record<string, string>>;
 }
@@ -43,8 +45,7 @@ export interface EvidenceInput {
   readonly data: Float32Array;
   readonly nChannels: number;
   readonly nSamples: number;
-  /** Hz. */
-  readonly sampleRate: number;
+  readonly sampleRate: Lenient<Hz>;
   /** Label of each data channel; decomposition channels are found by label. */
   readonly labels: readonly string[];
   /** Unit direction vectors (RAS) per data channel, nChannels × 3, NaN rows unknown; null = none known. */
@@ -56,8 +57,8 @@ export interface EvidenceInput {
   /** Event type (trial_type) to epoch, or an event-selection.ts selectionKey; default: the most frequent non-step type. */
   readonly epochEvent?: string;
   /** Epoch window in s relative to the event (default −0.2 … 0.8 s). */
-  readonly window?: readonly [number, number];
-  /** Power-line frequency in Hz (default 50). */
+  readonly window?: SecondsWindow;
+  /** Power-line frequency (default 50 Hz). */
   readonly lineHz?: 50 | 60;
   /**
    * An events.tsv column (EvidenceEvent.columns, e.g. "condition"): time-locking is then also tested for each
@@ -75,7 +76,7 @@ export interface EvidenceInput {
   /** Override the dipole fit (tests, or a fitter shared across calls); null disables fitting. */
   readonly dipoleFit?: DipoleFitFn | null;
   /** Head radius in mm used to place unit positions for the dipole fit (default 90). */
-  readonly headRadiusMm?: number;
+  readonly headRadiusMm?: Lenient<Millimetres>;
   readonly onProgress?: (fraction: number, stage: string) => void;
 }
 
@@ -89,7 +90,7 @@ export interface EvidenceResult {
 }
 
 /** Default epoch window (issue 6): −0.2 … 0.8 s. */
-export const DEFAULT_EPOCH_WINDOW_S: readonly [number, number] = [-0.2, 0.8];
+export const DEFAULT_EPOCH_WINDOW_S: SecondsWindow = secondsWindow(-0.2, 0.8);
 
 /** The event type epoched by default: the most frequent non-step trial_type (event-selection.ts). */
 export function defaultEpochEvent(events: readonly EvidenceEvent[]): string | null {
@@ -100,7 +101,7 @@ export function defaultEpochEvent(events: readonly EvidenceEvent[]): string | nu
  * The default dipole fit: three-shell head model (forward.ts defaults), electrodes = unit positions × head
  * radius; channels without a position are left out. Null when fewer than 8 electrodes have positions.
  */
-export function createDefaultDipoleFit(positionsUnit: Float64Array, headRadiusMm = 90): DipoleFitFn | null {
+export function createDefaultDipoleFit(positionsUnit: Float64Array, headRadiusMm: Lenient<Millimetres> = millimetres(90)): DipoleFitFn | null {
   const n = positionsUnit.length / 3;
   const usable: number[] = [];
   for (let c = 0; c < n; c++) if ([0, 1, 2].every((k) => Number.isFinite(positionsUnit[3 * c + k]))) usable.push(c);

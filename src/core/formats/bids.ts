@@ -8,6 +8,7 @@
  */
 import { parseFail, parseOk, type ParseResult } from './parse-result.ts';
 import type { ChannelType, RecordingEvent } from '../recording.ts';
+import { seconds } from '../units.ts';
 
 /** Splits one TSV line into cells; a cell wrapped in double quotes may hold tabs ("" is a quote). */
 function splitTsvLine(line: string): string[] | null {
@@ -236,8 +237,8 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
     const labelCol = c.trial_type ?? c.value;
     const rawLabel = labelCol === undefined ? '' : row[labelCol].trim();
     const ev: { -readonly [K in keyof RecordingEvent]: RecordingEvent[K] } = {
-      onset,
-      duration: duration === 'na' ? 0 : duration,
+      onset: seconds(onset),
+      duration: seconds(duration === 'na' ? 0 : duration),
       label: rawLabel === 'n/a' ? '' : rawLabel,
       source: 'events-tsv',
     };
@@ -251,7 +252,7 @@ export function parseEventsTsv(text: string, fileName: string): ParseResult<Reco
       const rt = num(row[c.response_time]);
       if (rt === null)
         return parseFail({ code: 'bad-number', message: `${fileName}: line ${line} response_time is "${row[c.response_time]}", not a number`, file: fileName, line });
-      if (rt !== 'na') ev.responseTime = rt;
+      if (rt !== 'na') ev.responseTime = seconds(rt);
     }
     out.push(ev);
   }

@@ -7,6 +7,7 @@ import { parseFail, parseOk, type ParseError, type ParseResult } from './parse-r
 import { parseTals } from './tal.ts';
 import type { RecordingEvent, RecordingInfo } from '../recording.ts';
 import { BATCH_BYTES, ioFail, readEdfLayout, type EdfLayout } from './edf-header.ts';
+import type { Seconds } from '../units.ts';
 
 /** Calls `onBatch` for consecutive batches of whole records [first, first + count) of `layout`. */
 async function forEachRecordBatch(
@@ -137,9 +138,10 @@ export async function readEdfInfo(
   const shift = (t: number) => (t0 === 0 ? t : Math.round((t - t0) * 1e9) / 1e9);
   const recordOnsets = new Float64Array(records);
   for (let r = 0; r < records; r++) recordOnsets[r] = shift(rawOnsets[r]);
+  // TAL times are digit strings (finite); they are tagged as seconds without a further check.
   const events: RecordingEvent[] = tals.map((t) => ({
-    onset: shift(t.onset),
-    duration: t.duration ?? 0,
+    onset: shift(t.onset) as Seconds,
+    duration: (t.duration ?? 0) as Seconds,
     label: t.text,
     source: 'annotation' as const,
   }));
@@ -162,11 +164,11 @@ export async function readEdfInfo(
           byteOffset: layout.headerBytes + r * layout.recordBytes,
         });
       if (gap > 1e-9 * Math.max(1, dur))
-        events.push({ onset: recordOnsets[r], duration: gap, label: 'boundary', source: 'boundary' });
+        events.push({ onset: recordOnsets[r] as Seconds, duration: gap as Seconds, label: 'boundary', source: 'boundary' });
     }
   }
   events.sort((a, b) => a.onset - b.onset);
-  const durationSeconds = records === 0 ? 0 : discontinuous ? recordOnsets[records - 1] + dur : records * dur;
+  const durationSeconds = (records === 0 ? 0 : discontinuous ? recordOnsets[records - 1] + dur : records * dur) as Seconds;
   const info: RecordingInfo = {
     fileName: layout.fileName,
     format: layout.format,
@@ -176,7 +178,7 @@ export async function readEdfInfo(
       start: t0 === 0 ? start : addSecondsToStart(start, t0),
       headerBytes: layout.headerBytes,
       records,
-      recordDurationSeconds: dur,
+      recordDurationSeconds: dur as Seconds,
       recordOnsets,
     },
     channels,

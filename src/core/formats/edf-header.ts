@@ -6,6 +6,7 @@
 import type { ByteSource } from './byte-source.ts';
 import { parseFail, parseOk, type ParseError, type ParseErrorCode, type ParseResult } from './parse-result.ts';
 import type { ChannelInfo, RecordingFormat } from '../recording.ts';
+import { hz } from '../units.ts';
 
 /**
  * The typed errors readEdfInfo/readEdfSignals return (ParseError.code), one per kind of bad input:
@@ -239,7 +240,7 @@ export function parseEdfHeader(
       label,
       unit: scale === null ? headerUnit : 'uV',
       headerUnit,
-      sampleRate: spr / recordDurationSeconds,
+      sampleRate: hz(spr / recordDurationSeconds),
       samplesPerRecord: spr,
       // 15 significant digits drop binary noise of the decimal rescale (32.767 mV → 32767 µV, not …0004)
       physicalMin: Number((physicalMinH * unitFactor).toPrecision(15)),

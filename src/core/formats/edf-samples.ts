@@ -6,6 +6,7 @@ import type { ByteSource } from './byte-source.ts';
 import { parseFail, parseOk, type ParseError, type ParseResult } from './parse-result.ts';
 import type { RecordingInfo, SignalBlock } from '../recording.ts';
 import { BATCH_BYTES, ioFail, readEdfLayout, type EdfLayout, type EdfSignalLayout } from './edf-header.ts';
+import type { Hz } from '../units.ts';
 
 /** EDF/BDF samples are little-endian; typed-array views read them directly only on a little-endian host. */
 const LITTLE_ENDIAN_HOST = new Uint8Array(new Uint16Array([1]).buffer)[0] === 1;
@@ -32,7 +33,7 @@ interface Segment {
 interface Selection {
   indices: number[];
   labels: string[];
-  sampleRate: number;
+  sampleRate: Hz;
   spr: number;
   segments: Segment[];
   nSamples: number;
@@ -63,7 +64,7 @@ function selectSignals(
   } else chosen = dataSignals;
   const dur = layout.recordDurationSeconds;
   if (chosen.length === 0)
-    return parseOk({ indices: [], labels: [], sampleRate: 0, spr: 0, segments: [], nSamples: 0, discontinuous: false });
+    return parseOk({ indices: [], labels: [], sampleRate: 0 as Hz, spr: 0, segments: [], nSamples: 0, discontinuous: false });
   const rates = new Map<number, string[]>();
   for (const c of chosen) {
     const rate = c.s.samplesPerRecord / dur;
@@ -111,7 +112,8 @@ function selectSignals(
   return parseOk({
     indices: chosen.map((c) => c.i),
     labels: chosen.map((c) => c.s.label),
-    sampleRate: fs,
+    // spr / dur of a header edf-header.ts accepted (dur > 0 when a channel holds samples).
+    sampleRate: fs as Hz,
     spr,
     segments,
     nSamples,
@@ -122,7 +124,7 @@ function selectSignals(
 /** A chunk of samples in float64 (as produced by iterateEdfSignals). */
 export interface EdfSignalChunk {
   readonly labels: readonly string[];
-  readonly sampleRate: number;
+  readonly sampleRate: Hz;
   readonly nSamples: number;
   /** Channel-major physical values (normalised units), nChannels × nSamples. */
   readonly data: Float64Array;

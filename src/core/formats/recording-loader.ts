@@ -36,6 +36,7 @@ import { isRecordingFileName, recordingStem } from './recording-file-name.ts';
 import type { ChannelInfo, LoadedRecording, PairedSidecar, PowerLine, RecordingEvent, RecordingInfo, RecordingReference, SignalBlock } from '../recording.ts';
 import { matchMontage } from '../headmodel/montage-1020.ts';
 import { electrodeDirections } from '../headmodel/sphere-fit.ts';
+import { mainsHz } from './power-line.ts';
 
 /**
  * Sidecars named explicitly (the CLI's --channels-tsv, --positions, --events): each takes the place of the
@@ -140,7 +141,7 @@ export async function readPowerLine(
   const warnings = [...parsed.warnings];
   const v = parsed.value.powerLineFrequency;
   if (v !== null && v !== 50 && v !== 60) warnings.push(`${name}: PowerLineFrequency ${v} Hz is neither 50 nor 60; not used`);
-  return { powerLine: { hz: v === 50 || v === 60 ? v : null, sidecar: name }, warnings, reference: parsed.value.reference ?? null };
+  return { powerLine: { hz: v === 50 || v === 60 ? mainsHz(v) : null, sidecar: name }, warnings, reference: parsed.value.reference ?? null };
 }
 
 async function readText(source: ByteSource): Promise<string> {
