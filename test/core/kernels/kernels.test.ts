@@ -44,6 +44,20 @@ describe('kernel selection', () => {
     expect(mod).not.toBeNull();
     expect(wasmKernels().name).toBe('wasm-simd');
   });
+  it('falls back to the JS kernels where WebAssembly SIMD is missing (validate of the probe module fails)', () => {
+    const api = WebAssembly as unknown as { validate: (b: Uint8Array) => boolean };
+    const original = api.validate;
+    api.validate = () => false;
+    try {
+      expect(simdSupported()).toBe(false);
+      const r = installKernelModule(mod);
+      expect(r.kernels.name).toBe('js');
+      expect(r.reason).toMatch(/SIMD is not available/);
+    } finally {
+      api.validate = original;
+      useJsKernels();
+    }
+  });
   it('falls back to the JS kernels without a module', () => {
     const r = installKernelModule(null);
     expect(r.kernels.name).toBe('js');
