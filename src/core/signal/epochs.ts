@@ -6,6 +6,7 @@
  * One rounding rule everywhere: half away from zero, after adding 1e-9 to the magnitude so that
  * onset · fs landing a hair below .5 still rounds up.
  */
+import type { Hz, Lenient, Seconds } from '../units.ts';
 
 /** Round half away from zero with the 1e-9 guard of docs/methods.md §5. */
 export function roundHalfAway(v: number): number {
@@ -35,11 +36,11 @@ export interface Epochs {
  */
 export function extractEpochs(
   x: Float32Array | Float64Array,
-  fs: number,
-  onsetsS: readonly number[],
-  tminS: number,
-  tmaxS: number,
-  baseline: [number, number] | null = [tminS, 0],
+  fs: Lenient<Hz>,
+  onsetsS: readonly Lenient<Seconds>[],
+  tminS: Lenient<Seconds>,
+  tmaxS: Lenient<Seconds>,
+  baseline: readonly [Lenient<Seconds>, Lenient<Seconds>] | null = [tminS, 0],
 ): Epochs {
   const o0 = roundHalfAway(tminS * fs);
   const o1 = roundHalfAway(tmaxS * fs);
@@ -153,7 +154,7 @@ export function sortOrderByKey(keys: ArrayLike<number>): number[] {
 }
 
 /** Per-epoch mean amplitude over the columns whose time lies in [t0S, t1S] (a key for sorting). */
-export function epochWindowMeans(ep: Epochs, t0S: number, t1S: number): Float64Array {
+export function epochWindowMeans(ep: Epochs, t0S: Seconds, t1S: Seconds): Float64Array {
   const out = new Float64Array(ep.nEpochs);
   let count = 0;
   for (let j = 0; j < ep.length; j++) if (ep.times[j] >= t0S - 1e-12 && ep.times[j] <= t1S + 1e-12) count++;
@@ -169,7 +170,12 @@ export function epochWindowMeans(ep: Epochs, t0S: number, t1S: number): Float64A
  * For each kept epoch, the latency (s) from its event to the first `otherOnsetsS` onset after it (within
  * `maxS`), NaN when there is none; used to sort an trial stack by another event's latency (e.g. a response).
  */
-export function latencyToNextEvent(eventOnsetsS: readonly number[], kept: readonly number[], otherOnsetsS: readonly number[], maxS = Infinity): Float64Array {
+export function latencyToNextEvent(
+  eventOnsetsS: readonly Lenient<Seconds>[],
+  kept: readonly number[],
+  otherOnsetsS: readonly Lenient<Seconds>[],
+  maxS: Lenient<Seconds> = Infinity,
+): Float64Array {
   const other = [...otherOnsetsS].filter(Number.isFinite).sort((a, b) => a - b);
   const out = new Float64Array(kept.length);
   for (let r = 0; r < kept.length; r++) {

@@ -20,6 +20,7 @@
  * default padtype='odd'), by FFT overlap-add (fft.js), two channels per complex transform.
  */
 import FFT from 'fft.js';
+import type { Hz, Lenient } from '../units.ts';
 
 export interface FirDesign {
   /** Symmetric taps, length numTaps (odd). */
@@ -31,7 +32,7 @@ export interface FirDesign {
 
 export interface FirDesignOptions {
   /** Transition width in Hz (default: see the order rule in the module comment). */
-  transitionHz?: number;
+  transitionHz?: Lenient<Hz>;
   /** Force an odd number of taps (overrides transitionHz). */
   numTaps?: number;
 }
@@ -76,7 +77,7 @@ function checkCutoff(name: string, cutoffHz: number, sampleRate: number) {
 }
 
 /** High-pass windowed-sinc FIR (Hamming); cutoff at −6 dB; see the module comment for the order rule. */
-export function designHighpassFir(cutoffHz: number, sampleRate: number, opts: FirDesignOptions = {}): FirDesign {
+export function designHighpassFir(cutoffHz: Lenient<Hz>, sampleRate: Lenient<Hz>, opts: FirDesignOptions = {}): FirDesign {
   checkCutoff('high-pass', cutoffHz, sampleRate);
   const tw = opts.transitionHz ?? Math.min(Math.max(cutoffHz, 0.1), 2);
   const N = tapsFor(tw, sampleRate, opts.numTaps);
@@ -90,7 +91,7 @@ export function designHighpassFir(cutoffHz: number, sampleRate: number, opts: Fi
 }
 
 /** Low-pass windowed-sinc FIR (Hamming); cutoff at −6 dB; see the module comment for the order rule. */
-export function designLowpassFir(cutoffHz: number, sampleRate: number, opts: FirDesignOptions = {}): FirDesign {
+export function designLowpassFir(cutoffHz: Lenient<Hz>, sampleRate: Lenient<Hz>, opts: FirDesignOptions = {}): FirDesign {
   checkCutoff('low-pass', cutoffHz, sampleRate);
   const nyqGap = 2 * (sampleRate / 2 - cutoffHz);
   const tw = opts.transitionHz ?? Math.min(Math.min(Math.max(0.25 * cutoffHz, 1), 10), nyqGap);
@@ -113,7 +114,7 @@ export function cascadeFir(a: FirDesign, b: FirDesign): FirDesign {
 }
 
 /** |H(f)| of a design at frequencies in Hz (direct DTFT, like scipy.signal.freqz(taps, worN=f, fs=fs)). */
-export function firMagnitude(design: FirDesign, sampleRate: number, freqsHz: ArrayLike<number>): Float64Array {
+export function firMagnitude(design: FirDesign, sampleRate: Hz, freqsHz: ArrayLike<number>): Float64Array {
   const out = new Float64Array(freqsHz.length);
   for (let q = 0; q < freqsHz.length; q++) {
     const w = (2 * Math.PI * freqsHz[q]) / sampleRate;

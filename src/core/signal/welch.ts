@@ -9,6 +9,7 @@
  * when given `out`.
  */
 import FFT from 'fft.js';
+import { seconds, type Hz, type Lenient, type Seconds } from '../units.ts';
 
 export interface WelchPlan {
   /** Segment (and FFT) length in samples, a power of two ≥ 2. */
@@ -67,7 +68,7 @@ export function welchSegmentCount(plan: WelchPlan, n: number): number {
 }
 
 /** Bin frequencies f_k = k fs / nfft, k = 0 … nfft/2, in Hz. */
-export function welchFrequencies(plan: WelchPlan, fs: number): Float64Array {
+export function welchFrequencies(plan: WelchPlan, fs: Lenient<Hz>): Float64Array {
   const f = new Float64Array(plan.nBins);
   for (let k = 0; k < plan.nBins; k++) f[k] = (k * fs) / plan.nfft;
   return f;
@@ -84,7 +85,7 @@ export function welchFrequencies(plan: WelchPlan, fs: number): Float64Array {
 export function welchPsd(
   plan: WelchPlan,
   x: Float32Array | Float64Array,
-  fs: number,
+  fs: Lenient<Hz>,
   out: Float64Array = new Float64Array(plan.nBins),
 ): Float64Array {
   const { nfft, hann, segment, spectrum, nBins } = plan;
@@ -117,7 +118,7 @@ export function welchPsd(
  * Band power Σ P[k] df over bins with lo ≤ f_k ≤ hi (inclusive edges, docs/methods.md §4), in (unit)².
  * `psd` holds bins k = 0… at spacing df Hz.
  */
-export function bandPower(psd: Float64Array, df: number, lo: number, hi: number): number {
+export function bandPower(psd: Float64Array, df: Lenient<Hz>, lo: Lenient<Hz>, hi: Lenient<Hz>): number {
   const k0 = Math.max(0, Math.ceil(lo / df - 1e-9));
   const k1 = Math.min(psd.length - 1, Math.floor(hi / df + 1e-9));
   let sum = 0;
@@ -130,7 +131,7 @@ export function bandPower(psd: Float64Array, df: number, lo: number, hi: number)
  * ≈ 0.5 Hz resolution; common practice, docs/methods.md §1), but never longer than `nSamples` when that is
  * at least 2 samples.
  */
-export function welchSegmentLength(fs: number, nSamples: number, targetS = 2): number {
+export function welchSegmentLength(fs: Lenient<Hz>, nSamples: number, targetS: Lenient<Seconds> = seconds(2)): number {
   let nfft = 2 ** Math.max(1, Math.round(Math.log2(Math.max(2, fs * targetS))));
   while (nfft > 2 && nfft > nSamples) nfft /= 2;
   return nfft;

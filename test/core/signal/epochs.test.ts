@@ -12,6 +12,7 @@ import {
 } from '../../../src/core/signal/epochs.ts';
 // Hand-checkable example computed two ways (numpy indexing and loops) by test/fixtures/evidence/epochs.py.
 import fixture from '../../fixtures/evidence/epochs.json';
+import { seconds } from '../../../src/core/units.ts';
 
 function fixtureSignal(): Float64Array {
   const x = new Float64Array(1000);
@@ -92,7 +93,7 @@ describe('trial stack sorting', () => {
     x.fill(5, 100, 110); // event at 100: big
     x.fill(1, 300, 310); // event at 300: small
     const ep = extractEpochs(x, 100, [1, 3], 0, 0.05, null);
-    const keys = epochWindowMeans(ep, 0, 0.05);
+    const keys = epochWindowMeans(ep, seconds(0), seconds(0.05));
     expect(Array.from(keys)).toEqual([5, 1]);
     const sorted = reorderEpochRows(ep.epochs, ep.length, sortOrderByKey(keys));
     expect(sorted[0]).toBe(1);

@@ -8,6 +8,7 @@ import {
   segmentRanges,
 } from '../../../src/core/signal/fir.ts';
 import fixture from '../../fixtures/signal/fir_reference.json' with { type: 'json' };
+import { hz } from '../../../src/core/units.ts';
 
 // Reference: test/fixtures/signal/fir_reference.py (scipy 1.17.1, numpy 2.4.6). Each case is a spec (cutoff,
 // rate, transition width); the script derives everything else outside this project: the tap count from the
@@ -47,7 +48,7 @@ describe('designHighpassFir / designLowpassFir against the window-method table a
       let worst = 0;
       for (let i = 0; i < c.numtaps; i++) worst = Math.max(worst, Math.abs(d.taps[i] - c.taps[i]));
       expect(worst).toBeLessThan(1e-12);
-      const mag = firMagnitude(d, c.fs, c.freqs_hz);
+      const mag = firMagnitude(d, hz(c.fs), c.freqs_hz);
       for (let i = 0; i < mag.length; i++) expect(Math.abs(mag[i] - c.magnitude[i])).toBeLessThan(1e-9);
     });
     it(`${name}: at that length the design keeps both ripples under 50 dB beyond fc ∓ Δf/2`, () => {
@@ -56,14 +57,14 @@ describe('designHighpassFir / designLowpassFir against the window-method table a
       expect(p.passband_max_deviation).toBeLessThan(DELTA_50DB);
       // ours at the worst frequencies scipy found, same values
       const d = design(c);
-      const [gs, gp] = firMagnitude(d, c.fs, [p.stopband_max_gain_hz, p.passband_max_deviation_hz]);
+      const [gs, gp] = firMagnitude(d, hz(c.fs), [p.stopband_max_gain_hz, p.passband_max_deviation_hz]);
       expect(Math.abs(gs - p.stopband_max_gain)).toBeLessThan(1e-9);
       expect(Math.abs(Math.abs(gp - 1) - p.passband_max_deviation)).toBeLessThan(1e-9);
     });
   }
   it('puts the cutoff at −6 dB (gain 0.5 within 0.001) as windowed-sinc designs do', () => {
     const d = designHighpassFir(1, 250);
-    expect(firMagnitude(d, 250, [1])[0]).toBeCloseTo(0.5, 3);
+    expect(firMagnitude(d, hz(250), [1])[0]).toBeCloseTo(0.5, 3);
   });
   it('refuses cutoffs outside (0, Nyquist) with a RangeError naming the value', () => {
     expect(() => designHighpassFir(200, 250)).toThrowError(/200/);
@@ -94,7 +95,7 @@ describe('applyZeroPhase', () => {
     const x = sine(fs, 10, T);
     applyZeroPhase(x, 1, T, d);
     const fit = sinusoidFit(x, fs, 10, 1000, 9000);
-    expect(fit.sinCoef).toBeCloseTo(firMagnitude(d, fs, [10])[0], 4);
+    expect(fit.sinCoef).toBeCloseTo(firMagnitude(d, hz(fs), [10])[0], 4);
     expect(Math.abs(fit.cosCoef)).toBeLessThan(1e-5);
   });
   it('scales a 1.25 Hz sine (in the transition band) by |H(1.25)| with zero phase', () => {
@@ -102,7 +103,7 @@ describe('applyZeroPhase', () => {
     const x = sine(fs, 1.25, T);
     applyZeroPhase(x, 1, T, d);
     const fit = sinusoidFit(x, fs, 1.25, 1000, 9000);
-    expect(fit.sinCoef).toBeCloseTo(firMagnitude(d, fs, [1.25])[0], 3);
+    expect(fit.sinCoef).toBeCloseTo(firMagnitude(d, hz(fs), [1.25])[0], 3);
     expect(Math.abs(fit.cosCoef)).toBeLessThan(1e-3);
   });
   it('has a symmetric impulse response centred on the impulse (zero phase by definition)', () => {
@@ -148,7 +149,7 @@ describe('filtfiltFir', () => {
     const x = sine(fs, 1, 20000);
     filtfiltFir(x, 1, 20000, d);
     const fit = sinusoidFit(x, fs, 1, 5000, 15000);
-    expect(fit.sinCoef).toBeCloseTo(firMagnitude(d, fs, [1])[0] ** 2, 3);
+    expect(fit.sinCoef).toBeCloseTo(firMagnitude(d, hz(fs), [1])[0] ** 2, 3);
     expect(Math.abs(fit.cosCoef)).toBeLessThan(1e-3);
   });
 });
