@@ -26,6 +26,7 @@ import {
   solveUpperTriangular,
   type LevenbergMarquardtProblem,
 } from './least-squares.ts';
+import type { Millimetres } from '../units.ts';
 
 export interface DipoleFit {
   /** Position in mm (RAS, origin at the sphere centre). */
@@ -52,13 +53,13 @@ export interface SymmetricDipoleFit {
 
 export interface DipoleFitterOptions {
   /** Coarse grid spacing in mm. Default radius / 9, i.e. 10 mm at R = 90 mm (docs/methods.md §15: ≈ 1 cm). */
-  gridSpacingMm?: number;
+  gridSpacingMm?: Millimetres;
   /** Largest allowed distance of the dipole from the centre, mm. Default 0.85 × radius (brain shell 0.87). */
-  limitRadiusMm?: number;
+  limitRadiusMm?: Millimetres;
   /** Polish with the exact forward model after the fast fit. Default true. */
   refine?: boolean;
   /** Smallest |x| of the symmetric pair, mm (keeps the two dipoles apart). Default 0.05 × radius (4.5 mm). */
-  minHalfSeparationMm?: number;
+  minHalfSeparationMm?: Millimetres;
 }
 
 export interface DipoleFitter {

@@ -17,13 +17,14 @@ import {
   shellSeriesLeadField,
   type EquivalentDipoles,
 } from './shells.ts';
+import { millimetres, type Lenient, type Millimetres } from '../units.ts';
 
 export type HeadModelKind = 'sphere' | 'three-shell';
 
 export interface HeadModel {
   readonly kind: HeadModelKind;
-  /** Outer (scalp) radius in mm. */
-  readonly radiusMm: number;
+  /** Outer (scalp) radius. */
+  readonly radiusMm: Millimetres;
   /** Conductivity of the source compartment (brain; also the scalp in the three-shell model), S/m. */
   readonly conductivity: number;
   /** When true, `leadField` uses the fast approximation (equivalent dipoles) instead of the exact series. */
@@ -33,7 +34,7 @@ export interface HeadModel {
   /** Conductivities of the shells in S/m, innermost first. */
   readonly shellConductivities: Float64Array;
   /** Radius of the compartment that may hold sources (the brain shell), mm. */
-  readonly innerRadiusMm: number;
+  readonly innerRadiusMm: Millimetres;
   /** Exact Legendre-series coefficients g_n, unit outer radius, index n − 1. */
   readonly seriesCoefficients: Float64Array;
   /** Berg & Scherg equivalent dipoles approximating the shells (null for the homogeneous sphere). */
@@ -43,8 +44,8 @@ export interface HeadModel {
 export interface HeadModelOptions {
   /** 'three-shell' (default) or 'sphere' (homogeneous). */
   kind?: HeadModelKind;
-  /** Outer radius in mm. Default 90. */
-  radiusMm?: number;
+  /** Outer radius. Default 90 mm. */
+  radiusMm?: Lenient<Millimetres>;
   /** Brain (= scalp) conductivity in S/m. Default 0.33 [c: docs/methods.md §8.1]. */
   conductivity?: number;
   /** Use the fast approximation in `leadField`. Default false. */
@@ -68,7 +69,7 @@ const equivalentDipoleCache = new Map<string, { g: Float64Array; eq: EquivalentD
  */
 export function createHeadModel(opts: HeadModelOptions = {}): HeadModel {
   const kind = opts.kind ?? 'three-shell';
-  const radiusMm = opts.radiusMm ?? 90;
+  const radiusMm = (opts.radiusMm ?? 90) as Millimetres; // checked > 0 below
   const conductivity = opts.conductivity ?? 0.33;
   if (!(radiusMm > 0)) throw new RangeError(`createHeadModel: radiusMm must be > 0, got ${radiusMm}`);
   if (!(conductivity > 0)) throw new RangeError(`createHeadModel: conductivity must be > 0, got ${conductivity}`);
@@ -106,7 +107,7 @@ export function createHeadModel(opts: HeadModelOptions = {}): HeadModel {
     fast: opts.fast ?? false,
     shellRadii: radii,
     shellConductivities: Float64Array.from(ratios, (r) => r * conductivity),
-    innerRadiusMm: radii[0] * radiusMm,
+    innerRadiusMm: (radii[0] * radiusMm) as Millimetres,
     seriesCoefficients: cached.g,
     equivalentDipoles: cached.eq,
   };
@@ -185,7 +186,7 @@ export function dipolePotentials(
  * Radial projection of positions (N × 3, mm, relative to the sphere centre) onto the sphere of radius
  * `radiusMm` (default 90). A zero vector has no direction and gives NaN.
  */
-export function projectToSphere(positionsMm: Float64Array, radiusMm = 90): Float64Array {
+export function projectToSphere(positionsMm: Float64Array, radiusMm: Millimetres = millimetres(90)): Float64Array {
   const n = Math.floor(positionsMm.length / 3);
   const out = new Float64Array(3 * n);
   for (let i = 0; i < n; i++) {

@@ -15,6 +15,7 @@
  *   occipital:  u_y < −0.7 (behind the PO row);  parietal: −0.7 ≤ u_y < −0.2;
  *   depth:      superficial when |p| ≥ 0.55 R (within ≈ 28 mm of the brain shell at 0.87 R), else deep.
  */
+import { millimetres, type Lenient, type Millimetres } from '../units.ts';
 
 export type Hemisphere = 'left' | 'right' | 'midline';
 export type Lobe = 'frontal' | 'central' | 'parietal' | 'occipital' | 'temporal';
@@ -38,7 +39,7 @@ export const REGION_CAUTION =
  * (default 90). A position with NaN coordinates gives hemisphere 'midline', lobe 'central', depth 'deep'
  * and a label saying the position is unknown.
  */
-export function approximateRegion(positionMm: ArrayLike<number>, radiusMm = 90): RegionEstimate {
+export function approximateRegion(positionMm: ArrayLike<number>, radiusMm: Lenient<Millimetres> = millimetres(90)): RegionEstimate {
   const x = positionMm[0];
   const y = positionMm[1];
   const z = positionMm[2];

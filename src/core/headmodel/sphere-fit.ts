@@ -8,11 +8,12 @@
  */
 import { solveSmallSystem } from './least-squares.ts';
 import { electrodeNameFromLabel } from './montage-1020.ts';
+import type { Millimetres } from '../units.ts';
 
 export interface SphereFit {
   /** Centre in mm, in the frame of the input positions. */
   centre: [number, number, number];
-  radiusMm: number;
+  radiusMm: Millimetres;
 }
 
 /**
@@ -21,7 +22,7 @@ export interface SphereFit {
  */
 export function fitSphere(positionsMm: Float64Array): SphereFit {
   const n = Math.floor(positionsMm.length / 3);
-  if (n === 0) return { centre: [NaN, NaN, NaN], radiusMm: NaN };
+  if (n === 0) return { centre: [NaN, NaN, NaN], radiusMm: NaN as Millimetres };
   let mx = 0;
   let my = 0;
   let mz = 0;
@@ -36,7 +37,7 @@ export function fitSphere(positionsMm: Float64Array): SphereFit {
   const fallback = (): SphereFit => {
     let s = 0;
     for (let i = 0; i < n; i++) s += Math.hypot(positionsMm[3 * i], positionsMm[3 * i + 1], positionsMm[3 * i + 2]);
-    return { centre: [0, 0, 0], radiusMm: s / n };
+    return { centre: [0, 0, 0], radiusMm: (s / n) as Millimetres };
   };
   if (n < 4) return fallback();
   const ata = new Float64Array(16);
@@ -65,7 +66,7 @@ export function fitSphere(positionsMm: Float64Array): SphereFit {
   const r2 = sol[3] + sol[0] * sol[0] + sol[1] * sol[1] + sol[2] * sol[2];
   const centreOffset = Math.hypot(sol[0], sol[1], sol[2]);
   if (!(r2 > 0) || !Number.isFinite(r2) || centreOffset > 1e6 * Math.max(scale, 1e-300)) return fallback();
-  return { centre: [sol[0] + mx, sol[1] + my, sol[2] + mz], radiusMm: Math.sqrt(r2) };
+  return { centre: [sol[0] + mx, sol[1] + my, sol[2] + mz], radiusMm: Math.sqrt(r2) as Millimetres };
 }
 
 /**

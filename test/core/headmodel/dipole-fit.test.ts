@@ -1,5 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { millimetres } from '../../../src/core/units.ts';
 import { createHeadModel, dipolePotentials } from '../../../src/core/headmodel/forward.ts';
 import { createDipoleFitter, fitDipole } from '../../../src/core/headmodel/dipole-fit.ts';
 
@@ -94,7 +95,7 @@ describe('createDipoleFitter on a 64-electrode, 90 mm three-shell head', () => {
     // a source just under the scalp of a homogeneous sphere, fitted with the region limited to 40 mm
     const sphere = createHeadModel({ kind: 'sphere' });
     const map = dipolePotentials(sphere, cap64, [0, 0, 75], [0, 0, 10]);
-    const fit = fitDipole(sphere, cap64, map, { limitRadiusMm: 40 });
+    const fit = fitDipole(sphere, cap64, map, { limitRadiusMm: millimetres(40) });
     expect(fit.atBoundary).toBe(true);
     expect(Math.hypot(...fit.position)).toBeLessThanOrEqual(40 + 1e-9);
   });

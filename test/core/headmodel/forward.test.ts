@@ -1,5 +1,6 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
+import { millimetres } from '../../../src/core/units.ts';
 import {
   createHeadModel,
   dipolePotentials,
@@ -114,7 +115,7 @@ describe('leadFieldFast', () => {
 
 describe('projectToSphere', () => {
   it('moves each position along its ray to the given radius and gives NaN for the origin', () => {
-    const p = projectToSphere(Float64Array.of(3, 4, 0, 0, 0, 0, 0, 0, 2), 10);
+    const p = projectToSphere(Float64Array.of(3, 4, 0, 0, 0, 0, 0, 0, 2), millimetres(10));
     expect(Array.from(p.subarray(0, 3))).toEqual([6, 8, 0]);
     expect(p.subarray(3, 6).every((v) => Number.isNaN(v))).toBe(true);
     expect(Array.from(p.subarray(6, 9))).toEqual([0, 0, 10]);
