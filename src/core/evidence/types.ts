@@ -12,6 +12,7 @@
  * activation-unit values are recovered by dividing by it (power: by its square).
  */
 export type { Aim, ReasonCode, Suggestion, Verdict } from '../review/vocabulary.ts';
+import type { Hz, Lenient } from '../units.ts';
 
 export interface SpectrumEvidence {
   /** Bin frequencies in Hz from 1 Hz to min(Nyquist, 100 Hz) (Welch bins, spacing fs / nfft). */
@@ -22,7 +23,7 @@ export interface SpectrumEvidence {
   readonly powerDb: Float64Array;
   /** Welch segment length (samples, power of two) and the bin spacing in Hz. */
   readonly nfft: number;
-  readonly df: number;
+  readonly df: Lenient<Hz>;
 }
 
 export interface OneOverFFit {
@@ -30,8 +31,8 @@ export interface OneOverFFit {
   readonly exponent: number;
   /** b = log10 P at 1 Hz of the fitted line, log10(µV²/Hz). */
   readonly offset: number;
-  /** Fit range in Hz. */
-  readonly rangeHz: readonly [number, number];
+  /** Fit range. */
+  readonly rangeHz: readonly [Lenient<Hz>, Lenient<Hz>];
   /**
    * Quality of the fit: R² of log10 P about the line over the fit range outside 7–14 Hz (spectrum-shape.ts
    * oneOverFFitR2); 1 = perfect, ≤ 0 = the line explains nothing. NaN when it cannot be computed (always set
@@ -70,7 +71,7 @@ export interface ErpEvidence {
   readonly band: { readonly lower: Float64Array; readonly upper: Float64Array };
   /** Inter-trial phase coherence (0…1) at `itcFrequencyHz`, the dominant frequency of the average. */
   readonly itc: number;
-  readonly itcFrequencyHz: number;
+  readonly itcFrequencyHz: Lenient<Hz>;
   /**
    * Share (0…1) of the single-trial variance that is phase-locked to the events, minus the same share for
    * shuffled event times (its permutation mean); ≤ 0 means no more locking than chance.
@@ -145,7 +146,7 @@ export interface ComponentEvidence {
   readonly spectrum: SpectrumEvidence;
   readonly oneOverF: OneOverFFit;
   /** Alpha peak frequency in Hz (7–14 Hz, above the 1/f fit), or null if there is none. */
-  readonly alphaPeakHz: number | null;
+  readonly alphaPeakHz: Lenient<Hz> | null;
   /** Height of the alpha peak above the 1/f fit, log10 units (0.1 = ×1.26); 0 when none. */
   readonly alphaProminence: number;
   /** BP(20, line−2) / BP(2, line−2) Hz (0…1). */
