@@ -5,6 +5,7 @@
  * linear). The live window toggling is preview-projection.ts.
  */
 import { epochMean, extractEpochs } from '../signal/epochs.ts';
+import type { Hz, Lenient, Seconds } from '../units.ts';
 
 /**
  * Mean of A[c,i] over the region's channels for every component i: ā (length k). `roiRows` are
@@ -58,8 +59,7 @@ export interface RegionSamples {
   /** Channel-major samples of the recording's signal block (µV), `nSamples` per row. */
   readonly data: Float32Array;
   readonly nSamples: number;
-  /** Hz. */
-  readonly sampleRate: number;
+  readonly sampleRate: Lenient<Hz>;
   /** rows[c]: the recording row of decomposition channel c (−1 when absent). */
   readonly rows: ArrayLike<number>;
   /** Decomposition channel indices of the region. */
@@ -74,9 +74,9 @@ export interface RegionErpPlanInput extends RegionSamples {
   readonly mixing: Float64Array;
   readonly nComponents: number;
   /** Event onsets, seconds from the first sample. */
-  readonly onsetsS: readonly number[];
+  readonly onsetsS: readonly Lenient<Seconds>[];
   /** Epoch window [tmin, tmax] in seconds around each onset; default [−0.2, 0.8]; baseline [tmin, 0]. */
-  readonly windowS?: readonly [number, number];
+  readonly windowS?: readonly [Lenient<Seconds>, Lenient<Seconds>];
 }
 
 /**

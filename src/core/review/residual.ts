@@ -20,6 +20,7 @@ import type { Decomposition } from '../decomposition.ts';
 import { mainsFrequency } from '../formats/power-line.ts';
 import type { LoadedRecording } from '../recording.ts';
 import { cleanedRecordingSamples } from './clean.ts';
+import type { Hz } from '../units.ts';
 
 export interface ResidualInput {
   /** Channel-major samples before cleaning, µV, nChannels × nSamples (EOG channels included when recorded). */
@@ -28,8 +29,7 @@ export interface ResidualInput {
   readonly cleaned: Float32Array;
   readonly nChannels: number;
   readonly nSamples: number;
-  /** Hz. */
-  readonly sampleRate: number;
+  readonly sampleRate: Hz;
   readonly labels: readonly string[];
   /** BIDS channel types per row (EOG/VEOG/HEOG are eye references, never measured as cleaned channels). */
   readonly types?: readonly string[];

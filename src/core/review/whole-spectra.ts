@@ -11,6 +11,7 @@
  */
 import { regionMixing, type RegionSamples } from './region-erp.ts';
 import { createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength } from '../signal/welch.ts';
+import type { Hz, Lenient, Seconds } from '../units.ts';
 
 export interface WholeRegionSpectra {
   readonly frequencies: Float64Array;
@@ -18,10 +19,10 @@ export interface WholeRegionSpectra {
   readonly before: Float64Array;
   /** µV²/Hz after removing the components whose weights make up `removedWeights`. */
   readonly after: Float64Array;
-  /** Bin spacing, Hz. */
-  readonly df: number;
-  /** Seconds of signal averaged. */
-  readonly durationS: number;
+  /** Bin spacing. */
+  readonly df: Lenient<Hz>;
+  /** Signal averaged. */
+  readonly durationS: Lenient<Seconds>;
 }
 
 /**

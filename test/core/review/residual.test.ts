@@ -7,6 +7,7 @@ import { describe, expect, it } from 'vitest';
 import { mulberry32 } from '../../../src/core/evidence/time-locking.ts';
 import { matchMontage } from '../../../src/core/headmodel/montage-1020.ts';
 import { RESIDUAL_LIMITS, residualArtefacts, type ResidualInput } from '../../../src/core/review/residual.ts';
+import { hz } from '../../../src/core/units.ts';
 
 const fs = 250;
 const n = 60 * fs;
@@ -40,7 +41,7 @@ function pack(channel: (c: number, t: number) => number, veog: (t: number) => nu
 const veog = (t: number) => 2 * blink[t] + 2 * gauss();
 const original = pack((c, t) => background[c][t] + blinkWeight[c] * blink[t], veog);
 const input = (cleaned: Float32Array, lineHz: 50 | 60 = 50): ResidualInput => ({
-  original, cleaned, nChannels: labels.length, nSamples: n, sampleRate: fs, labels, types, positionsUnit: positions, lineHz,
+  original, cleaned, nChannels: labels.length, nSamples: n, sampleRate: hz(fs), labels, types, positionsUnit: positions, lineHz,
 });
 const perfect = pack((c, t) => background[c][t], veog);
 
