@@ -24,6 +24,7 @@ import { multiplyChannelMajor } from '../src/core/linalg/matmul.ts';
 import { createWelchPlan, welchPsd } from '../src/core/signal/welch.ts';
 import { simulateSession } from '../src/core/simulate/simulate.ts';
 import { type BenchRow, medianMs } from './bench-types.ts';
+import { hz } from '../src/core/units.ts';
 
 const CHANNELS = 64;
 const MINUTES = 10;
@@ -84,7 +85,7 @@ function benchDecomposition(labels: string[], trueMixing: Float64Array, nTrue: n
 }
 
 async function session() {
-  const s = simulateSession({ seed: 7, channels: CHANNELS, minutes: MINUTES, rate: RATE });
+  const s = simulateSession({ seed: 7, channels: CHANNELS, minutes: MINUTES, rate: hz(RATE) });
   const text = (t: string, name: string) => bytesByteSource(new TextEncoder().encode(t), name);
   const files = [bytesByteSource(sessionEdf(s, 'data'), 'recording.edf'), ...sessionSidecars(s).map((f) => text(f.text, f.suffix))];
   const loaded = await loadRecording(files);

@@ -8,6 +8,7 @@ import { spawnSync } from 'node:child_process';
 import { medianMs, type BenchRow } from './bench-types.ts';
 import { simulateSession } from '../src/core/simulate/simulate.ts';
 import { sessionEdf } from '../src/core/simulate/session-files.ts';
+import { hz } from '../src/core/units.ts';
 
 function numpyMixMs(m: number, k: number, n: number): number | null {
   const code = `
@@ -24,10 +25,10 @@ print(sorted(ts)[2]*1000)`;
 
 export async function bench(): Promise<BenchRow[]> {
   const rows: BenchRow[] = [];
-  const demo = await medianMs(() => simulateSession({ seed: 1, channels: 32, minutes: 3, rate: 250 }), 3);
+  const demo = await medianMs(() => simulateSession({ seed: 1, channels: 32, minutes: 3, rate: hz(250) }), 3);
   rows.push({ area: 'simulate', case: 'simulateSession 32 ch × 3 min @ 250 Hz (demo)', oursMs: demo, referenceMs: null, reference: 'none (own scenario)' });
-  let big = simulateSession({ seed: 1, channels: 64, minutes: 10, rate: 250 });
-  const t = await medianMs(() => (big = simulateSession({ seed: 1, channels: 64, minutes: 10, rate: 250 })), 2);
+  let big = simulateSession({ seed: 1, channels: 64, minutes: 10, rate: hz(250) });
+  const t = await medianMs(() => (big = simulateSession({ seed: 1, channels: 64, minutes: 10, rate: hz(250) })), 2);
   const mix = numpyMixMs(64, big.sources.length, big.nSamples);
   rows.push({
     area: 'simulate',

@@ -21,9 +21,10 @@ import { CliError, numberOption, parseCommandArgs, processIo, type CliIo } from 
 import { formatTsv } from '../core/formats/bids.ts';
 import { simulateSession, type SimulateOptions } from '../core/simulate/simulate.ts';
 import { TASK_NAME, sessionEdf, sessionSidecars, sessionTruthFiles } from '../core/simulate/session-files.ts';
+import { hz } from '../core/units.ts';
 
 /** The demo's fixed settings (changing them changes the bundled data; update README.md with them). */
-export const DEMO_OPTIONS: Required<Omit<SimulateOptions, 'sensorNoiseUv'>> = { seed: 1, channels: 32, minutes: 3, rate: 250, lineHz: 50 };
+export const DEMO_OPTIONS: Required<Omit<SimulateOptions, 'sensorNoiseUv'>> = { seed: 1, channels: 32, minutes: 3, rate: hz(250), lineHz: 50 };
 
 function readme(seed: number, withDecomposition: boolean, sizeMb: string): string {
   const o = { ...DEMO_OPTIONS, seed };

@@ -18,6 +18,7 @@ import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-supp
 import { simulateSession } from '../core/simulate/simulate.ts';
 import { sessionEdf, sessionSidecars, TASK_NAME } from '../core/simulate/session-files.ts';
 import { formatTsv } from '../core/formats/bids.ts';
+import { hz, microvolts } from '../core/units.ts';
 
 const USAGE = 'usage: winnow simulate-study --out DIR --participants N [--seed S] [--minutes M] [--channels 32|64]';
 
@@ -102,7 +103,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   );
   let eventsJsonWritten = false;
   for (const [k, label] of labels.entries()) {
-    const session = simulateSession({ seed: seed + k, channels, minutes, rate: 250, lineHz: 50, sensorNoiseUv: label === noisy ? BASE_NOISE_UV * NOISY_FACTOR : BASE_NOISE_UV });
+    const session = simulateSession({ seed: seed + k, channels, minutes, rate: hz(250), lineHz: 50, sensorNoiseUv: microvolts(label === noisy ? BASE_NOISE_UV * NOISY_FACTOR : BASE_NOISE_UV) });
     const dir = join(out, `sub-${label}`, 'eeg');
     await mkdir(dir, { recursive: true });
     const withTask = `sub-${label}_task-${TASK_NAME}`;

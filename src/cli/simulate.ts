@@ -17,6 +17,7 @@ import { writeFileAtomic } from './atomic-write.ts';
 import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { simulateSession, type SimulateOptions } from '../core/simulate/simulate.ts';
 import { sessionEdf, sessionSidecars, sessionTruthFiles } from '../core/simulate/session-files.ts';
+import { hz } from '../core/units.ts';
 
 const USAGE = 'usage: winnow simulate --out DIR [--seed N] [--channels 32|64] [--minutes M] [--rate HZ] [--line 50|60]';
 
@@ -59,7 +60,7 @@ export function parseSimulateArgs(args: string[]): { out: string; options: Requi
   const rate = numberOption('simulate', 'rate', values.rate, 250);
   if (!Number.isInteger(rate) || rate < 2.5 * line || rate > 4096)
     throw new CliError(`winnow simulate: --rate must be a whole number of Hz from ${2.5 * line} to 4096 (1 s EDF records), got "${values.rate}"`);
-  return { out: values.out, options: { seed, channels, minutes, rate, lineHz: line } };
+  return { out: values.out, options: { seed, channels, minutes, rate: hz(rate), lineHz: line } };
 }
 
 export async function run(args: string[], io: CliIo): Promise<number> {

@@ -6,6 +6,7 @@
 import { simulateSession } from '../core/simulate/simulate.ts';
 import { sessionEdf, sessionSidecars, TASK_NAME } from '../core/simulate/session-files.ts';
 import type { DatasetFile } from './study-store.ts';
+import { hz, microvolts } from '../core/units.ts';
 
 export const DEMO_STUDY_PARTICIPANTS = 4;
 const MINUTES = 1.5;
@@ -20,7 +21,7 @@ export async function demoStudyFiles(): Promise<DatasetFile[]> {
     // let the page paint between participants
     await new Promise((r) => setTimeout(r, 0));
     const label = `0${k + 1}`;
-    const session = simulateSession({ seed: 101 + k, channels: 32, minutes: MINUTES, rate: 250, lineHz: 50, sensorNoiseUv: k === DEMO_STUDY_PARTICIPANTS - 1 ? 2.8 : 0.7 });
+    const session = simulateSession({ seed: 101 + k, channels: 32, minutes: MINUTES, rate: hz(250), lineHz: 50, sensorNoiseUv: microvolts(k === DEMO_STUDY_PARTICIPANTS - 1 ? 2.8 : 0.7) });
     const dir = `sub-${label}/eeg`;
     const stem = `sub-${label}_task-${TASK_NAME}`;
     const edf = sessionEdf(session, 'data');

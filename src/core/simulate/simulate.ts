@@ -14,6 +14,7 @@ import { streamRng } from './rng.ts';
 import { createScenario } from './scenario.ts';
 import { buildSources, simulatorHeadModels } from './sources.ts';
 import type { SimulatedEvent, SimulatedSession, TrueSource } from './truth.ts';
+import { hz, microvolts, millimetres, type Hz, type Microvolts } from '../units.ts';
 
 /** A mirror-symmetric 32-channel 10-20 superset (every left site has its right partner). */
 export const LABELS_32: readonly string[] = [
@@ -42,16 +43,16 @@ export interface SimulateOptions {
   channels?: 32 | 64;
   /** Duration in minutes (default 3). */
   minutes?: number;
-  /** Sampling rate in Hz (default 250). */
-  rate?: number;
+  /** Sampling rate (default 250 Hz). */
+  rate?: Hz;
   /** Mains frequency, Hz (default 50). */
   lineHz?: 50 | 60;
-  /** Sensor (amplifier) noise standard deviation, µV (default 0.7). */
-  sensorNoiseUv?: number;
+  /** Sensor (amplifier) noise standard deviation (default 0.7 µV). */
+  sensorNoiseUv?: Microvolts;
 }
 
 /** Head radius of the simulation, mm (a typical adult head; docs/methods.md §8.1 gives 85–95 mm). */
-export const HEAD_RADIUS_MM = 90;
+export const HEAD_RADIUS_MM = millimetres(90);
 
 /** Electrode positions (M × 3, mm on the 90 mm sphere) and unit directions for the given labels. */
 export function electrodePositions(labels: readonly string[], radiusMm = HEAD_RADIUS_MM): { mm: Float64Array; directions: Float64Array } {
@@ -74,9 +75,9 @@ export function simulateSession(opts: SimulateOptions = {}): SimulatedSession {
   const seed = Math.trunc(opts.seed ?? 1) >>> 0;
   const channels = opts.channels ?? 32;
   const minutes = opts.minutes ?? 3;
-  const fs = opts.rate ?? 250;
+  const fs = opts.rate ?? hz(250);
   const lineHz = opts.lineHz ?? 50;
-  const noiseUv = opts.sensorNoiseUv ?? 0.7;
+  const noiseUv = opts.sensorNoiseUv ?? microvolts(0.7);
   if (channels !== 32 && channels !== 64) throw new RangeError(`simulateSession: channels must be 32 or 64, got ${channels}`);
   if (!(minutes > 0) || !Number.isFinite(minutes)) throw new RangeError(`simulateSession: minutes must be > 0, got ${minutes}`);
   if (!(fs > 0) || !Number.isFinite(fs)) throw new RangeError(`simulateSession: rate must be > 0 Hz, got ${fs}`);

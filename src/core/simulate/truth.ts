@@ -4,6 +4,7 @@
  * side file). Later parts score decompositions and cleaned data against these.
  */
 import type { ReasonCode } from '../review/vocabulary.ts';
+import type { Hz, Microvolts, Millimetres } from '../units.ts';
 
 /**
  * Classes of true sources: the review's reason codes that name an origin (every code but the judgements
@@ -56,8 +57,8 @@ export interface SimulatedSession {
   readonly labels: string[];
   /** M × 3 electrode positions, RAS mm, on the head sphere (radius `headRadiusMm`). */
   readonly electrodesMm: Float64Array;
-  readonly headRadiusMm: number;
-  readonly sampleRate: number;
+  readonly headRadiusMm: Millimetres;
+  readonly sampleRate: Hz;
   readonly nSamples: number;
   readonly lineHz: 50 | 60;
   /**
@@ -69,8 +70,8 @@ export interface SimulatedSession {
   readonly neuralOnly: Float32Array;
   /** The exact sensor (amplifier) noise added to every channel, channel-major µV. */
   readonly sensorNoise: Float32Array;
-  /** Standard deviation of the sensor noise, µV. */
-  readonly sensorNoiseUv: number;
+  /** Standard deviation of the sensor noise. */
+  readonly sensorNoiseUv: Microvolts;
   /** Mixing matrix, M × K row-major (mixing[c·K + k] = sources[k].map[c]). */
   readonly mixing: Float64Array;
   readonly events: SimulatedEvent[];

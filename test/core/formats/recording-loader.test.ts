@@ -6,6 +6,7 @@ import { standardPositions } from '../../../src/core/headmodel/montage-1020.ts';
 import { mainsFrequency } from '../../../src/core/formats/power-line.ts';
 import { simulateSession } from '../../../src/core/simulate/simulate.ts';
 import { eegJson, sessionEdf } from '../../../src/core/simulate/session-files.ts';
+import { hz } from '../../../src/core/units.ts';
 
 const text = (s: string, name: string): ByteSource => bytesByteSource(new TextEncoder().encode(s), name);
 
@@ -113,7 +114,7 @@ describe('loadRecording', () => {
 
 describe('loadRecording: mains frequency from *_eeg.json (BIDS v1.11 EEG: PowerLineFrequency, Hz)', () => {
   it('reads 60 Hz from the simulator\'s sidecar of a 60 Hz session, paired by entities', async () => {
-    const session = simulateSession({ seed: 3, channels: 32, minutes: 0.05, rate: 250, lineHz: 60 });
+    const session = simulateSession({ seed: 3, channels: 32, minutes: 0.05, rate: hz(250), lineHz: 60 });
     const files = [
       bytesByteSource(sessionEdf(session, 'data'), 'sub-01_task-x_eeg.edf'),
       text(eegJson(session), 'sub-01_task-x_eeg.json'),

@@ -16,10 +16,11 @@ import {
   sessionTruthFiles,
 } from '../../../src/core/simulate/session-files.ts';
 import type { SimulatedSession } from '../../../src/core/simulate/truth.ts';
+import { hz } from '../../../src/core/units.ts';
 
 let s: SimulatedSession;
 beforeAll(() => {
-  s = simulateSession({ seed: 3, channels: 32, minutes: 0.5, rate: 250 });
+  s = simulateSession({ seed: 3, channels: 32, minutes: 0.5, rate: hz(250) });
 });
 
 async function readBack(bytes: Uint8Array, name: string) {

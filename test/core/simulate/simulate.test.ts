@@ -3,11 +3,12 @@ import { createHeadModel, dipolePotentials } from '../../../src/core/headmodel/f
 import { bandPower, createWelchPlan, welchFrequencies, welchPsd } from '../../../src/core/signal/welch.ts';
 import { LABELS_32, LABELS_64, simulateSession } from '../../../src/core/simulate/simulate.ts';
 import type { SimulatedSession, TrueSource } from '../../../src/core/simulate/truth.ts';
+import { hz } from '../../../src/core/units.ts';
 
 // One small session for the whole file (32 channels × 1 minute at 250 Hz; common practice for tests here).
 let s: SimulatedSession;
 beforeAll(() => {
-  s = simulateSession({ seed: 11, channels: 32, minutes: 1, rate: 250, lineHz: 50 });
+  s = simulateSession({ seed: 11, channels: 32, minutes: 1, rate: hz(250), lineHz: 50 });
 });
 
 const source = (id: string): TrueSource => {
@@ -340,6 +341,6 @@ describe('simulateSession', () => {
   it('rejects options outside its contract with a RangeError naming the option', () => {
     expect(() => simulateSession({ channels: 16 as never })).toThrow(/channels/);
     expect(() => simulateSession({ minutes: 0 })).toThrow(/minutes/);
-    expect(() => simulateSession({ rate: 100 })).toThrow(/rate/);
+    expect(() => simulateSession({ rate: hz(100) })).toThrow(/rate/);
   });
 });
