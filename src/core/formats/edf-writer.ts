@@ -9,13 +9,14 @@
  * (half a digital step at most) and clipping to an explicitly given physical range.
  */
 import { encodeTal } from './tal.ts';
+import type { Hz, Lenient, Seconds } from '../units.ts';
 
 export interface EdfWriteChannel {
   label: string;
   /** Unit text for the header, e.g. 'uV' (written as printable ASCII: µ/μ become u). */
   unit: string;
   /** Hz; sampleRate · recordDurationSeconds must be a whole number. */
-  sampleRate: number;
+  sampleRate: Lenient<Hz>;
   /** Default: −M where M is the data's max |value|, rounded outward to fit the 8-character field. */
   physicalMin?: number;
   /** Default: +M (see physicalMin). */
@@ -42,12 +43,12 @@ export interface EdfWriteInput {
    * [Kemp & Olivan 2003 §2.2.4].
    */
   start: string;
-  recordDurationSeconds: number;
+  recordDurationSeconds: Lenient<Seconds>;
   /** Start of each record in seconds from the first sample (required for +D; ignored for +C). */
   recordOnsets?: Float64Array;
   channels: EdfWriteChannel[];
   /** Onsets in seconds from the first sample; duration 0 = no duration written. */
-  annotations: { onset: number; duration: number; label: string }[];
+  annotations: { onset: Lenient<Seconds>; duration: Lenient<Seconds>; label: string }[];
 }
 
 const MONTHS = ['JAN', 'FEB', 'MAR', 'APR', 'MAY', 'JUN', 'JUL', 'AUG', 'SEP', 'OCT', 'NOV', 'DEC'];
