@@ -91,6 +91,10 @@ type Api = Record<string, (...args: never[]) => unknown>;
 export function guardWorkerApi<T extends Api>(api: T): T {
   const out: Record<string, unknown> = {};
   for (const [name, fn] of Object.entries(api)) {
+    if (typeof fn !== 'function') {
+      out[name] = fn;
+      continue;
+    }
     out[name] = (...args: never[]) => {
       try {
         const r = fn(...args);
