@@ -5,29 +5,11 @@
  * the O(n²m) shortest-augmenting-path form with row and column potentials (common practice), on the cost
  * 1 − |r|. Each source gets at most one component and each component at most one source.
  */
+import { pearson } from '../evidence/activations.ts';
 
 /** Pearson correlation of two maps (mean removed over channels). NaN for a constant map. */
 export function mapCorrelation(a: ArrayLike<number>, b: ArrayLike<number>): number {
-  const n = a.length;
-  let ma = 0;
-  let mb = 0;
-  for (let i = 0; i < n; i++) {
-    ma += a[i];
-    mb += b[i];
-  }
-  ma /= n;
-  mb /= n;
-  let ab = 0;
-  let aa = 0;
-  let bb = 0;
-  for (let i = 0; i < n; i++) {
-    const x = a[i] - ma;
-    const y = b[i] - mb;
-    ab += x * y;
-    aa += x * x;
-    bb += y * y;
-  }
-  return aa > 0 && bb > 0 ? ab / Math.sqrt(aa * bb) : NaN;
+  return pearson(a, b);
 }
 
 /**
