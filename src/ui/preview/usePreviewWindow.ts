@@ -35,12 +35,13 @@ export function usePreviewWindow(
     const finish = (acts: Float64Array) => {
       if (!stale) setState({ original, win: createPreviewWindow({ original, nChannels: n, length: L, activations: acts, nComponents: k }) });
     };
+    const input = { unmixing, nComponents: k, nChannels: n, window: original, length: L, channelMeans };
     if (!projectionWorkerAvailable() || k * n * L <= INLINE_LIMIT) {
-      finish(windowActivations(unmixing, k, n, original, L, channelMeans));
+      finish(windowActivations(input));
     } else {
-      windowActivationsInWorker(unmixing, k, n, original, L, channelMeans).then(finish, () => {
+      windowActivationsInWorker(input).then(finish, () => {
         // The worker failed (e.g. blocked by the host): compute here instead.
-        finish(windowActivations(unmixing, k, n, original, L, channelMeans));
+        finish(windowActivations(input));
       });
     }
     return () => {
