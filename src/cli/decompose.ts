@@ -125,7 +125,9 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     if (lowpass !== null && highpass > 0 && lowpass <= highpass) throw new CliError(`winnow decompose: --lowpass ${lowpass} Hz must be above --highpass ${highpass} Hz`);
 
     io.stderr(`decompose: reading ${opened.info.channels.filter((c) => c.sampleRate === rate).length} channels at ${rate} Hz\n`);
-    const recording = await readCliSignals(opened, io);
+    // The samples go straight into one shared float32 block that the decomposition filters and whitens in place
+    // (consumeInput) and hands to the helper thread: one copy of the data in all (issue 12).
+    const recording = await readCliSignals(opened, io, { allocate: (length) => new Float32Array(new SharedArrayBuffer(4 * length)) });
     const shaPromise = sha256OfFile(path);
 
     let result;
@@ -145,6 +147,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
           progressIntervalMs: 500,
           onProgress: (p) => io.stderr(progressLine(p)),
           threads: helper?.threads,
+          consumeInput: true,
         },
       );
     } catch (e) {

@@ -21,6 +21,11 @@ export interface EdfReadOptions {
   durationS?: number;
   /** Called after each batch of records with the fraction done (0–1), for progress bars. */
   onProgress?: (fraction: number) => void;
+  /**
+   * readEdfSignals only: allocates the block's sample array of `length` floats (e.g. over a SharedArrayBuffer, so
+   * a decomposition can filter it in place and share it with a helper thread without a copy). Default: a Float32Array.
+   */
+  allocate?: (length: number) => Float32Array;
 }
 
 /** A run of consecutive samples of one record that falls inside the requested time span. */
@@ -233,7 +238,7 @@ export async function readEdfSignals(
   if (!selRes.ok) return selRes;
   const sel = selRes.value;
   const N = sel.nSamples;
-  const data = new Float32Array(sel.indices.length * N);
+  const data = opts.allocate ? opts.allocate(sel.indices.length * N) : new Float32Array(sel.indices.length * N);
   // Times are implicit (j / fs) only for a continuous read from the first sample; otherwise they are given.
   const firstIsZero = sel.segments.length === 0 || (sel.segments[0].record === 0 && sel.segments[0].k0 === 0);
   const sampleTimes = sel.discontinuous || !firstIsZero ? new Float64Array(N) : undefined;

@@ -62,6 +62,8 @@ export interface ReadSignalsOptions {
   sampleRate?: number;
   /** Fraction done (0–1) of the sample reading. */
   onProgress?: (fraction: number) => void;
+  /** Allocates the block's sample array (edf-samples.ts EdfReadOptions.allocate); default a plain Float32Array. */
+  allocate?: (length: number) => Float32Array;
 }
 
 /** A recording whose header and sidecars are read, before any samples (what `inspect` and `read` need). */
@@ -343,7 +345,7 @@ export async function readRecordingSignals(opened: OpenedRecording, opts: ReadSi
   const others = info.channels.filter((c) => c.sampleRate !== rate);
   if (others.length > 0)
     warnings.push(`${recName}: ${others.map((c) => `${c.label} (${c.sampleRate} Hz)`).join(', ')} not loaded; the ${opts.sampleRate === undefined ? 'main ' : ''}rate is ${rate} Hz`);
-  const sig = await readEdfSignals(source, info, { channels: loaded.map((c) => c.label), onProgress: opts.onProgress });
+  const sig = await readEdfSignals(source, info, { channels: loaded.map((c) => c.label), onProgress: opts.onProgress, allocate: opts.allocate });
   if (!sig.ok) return sig;
   // Labels may repeat in a file; readEdfSignals matches the first, so keep the block's own labels.
   const signals = sig.value;

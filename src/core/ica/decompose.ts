@@ -25,7 +25,7 @@ import { createIcaProgressModel } from './progress-model.ts';
 import { cancellationError, type IcaMonitor, type IcaResult } from './ica-types.ts';
 
 export interface DecomposeInput {
-  /** Channel-major samples, µV: channel c at data[c·nSamples, (c+1)·nSamples). Not modified. */
+  /** Channel-major samples, µV: channel c at data[c·nSamples, (c+1)·nSamples). Not modified unless DecomposeOptions.consumeInput. */
   readonly data: Float32Array;
   readonly nChannels: number;
   readonly nSamples: number;
@@ -83,6 +83,13 @@ export interface DecomposeOptions {
   readonly warmStartStride?: number;
   /** A helper thread for Picard's data passes (pass-threads.ts); omitted: one thread. */
   readonly threads?: IcaThreads;
+  /**
+   * The caller gives up `input.data`: the run filters and whitens it in place as its working copy instead of
+   * copying it (the CLI, which reads the samples for this run only), so a run holds one float32 copy of the
+   * data in all. With `threads` the data must lie in a SharedArrayBuffer, else it is copied as usual.
+   * Results are the same either way. Default false (input.data is not modified).
+   */
+  readonly consumeInput?: boolean;
 }
 
 export interface DecomposeResult {
@@ -158,15 +165,23 @@ export function decomposeRecording(input: DecomposeInput, opts: DecomposeOptions
   const n = used.length;
   if (n === 0) throw new RangeError('no good EEG channels left to decompose');
   // The decomposition's one working copy (shared with the helper thread when there is one): filtered in place,
-  // then whitened in place (Z takes its first k rows), so the run holds the input plus one float32 copy.
-  let X: Float32Array | null = opts.threads ? opts.threads.allocate(n * nSamples) : new Float32Array(n * nSamples);
+  // then whitened in place (Z takes its first k rows), so the run holds the input plus one float32 copy; with
+  // consumeInput the input itself is the working copy (its used channels moved to the front, in order).
+  const inPlace = opts.consumeInput === true && (!opts.threads || data.buffer instanceof SharedArrayBuffer);
+  let X: Float32Array | null = inPlace
+    ? data.subarray(0, n * nSamples)
+    : opts.threads
+      ? opts.threads.allocate(n * nSamples)
+      : new Float32Array(n * nSamples);
   const channelMeans = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const src = data.subarray(used[i] * nSamples, (used[i] + 1) * nSamples);
-    X.set(src, i * nSamples);
     let s = 0;
     for (let t = 0; t < nSamples; t++) s += src[t];
     channelMeans[i] = nSamples > 0 ? s / nSamples : 0;
+    // In place, used[i] ≥ i and ascending: channel used[i] moves to row i before any later source is touched.
+    if (!inPlace) X.set(src, i * nSamples);
+    else if (used[i] !== i) data.copyWithin(i * nSamples, used[i] * nSamples, (used[i] + 1) * nSamples);
   }
 
   // 2. filters
