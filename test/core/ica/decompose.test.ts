@@ -75,6 +75,23 @@ describe('decomposeRecording', () => {
     expect(Array.from(a.decomposition.unmixing)).toEqual(Array.from(b.decomposition.unmixing));
     expect(Array.from(a.decomposition.mixing)).toEqual(Array.from(b.decomposition.mixing));
   });
+  it('gives the same decomposition in place (consumeInput) as on a copy, with a left-out channel among the used ones', () => {
+    const { input, T } = recording(4000);
+    // HEOG (index 8) moved to index 3, so the in-place run has to close a gap between used channels.
+    const order = [0, 1, 2, 8, 3, 4, 5, 6, 7, 9];
+    const data = new Float32Array(10 * T);
+    order.forEach((c, i) => data.set(input.data.subarray(c * T, (c + 1) * T), i * T));
+    const moved = { ...input, data, labels: order.map((c) => input.labels[c]), types: order.map((c) => input.types[c]), status: order.map((c) => input.status[c]) };
+    const before = data.slice();
+    const copy = decomposeRecording(moved, { method: 'picard', seed: 2, maxIter: 20 });
+    expect(Array.from(data)).toEqual(Array.from(before)); // without consumeInput the input is not modified
+    const own = data.slice();
+    const inPlace = decomposeRecording({ ...moved, data: own }, { method: 'picard', seed: 2, maxIter: 20, consumeInput: true });
+    expect(inPlace.decomposition.channels).toEqual(copy.decomposition.channels);
+    expect(Array.from(inPlace.decomposition.unmixing)).toEqual(Array.from(copy.decomposition.unmixing));
+    expect(Array.from(inPlace.decomposition.mixing)).toEqual(Array.from(copy.decomposition.mixing));
+    expect(Array.from(inPlace.decomposition.channelMeans!)).toEqual(Array.from(copy.decomposition.channelMeans!));
+  });
   it('reports progress through the stages and stops with an AbortError when the signal is aborted', () => {
     const { input } = recording(4000);
     const seen: DecomposeProgress[] = [];
