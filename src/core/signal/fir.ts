@@ -180,22 +180,33 @@ export function applyZeroPhase(
   const spec = fft.createComplexArray() as number[];
   const res = fft.createComplexArray() as number[];
   const segs = segmentRanges(nSamples, boundaries);
-  let maxSeg = 0;
-  for (const [a, b] of segs) maxSeg = Math.max(maxSeg, b - a);
-  const extLen = maxSeg + 2 * half;
-  const extA = new Float64Array(extLen);
-  const extB = new Float64Array(extLen);
-  const accA = new Float64Array(extLen + N);
-  const accB = new Float64Array(extLen + N);
+  // Overlap-save in place, block by block (issue 12: no scratch of the segment's length). Output y[t] needs the
+  // extended input e(t − half … t + half); window w[m] = e(t0 − half + m), m < nfft, gives y[t0 + b] at circular
+  // convolution index b + N − 1 for b < block. Each next window starts `block` samples on, so its first N − 1
+  // values are the last N − 1 of the current one (kept, as the samples there are overwritten by then), and its
+  // new values lie at x ≥ t0 + block + half, not yet written. The odd extensions at the segment's ends are
+  // taken before any sample is overwritten.
+  const winA = new Float64Array(nfft);
+  const winB = new Float64Array(nfft);
+  const headA = new Float64Array(half);
+  const tailA = new Float64Array(half);
+  const headB = new Float64Array(half);
+  const tailB = new Float64Array(half);
 
-  const extend = (row: Float32Array, ext: Float64Array, len: number) => {
-    for (let t = 0; t < len; t++) ext[half + t] = row[t];
+  const extensions = (row: Float32Array, len: number, head: Float64Array, tail: Float64Array) => {
     const x0 = row[0];
     const xe = row[len - 1];
     for (let i = 0; i < half; i++) {
       const j = Math.min(i + 1, len - 1);
-      ext[half - 1 - i] = 2 * x0 - row[j];
-      ext[half + len + i] = 2 * xe - row[len - 1 - j];
+      head[i] = 2 * x0 - row[j]; // e(−1 − i)
+      tail[i] = 2 * xe - row[len - 1 - j]; // e(len + i)
+    }
+  };
+  /** Fills win[m0, nfft) with e(i0 + m) of the row (0 beyond the extended segment). */
+  const fill = (win: Float64Array, m0: number, i0: number, row: Float32Array, len: number, head: Float64Array, tail: Float64Array) => {
+    for (let m = m0; m < nfft; m++) {
+      const i = i0 + m;
+      win[m] = i < 0 ? head[-1 - i] : i < len ? row[i] : i < len + half ? tail[i - len] : 0;
     }
   };
 
@@ -206,20 +217,19 @@ export function applyZeroPhase(
       if (len <= 0) continue;
       const rowA = data.subarray(c * nSamples + s0, c * nSamples + s1);
       const rowB = pair ? data.subarray((c + 1) * nSamples + s0, (c + 1) * nSamples + s1) : null;
-      const L = len + 2 * half;
-      extend(rowA, extA, len);
-      if (rowB) extend(rowB, extB, len);
-      accA.fill(0, 0, L + N);
-      accB.fill(0, 0, L + N);
-      for (let p0 = 0; p0 < L; p0 += block) {
-        const plen = Math.min(block, L - p0);
-        for (let i = 0; i < plen; i++) {
-          buf[2 * i] = extA[p0 + i];
-          buf[2 * i + 1] = rowB ? extB[p0 + i] : 0;
+      extensions(rowA, len, headA, tailA);
+      if (rowB) extensions(rowB, len, headB, tailB);
+      for (let t0 = 0; t0 < len; t0 += block) {
+        const m0 = t0 === 0 ? 0 : N - 1;
+        if (t0 > 0) {
+          winA.copyWithin(0, block);
+          if (rowB) winB.copyWithin(0, block);
         }
-        for (let i = plen; i < nfft; i++) {
-          buf[2 * i] = 0;
-          buf[2 * i + 1] = 0;
+        fill(winA, m0, t0 - half, rowA, len, headA, tailA);
+        if (rowB) fill(winB, m0, t0 - half, rowB, len, headB, tailB);
+        for (let i = 0; i < nfft; i++) {
+          buf[2 * i] = winA[i];
+          buf[2 * i + 1] = rowB ? winB[i] : 0;
         }
         fft.transform(spec, buf);
         for (let i = 0; i < nfft; i++) {
@@ -229,15 +239,10 @@ export function applyZeroPhase(
           spec[2 * i + 1] = xr * hi + xi * hr;
         }
         fft.inverseTransform(res, spec);
-        const outLen = Math.min(nfft, L + N - 1 - p0);
-        for (let i = 0; i < outLen; i++) {
-          accA[p0 + i] += res[2 * i];
-          accB[p0 + i] += res[2 * i + 1];
-        }
+        const nOut = Math.min(block, len - t0);
+        for (let b = 0; b < nOut; b++) rowA[t0 + b] = res[2 * (b + N - 1)];
+        if (rowB) for (let b = 0; b < nOut; b++) rowB[t0 + b] = res[2 * (b + N - 1) + 1];
       }
-      // y[t] = full[t + 2·half] (see the derivation: x[t] sits at ext[t + half], plus the half-length delay).
-      for (let t = 0; t < len; t++) rowA[t] = accA[t + 2 * half];
-      if (rowB) for (let t = 0; t < len; t++) rowB[t] = accB[t + 2 * half];
     }
     onChannel?.(Math.min(c + 2, nChannels), nChannels);
   }
