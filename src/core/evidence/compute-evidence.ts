@@ -18,7 +18,7 @@ import { roundHalfAway } from '../signal/epochs.ts';
 import { createWelchPlan, welchFrequencies, welchPsd, welchSegmentLength, type WelchPlan } from '../signal/welch.ts';
 import { millimetres, secondsWindow, type Hz, type Lenient, type Millimetres, type Seconds, type SecondsWindow } from '../units.ts';
 import { channelMoments, computeActivations, signalMoments } from './activations.ts';
-import { cardiacPeriodicity } from './cardiac.ts';
+import { cardiacBeats, cardiacPeriodicity } from './cardiac.ts';
 import { mapFocality } from './focality.ts';
 import { STEP_EVENT_PATTERN, stepLocking } from './motion.ts';
 import { eogReferences, mapGeometry, mirrorPairs, stepLikeness } from './ocular.ts';
@@ -364,6 +364,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
       const steps = stepLikeness(act, fs);
       const focal = mapFocality(column);
       const cardiac = cardiacPeriodicity(act, fs);
+      const beats = cardiacBeats(act, fs, cardiac.bpm);
       tNow = tick('ocular', tNow);
 
       // Event-locked
@@ -434,7 +435,7 @@ export function computeEvidence(input: EvidenceInput): EvidenceResult {
         lateralAntisymmetry: geometry.lateralAntisymmetry,
         stepLikeness: steps,
         eogCorrelation: { vertical: rV, horizontal: rH, source: eog.source, channels: eog.channels },
-        cardiac: { bpm: cardiac.bpm, peak: cardiac.peak },
+        cardiac: { bpm: cardiac.bpm, peak: cardiac.peak, beatSharpness: beats.sharpness, intervalCv: beats.intervalCv },
         stepLocking: step,
         erp,
         timeLocking,

@@ -57,6 +57,14 @@ export interface CardiacEvidence {
   readonly bpm: number | null;
   /** Normalised autocorrelation (−1…1) of the activation's slope energy at that lag; 0 when no peak. */
   readonly peak: number;
+  /**
+   * log10 of the median slope energy at the beats over the median slope energy of the whole activation
+   * (evidence/cardiac.ts cardiacBeats, docs/methods.md §14): a QRS-like beat stands far above the rest. NaN
+   * without a beat rate or with fewer than 10 beats; absent in evidence built before it was measured.
+   */
+  readonly beatSharpness?: number;
+  /** Coefficient of variation of the inter-beat intervals (0.5–1.5 beat periods); NaN as beatSharpness. */
+  readonly intervalCv?: number;
 }
 
 export interface ErpEvidence {

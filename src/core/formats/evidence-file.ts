@@ -27,7 +27,7 @@
  *     focality              { share of map energy on one electrode, channel }
  *     frontalGradient, frontalShare, lateralAntisymmetry, stepLikeness   map and time-course ocular evidence
  *     eogCorrelation        { vertical, horizontal (|r|, or null), source, channels }
- *     cardiac               { bpm or null, peak (autocorrelation) }
+ *     cardiac               { bpm or null, peak (autocorrelation), beatSharpness (log10), intervalCv }
  *     stepLocking           { share, event, nEpochs } or null
  *     erp                   { event, nEpochs, times (s), mean, lower, upper (µV, 95 % band), itc,
  *                             itcFrequencyHz, lockedShare, timeLockingStrength, permutationP, shuffles } or null
@@ -135,7 +135,7 @@ export function componentJson(e: ComponentEvidence, aim: Aim, thresholds: Thresh
       source: e.eogCorrelation.source,
       channels: e.eogCorrelation.channels,
     },
-    cardiac: { bpm: e.cardiac.bpm, peak: finite(e.cardiac.peak) },
+    cardiac: { bpm: e.cardiac.bpm, peak: finite(e.cardiac.peak), beatSharpness: finite(e.cardiac.beatSharpness ?? NaN), intervalCv: finite(e.cardiac.intervalCv ?? NaN) },
     stepLocking: e.stepLocking ? { share: finite(e.stepLocking.share), event: e.stepLocking.event, nEpochs: e.stepLocking.nEpochs } : null,
     erp: e.erp
       ? {

@@ -193,14 +193,22 @@ export function recogniseComponent(e: SuggestionInput, t: Thresholds = defaultTh
       ],
     });
 
-  // Cardiac
+  // Cardiac: slope energy periodic at 40–150 bpm AND, where the beats could be marked, regular beat to beat (a
+  // heartbeat's inter-beat intervals vary by a few percent at rest, common practice; the bursts of an alpha
+  // rhythm whose envelope happens to recur at a heart-like lag do not: issue 10, docs/methods.md §14, ours).
+  // Without a measured interval CV (hand-built evidence, fewer than 10 beats) the periodicity alone decides.
   const cardiacRule = e.cardiac.bpm !== null ? check('cardiac.peak', e.cardiac.peak, t, 'cardiacPeak', '≥') : null;
-  if (cardiacRule && e.cardiac.bpm !== null)
+  const cv = e.cardiac.intervalCv;
+  const cvMeasured = cv !== undefined && Number.isFinite(cv);
+  const cvRule = cvMeasured ? check('cardiac.intervalCv', cv, t, 'cardiacIntervalCv', '≤') : null;
+  if (cardiacRule && e.cardiac.bpm !== null && (!cvMeasured || cvRule))
     findings.push({
       signature: 'cardiac',
       strong: true,
-      rules: [cardiacRule],
-      because: [`periodic at ${Math.round(e.cardiac.bpm)} beats per minute (autocorrelation ${fix(e.cardiac.peak)})`],
+      rules: some(cardiacRule, cvRule),
+      because: [
+        `periodic at ${Math.round(e.cardiac.bpm)} beats per minute (autocorrelation ${fix(e.cardiac.peak)})${cvMeasured ? `, beats regular (inter-beat intervals vary by ${pct(cv)})` : ''}`,
+      ],
     });
 
   // Motion

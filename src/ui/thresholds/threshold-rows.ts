@@ -39,6 +39,7 @@ export const THRESHOLD_META: Record<ThresholdKey, ThresholdMeta> = {
   mainsShare: share('Power share at the line frequency and harmonics for mains', '4'),
   electrodeFocality: share('Map energy share on one electrode for a contact'),
   cardiacPeak: share('Autocorrelation peak at the beat lag for cardiac'),
+  cardiacIntervalCv: share('Inter-beat interval variation at or below which the beats are a heartbeat', '14'),
   movementStepLocking: share('Step-locked share for movement'),
   timeLockingStrength: share('Time-locked share above chance', '5'),
   timeLockingP: { label: 'Permutation p at or below which locking counts', section: '5', min: 0, max: 1, step: 0.001 },
