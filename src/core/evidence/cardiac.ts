@@ -90,7 +90,7 @@ export function cardiacPeriodicity(x: ArrayLike<number>, fs: number, minBpm = 40
  * Beat shape and regularity (docs/methods.md §14): what separates a heartbeat from a rhythm whose bursts
  * happen to recur at 40–150 per minute (an alpha rhythm waxing and waning). Given the beat rate found by
  * `cardiacPeriodicity`, we take the same slope energy (≈ 20 ms boxcar, change over ≈ 20 ms, squared) at
- * ≈ 10 ms resolution, mark as beats the samples that are the largest within ±0.7 of a beat period (so at
+ * ≈ 10 ms resolution summed over ≈ 50 ms, mark as beats the samples that are the largest within ±0.7 of a beat period (so at
  * most one beat per period, and no noise maximum between two beats), and report
  * - `sharpness`: the median slope energy at the marked beats over the median slope energy of the whole
  *   activation, as log10. A QRS complex packs most of the slope energy into ≈ 40 ms of every beat, so the
@@ -135,6 +135,19 @@ export function cardiacBeats(x: ArrayLike<number>, fs: number, bpm: number | nul
       if (++slot === B) slot = 0;
     }
     e[b] = s;
+  }
+  // Sum over ≈ 50 ms (5 blocks, centred) so the up- and downstroke of one QRS complex (two slope lobes ≈ 20 ms
+  // apart) make one maximum, not two that the marking would choose between at random.
+  {
+    const sm = new Float64Array(nb);
+    let acc = 0;
+    for (let b = 0; b < Math.min(nb, 2); b++) acc += e[b];
+    for (let b = 0; b < nb; b++) {
+      if (b + 2 < nb) acc += e[b + 2];
+      if (b - 3 >= 0) acc -= e[b - 3];
+      sm[b] = acc;
+    }
+    e.set(sm);
   }
   // Beats: samples that are the maximum of e within ±half blocks (sliding maximum by a monotone deque).
   const beats: number[] = [];

@@ -111,11 +111,11 @@ export const defaultThresholds: Thresholds = {
   // is named before cardiac when both are present).
   cardiacPeak: 0.4,
   // Ours, after common practice (heart rate at rest varies by a few percent from beat to beat): the beats marked
-  // on the slope energy (evidence/cardiac.ts cardiacBeats) recur with a CV ≤ 0.104 on every component that
-  // holds the heartbeat on tuning seeds 1–80 (≤ 0.05 when well separated), while the slope-energy maxima of bursty 8–12.5 Hz
-  // rhythms recur with CV ≥ 0.15 (600 synthetic alpha/mu activations, the 18 with a periodicity ≥ 0.2, one of
-  // them ≥ 0.4) and those of alpha and theta components in the tuning seeds with CV ≥ 0.19 (a frontal theta
-  // read as cardiac on seed 63: 0.21); 0.12 lies between.
+  // on the slope energy (evidence/cardiac.ts cardiacBeats) recur with a CV ≤ 0.093 on every component read as
+  // cardiac that holds the heartbeat on tuning seeds 1–80 (≤ 0.042 on the well-separated cardiac components),
+  // while the slope-energy maxima of bursty 8–12.5 Hz rhythms recur with CV ≥ 0.16 (600 synthetic alpha/mu
+  // activations, the 18 with a periodicity ≥ 0.2, one of them ≥ 0.4) and a frontal theta component of seed 63
+  // read as cardiac (periodicity 0.42) with 0.198; 0.12 lies between.
   cardiacIntervalCv: 0.12,
   // Ours: a fifth of the activity phase-locked to steps.
   movementStepLocking: 0.2,
