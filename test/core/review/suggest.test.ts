@@ -151,6 +151,22 @@ describe('suggestVerdict', () => {
     expect(suggestVerdict(evidence({ stepLocking: { share: 0.9, event: 'step/left', nEpochs: 120 } }), 'oscillations').reason).toBe('movement');
   });
 
+  it('reads a heart-rate periodicity as cardiac only when the beats are regular (inter-beat CV ≤ 0.12; heart rate at rest varies a few percent: common practice)', () => {
+    // A heartbeat: periodic slope energy and beats that recur within 4 % of each other → cardiac, remove for every aim.
+    const heart = evidence({ cardiac: { bpm: 70, peak: 0.8, beatSharpness: 2.2, intervalCv: 0.04 } });
+    for (const aim of AIMS) expect(suggestVerdict(heart, aim)).toMatchObject({ verdict: 'remove', reason: 'cardiac' });
+    const fired = suggestWithRules(heart, 'erp').rules;
+    expect(fired).toContainEqual({ measure: 'cardiac.intervalCv', value: 0.04, threshold: 0.12, direction: '≤', source: 'ours' });
+    expect(suggestVerdict(heart, 'erp').because[0]).toBe('periodic at 70 beats per minute (autocorrelation 0.80), beats regular (inter-beat intervals vary by 4 %)');
+    // An alpha component whose burst envelope happens to recur at a heart-like lag: the same periodicity, but the
+    // slope-energy maxima recur irregularly (CV 0.2) → no cardiac reading; its brain evidence keeps it, every aim.
+    const alphaBursts = { ...alpha, cardiac: { bpm: 70, peak: 0.48, beatSharpness: 1.2, intervalCv: 0.2 } };
+    for (const aim of AIMS) expect(suggestVerdict(alphaBursts, aim)).toMatchObject({ verdict: 'keep', reason: 'neural' });
+    expect(recogniseComponent(alphaBursts).findings.map((f) => f.signature)).not.toContain('cardiac');
+    // Without a measured interval CV (fewer than 10 beats, or evidence from before it was measured) the periodicity decides.
+    expect(suggestVerdict(evidence({ cardiac: { bpm: 70, peak: 0.8, intervalCv: NaN } }), 'erp').reason).toBe('cardiac');
+  });
+
   it('leaves brain-like components with a weak muscle sign to the reviewer ("mixed"), kept under conservative', () => {
     const m = { ...alpha, highFrequencyShare: 0.65, highFrequencySlope: 0, focality: { share: 0.3, channel: 'O2' } };
     expect(suggestVerdict(m, 'erp')).toMatchObject({ verdict: 'undecided', reason: 'mixed' });
