@@ -5,6 +5,7 @@
  * shows that rule — value, direction, threshold and the threshold's source — exactly as the rule read it.
  * Pure: the table component only renders these rows.
  */
+import { formatNumber } from './format-number.ts';
 import type { ComponentEvidence } from '../../core/evidence/types.ts';
 import type { FiredRule, SuggestionWithRules } from '../../core/review/suggest.ts';
 
@@ -25,11 +26,11 @@ export interface EvidenceRow {
 }
 
 function num(v: number | null | undefined, digits = 2): string {
-  return v === null || v === undefined || !Number.isFinite(v) ? 'n/a' : v.toFixed(digits);
+  return formatNumber(v, digits);
 }
 
 function pct(v: number | null | undefined, digits = 1): string {
-  return v === null || v === undefined || !Number.isFinite(v) ? 'n/a' : (v * 100).toFixed(digits);
+  return v === null || v === undefined || !Number.isFinite(v) ? 'n/a' : formatNumber(v * 100, digits);
 }
 
 /** A threshold in the row's own unit: fractions shown as percentages where the value is. */
@@ -118,10 +119,10 @@ export function evidenceRows(e: ComponentEvidence, suggested: SuggestionWithRule
       true,
     );
     add(
-      { key: 'depth', label: 'Dipole distance from centre', value: num(Math.hypot(x, y, z), 0), unit: 'mm', source: `${e.dipole.atBoundary ? 'fit stopped at the brain boundary; ' : ''}a model estimate` },
+      { key: 'depth', label: 'Dipole distance from centre', value: num(Math.hypot(x, y, z), 0), unit: 'mm', source: e.dipole.atBoundary ? 'the fit stopped at the brain boundary' : 'equivalent dipole fit (methods §15)' },
       ['dipole.distanceFromCentreMm', 'dipole.atBoundary'],
     );
-    add({ key: 'region', label: 'Approximate region', value: e.dipole.region, unit: '', source: 'from the dipole position; a model estimate' });
+    add({ key: 'region', label: 'Approximate region', value: e.dipole.region, unit: '', source: 'from the dipole position (approximate model estimate)' });
   }
   return rows;
 }
