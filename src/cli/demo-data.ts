@@ -24,7 +24,7 @@ import { TASK_NAME, sessionEdf, sessionSidecars, sessionTruthFiles } from '../co
 import { hz } from '../core/units.ts';
 
 /** The demo's fixed settings (changing them changes the bundled data; update README.md with them). */
-export const DEMO_OPTIONS: Required<Omit<SimulateOptions, 'sensorNoiseUv'>> = { seed: 1, channels: 32, minutes: 3, rate: hz(250), lineHz: 50 };
+export const DEMO_OPTIONS: Required<Omit<SimulateOptions, 'sensorNoiseUv' | 'alphaPeakHz' | 'classGain'>> = { seed: 1, channels: 32, minutes: 3, rate: hz(250), lineHz: 50 };
 
 function readme(seed: number, withDecomposition: boolean, sizeMb: string): string {
   const o = { ...DEMO_OPTIONS, seed };

@@ -1,7 +1,8 @@
 /**
  * `winnow simulate-study --out DIR --participants N [--seed S] [--minutes M] [--channels 32|64]`: writes a
  * BIDS dataset of N simulated participants (the walking-oddball session of src/core/simulate, one seed
- * per participant so that the timing of every blink, step, burst and pop differs) for tests and the demo
+ * per participant so that the timing of every blink, step, burst and pop differs, and an individual alpha
+ * peak and artefact mix per participant: src/core/simulate/study-participants.ts) for tests and the demo
  * study. One participant — the last — is recorded with four times the sensor noise, the "noisy participant"
  * a study review should notice. Layout (BIDS specification v1.10, EEG):
  *
@@ -16,15 +17,16 @@ import { join } from 'node:path';
 import { writeFileAtomic } from './atomic-write.ts';
 import { CliError, numberOption, parseCommandArgs, type CliIo } from './cli-support.ts';
 import { simulateSession } from '../core/simulate/simulate.ts';
+import { PARTICIPANT_COLUMNS, participantOptions, participantRow, studyParticipant } from '../core/simulate/study-participants.ts';
 import { sessionEdf, sessionSidecars, TASK_NAME } from '../core/simulate/session-files.ts';
 import { formatTsv } from '../core/formats/bids.ts';
-import { hz, microvolts } from '../core/units.ts';
+import { hz } from '../core/units.ts';
 
 const USAGE = 'usage: winnow simulate-study --out DIR --participants N [--seed S] [--minutes M] [--channels 32|64]';
 
 export const usage = `${USAGE}
 
-Writes a simulated BIDS dataset of N participants (different seeds; the last one noisy) for tests and the
+Writes a simulated BIDS dataset of N participants (different seeds, alpha peaks and artefact mix; the last one noisy) for tests and the
 demo study; prints a one-line JSON summary.
 
 options:
@@ -36,9 +38,6 @@ options:
   -h, --help                show this help
 `;
 
-/** Sensor noise of the noisy participant relative to the others (the simulator's default is 0.7 µV). */
-export const NOISY_FACTOR = 4;
-const BASE_NOISE_UV = 0.7;
 
 export async function run(args: string[], io: CliIo): Promise<number> {
   const { values, positionals } = parseCommandArgs('simulate-study', args, {
@@ -62,9 +61,9 @@ export async function run(args: string[], io: CliIo): Promise<number> {
 
   const out = values.out;
   await mkdir(out, { recursive: true });
-  const width = Math.max(2, String(n).length);
-  const labels = Array.from({ length: n }, (_, k) => String(k + 1).padStart(width, '0'));
-  const noisy = n >= 2 ? labels[n - 1] : null;
+  const people = Array.from({ length: n }, (_, k) => studyParticipant(seed, k, n));
+  const labels = people.map((p) => p.label);
+  const noisy = people.find((p) => p.noisy)?.label ?? null;
   await writeFileAtomic(
     join(out, 'dataset_description.json'),
     JSON.stringify(
@@ -82,7 +81,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   );
   await writeFileAtomic(
     join(out, 'participants.tsv'),
-    formatTsv(['participant_id', 'seed', 'sensor_noise_uv'], labels.map((l, k) => [`sub-${l}`, seed + k, l === noisy ? BASE_NOISE_UV * NOISY_FACTOR : BASE_NOISE_UV])),
+    formatTsv(['participant_id', ...PARTICIPANT_COLUMNS], people.map(participantRow)),
   );
   await writeFileAtomic(
     join(out, 'participants.json'),
@@ -90,6 +89,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
       {
         seed: { Description: 'Seed of the simulated session (winnow simulate --seed).' },
         sensor_noise_uv: { Description: 'Standard deviation of the white sensor noise added to every channel.', Units: 'uV' },
+        alpha_peak_hz: { Description: 'Individual alpha peak frequency of the simulated posterior alpha rhythm.', Units: 'Hz' },
+        blink_gain: { Description: 'Amplitude factor of the blink sources (1 = the simulator default); likewise gaze_gain, muscle_gain, cardiac_gain, movement_gain.' },
       },
       null,
       2,
@@ -103,7 +104,7 @@ export async function run(args: string[], io: CliIo): Promise<number> {
   );
   let eventsJsonWritten = false;
   for (const [k, label] of labels.entries()) {
-    const session = simulateSession({ seed: seed + k, channels, minutes, rate: hz(250), lineHz: 50, sensorNoiseUv: microvolts(label === noisy ? BASE_NOISE_UV * NOISY_FACTOR : BASE_NOISE_UV) });
+    const session = simulateSession({ ...participantOptions(people[k]), channels, minutes, rate: hz(250), lineHz: 50 });
     const dir = join(out, `sub-${label}`, 'eeg');
     await mkdir(dir, { recursive: true });
     const withTask = `sub-${label}_task-${TASK_NAME}`;

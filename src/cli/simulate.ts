@@ -38,7 +38,7 @@ options:
 `;
 
 /** Validates the command line into simulator options (exit 2 with a message naming the option on bad input). */
-export function parseSimulateArgs(args: string[]): { out: string; options: Required<Omit<SimulateOptions, 'sensorNoiseUv'>> } {
+export function parseSimulateArgs(args: string[]): { out: string; options: Required<Omit<SimulateOptions, 'sensorNoiseUv' | 'alphaPeakHz' | 'classGain'>> } {
   const { values, positionals } = parseCommandArgs('simulate', args, {
     out: { type: 'string' },
     seed: { type: 'string' },

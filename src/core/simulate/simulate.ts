@@ -9,6 +9,7 @@
  * a 32-channel map), so ICA can in principle recover each non-Gaussian one. Deterministic per seed: every
  * random draw comes from a named xoshiro128** stream (rng.ts).
  */
+import type { TrueSourceClass } from './truth.ts';
 import { standardPositions } from '../headmodel/montage-1020.ts';
 import { streamRng } from './rng.ts';
 import { createScenario } from './scenario.ts';
@@ -49,6 +50,13 @@ export interface SimulateOptions {
   lineHz?: 50 | 60;
   /** Sensor (amplifier) noise standard deviation (default 0.7 µV). */
   sensorNoiseUv?: Microvolts;
+  /** Individual alpha peak frequency, Hz (default 9.5; common practice: 8–12 Hz in adults). */
+  alphaPeakHz?: number;
+  /**
+   * Amplitude factor per source class (default 1 for every class): a participant who blinks less, a tenser
+   * jaw, a weaker heartbeat field. The truth files carry the scaled maps.
+   */
+  classGain?: Partial<Record<TrueSourceClass, number>>;
 }
 
 /** Head radius of the simulation, mm (a typical adult head; docs/methods.md §8.1 gives 85–95 mm). */
@@ -93,8 +101,16 @@ export function simulateSession(opts: SimulateOptions = {}): SimulatedSession {
   const { brain, sphere } = simulatorHeadModels(HEAD_RADIUS_MM);
   const scenario = createScenario(seed, durationS, fs);
 
-  const built = buildSources({ seed, fs, n, lineHz, scenario, labels, electrodesMm, directions, brain, sphere });
-  const sources: TrueSource[] = built.map((b) => ({ ...b, activation: Float32Array.from(b.activation) }));
+  const alphaPeakHz = opts.alphaPeakHz ?? 9.5;
+  if (!(alphaPeakHz >= 4 && alphaPeakHz <= 16)) throw new RangeError(`simulateSession: alphaPeakHz must be in 4…16 Hz, got ${alphaPeakHz}`);
+  for (const [cls, g] of Object.entries(opts.classGain ?? {}))
+    if (!(typeof g === 'number' && g >= 0 && Number.isFinite(g))) throw new RangeError(`simulateSession: classGain.${cls} must be a finite number ≥ 0, got ${g}`);
+  const built = buildSources({ seed, fs, n, lineHz, scenario, labels, electrodesMm, directions, brain, sphere, alphaPeakHz });
+  const gainOf = (cls: TrueSourceClass) => opts.classGain?.[cls] ?? 1;
+  const sources: TrueSource[] = built.map((b) => {
+    const g = gainOf(b.class);
+    return { ...b, map: g === 1 ? b.map : b.map.map((v) => v * g), activation: Float32Array.from(b.activation) };
+  });
   const k = sources.length;
 
   const mixing = new Float64Array(m * k);

@@ -51,6 +51,8 @@ export interface SourceContext {
   readonly directions: Float64Array;
   readonly brain: HeadModel;
   readonly sphere: HeadModel;
+  /** Individual alpha peak, Hz (default 9.5; its harmonic at twice the peak). */
+  readonly alphaPeakHz?: number;
 }
 
 /** A source before scaling: its raw (infinite-reference) map and activation. */
@@ -162,6 +164,7 @@ function muscleActivation(ctx: SourceContext, id: string, bursts: Scenario['jawL
 
 /** Builds every true source, neural sources first (the order of the mixing sum). */
 export function buildSources(ctx: SourceContext): BuiltSource[] {
+  const alphaHz = ctx.alphaPeakHz ?? 9.5;
   const { fs, n, scenario } = ctx;
   const out: BuiltSource[] = [];
   const neural = (
@@ -179,11 +182,11 @@ export function buildSources(ctx: SourceContext): BuiltSource[] {
   // --- Neural rhythms -------------------------------------------------------------------------------
   neural(
     'alpha-posterior',
-    'Posterior alpha: waxing and waning bursts at an individual peak of 9.5 Hz with a second harmonic at 19 Hz; parieto-occipital dipole.',
+    `Posterior alpha: waxing and waning bursts at an individual peak of ${alphaHz} Hz with a second harmonic at ${2 * alphaHz} Hz; parieto-occipital dipole.`,
     { positionMm: [0, -58, 12], direction: [0, -0.45, 0.9] },
     5,
     burstyOscillation(rng(ctx, 'alpha-posterior'), n, fs, {
-      freqHz: 9.5, freqJitterHz: 0.15, envelopeTauS: 0.5, envelopeLogSd: 0.75, harmonicRatio: 0.25, harmonicPhaseRad: 0.6,
+      freqHz: alphaHz, freqJitterHz: 0.15, envelopeTauS: 0.5, envelopeLogSd: 0.75, harmonicRatio: 0.25, harmonicPhaseRad: 0.6,
     }),
     'relative amplitude (mean envelope 1)',
   );
