@@ -24,26 +24,8 @@ export function cardiacPeriodicity(x: ArrayLike<number>, fs: number, minBpm = 40
   const maxLag = Math.ceil(60 / minBpm / dt);
   if (nb < 2 * maxLag + 2) return none;
   // y = B-sample boxcar of x (running sum); slope d = y[i] − y[i − B], squared and summed per block.
-  const ring = new Float64Array(B); // the last B boxcar outputs
-  const e = new Float64Array(nb);
-  let run = 0;
+  const e = slopeEnergyBlocks(x, block, B, nb);
   let mean = 0;
-  let slot = 0; // i mod B
-  for (let b = 0; b < nb; b++) {
-    let s = 0;
-    for (let j = 0; j < block; j++) {
-      const i = b * block + j;
-      run += x[i] - (i >= B ? x[i - B] : 0);
-      const y = run / B;
-      if (i >= 2 * B) {
-        const d = y - ring[slot];
-        s += d * d;
-      }
-      ring[slot] = y;
-      if (++slot === B) slot = 0;
-    }
-    e[b] = s;
-  }
   // 120 ms (3-block) moving average of the block energies: keeps the beat (a ~40 ms QRS repeating every 0.4–1.5 s)
   // and removes the ripple of ongoing rhythms (a 6 Hz theta's slope energy ripples at 12 Hz).
   {
@@ -117,25 +99,7 @@ export function cardiacBeats(x: ArrayLike<number>, fs: number, bpm: number | nul
   const period = 60 / bpm / dt; // in blocks
   const half = Math.max(1, Math.round(0.7 * period));
   if (nb < 12 * period) return none;
-  const ring = new Float64Array(B);
-  const e = new Float64Array(nb);
-  let run = 0;
-  let slot = 0;
-  for (let b = 0; b < nb; b++) {
-    let s = 0;
-    for (let j = 0; j < block; j++) {
-      const i = b * block + j;
-      run += x[i] - (i >= B ? x[i - B] : 0);
-      const y = run / B;
-      if (i >= 2 * B) {
-        const d = y - ring[slot];
-        s += d * d;
-      }
-      ring[slot] = y;
-      if (++slot === B) slot = 0;
-    }
-    e[b] = s;
-  }
+  const e = slopeEnergyBlocks(x, block, B, nb);
   // Sum over ≈ 50 ms (5 blocks, centred) so the up- and downstroke of one QRS complex (two slope lobes ≈ 20 ms
   // apart) make one maximum, not two that the marking would choose between at random.
   {
@@ -186,4 +150,31 @@ export function cardiacBeats(x: ArrayLike<number>, fs: number, bpm: number | nul
     intervalCv = Math.sqrt(v) / m;
   }
   return { sharpness, intervalCv, beats: beats.length };
+}
+
+/**
+ * Slope energy per block: y = B-sample boxcar of x (running sum), slope d = y[i] − y[i − B], d² summed over
+ * each block of `block` samples (nb blocks). Shared by the periodicity and the beat-interval measures.
+ */
+function slopeEnergyBlocks(x: ArrayLike<number>, block: number, B: number, nb: number): Float64Array {
+  const ring = new Float64Array(B); // the last B boxcar outputs
+  const e = new Float64Array(nb);
+  let run = 0;
+  let slot = 0; // i mod B
+  for (let b = 0; b < nb; b++) {
+    let s = 0;
+    for (let j = 0; j < block; j++) {
+      const i = b * block + j;
+      run += x[i] - (i >= B ? x[i - B] : 0);
+      const y = run / B;
+      if (i >= 2 * B) {
+        const d = y - ring[slot];
+        s += d * d;
+      }
+      ring[slot] = y;
+      if (++slot === B) slot = 0;
+    }
+    e[b] = s;
+  }
+  return e;
 }
