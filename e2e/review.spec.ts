@@ -75,6 +75,23 @@ test('reviewing the demo participant: decide, preview, focus, export, reload, ke
   await expect(page.getByTestId('focus-topography')).toBeVisible();
   await expect(page.getByTestId('focus-variance-map')).toBeVisible();
   await expect(page.getByTestId('focus-answer-where')).toContainText('Rules that fired');
+  // The answer's evidence table exports as a real SVG figure (issue 14 item 11): sized, with every row.
+  {
+    const rowLabels = await page
+      .getByTestId('focus-evidence-where')
+      .locator('tbody th')
+      .evaluateAll((ths) => ths.map((th) => (th.firstChild?.textContent ?? '').replace(/\s+/g, ' ').trim()));
+    expect(rowLabels.length).toBeGreaterThan(2);
+    const [svgDownload] = await Promise.all([page.waitForEvent('download'), page.getByTestId('focus-evidence-where-svg').click()]);
+    expect(svgDownload.suggestedFilename()).toBe('sub-01_task-walkoddball_winnow-component-01-evidence-where.svg');
+    const svg = await readFile(await svgDownload.path(), 'utf8');
+    const size = /<svg[^>]*\swidth="(\d+(?:\.\d+)?)"[^>]*\sheight="(\d+(?:\.\d+)?)"/.exec(svg) ?? /<svg[^>]*\sheight="(\d+(?:\.\d+)?)"[^>]*\swidth="(\d+(?:\.\d+)?)"/.exec(svg);
+    expect(size).not.toBeNull();
+    expect(Number(size![1])).toBeGreaterThan(100);
+    expect(Number(size![2])).toBeGreaterThan(100);
+    const text = svg.replace(/&lt;/g, '<').replace(/&gt;/g, '>').replace(/&amp;/g, '&');
+    for (const label of rowLabels) expect(text, `row “${label}” in the exported figure`).toContain(label);
+  }
   await page.getByTestId('focus-question-where').focus();
   await page.keyboard.press('ArrowDown');
   await expect(page.getByTestId('focus-question-when')).toBeFocused();

@@ -5,18 +5,20 @@
 import type { ReactNode } from 'react';
 import type { FiredRule } from '../../core/review/suggest.ts';
 import type { EvidenceRow } from '../plots/evidence-rows.ts';
-import { EvidenceTable } from '../plots/EvidenceTable.tsx';
 import type { Question } from './focus-logic.ts';
+import { EvidenceExport } from './EvidenceExport.tsx';
 import { FiredRules } from './FiredRules.tsx';
 
 export interface AnswerPanelProps {
   readonly question: Question;
   readonly rows: readonly EvidenceRow[];
   readonly rules: readonly FiredRule[];
+  /** "component-07", for the evidence table's export name. */
+  readonly context: string;
   readonly children: ReactNode;
 }
 
-export function AnswerPanel({ question, rows, rules, children }: AnswerPanelProps) {
+export function AnswerPanel({ question, rows, rules, context, children }: AnswerPanelProps) {
   const headingId = `answer-${question.id}-heading`;
   return (
     <section
@@ -33,8 +35,16 @@ export function AnswerPanel({ question, rows, rules, children }: AnswerPanelProp
         <aside className="answer-aside" aria-label={`Evidence for: ${question.title}`}>
           <h4>Rules that fired</h4>
           <FiredRules rules={rules} empty="No suggestion rule fired on these measures." />
-          <h4>Evidence</h4>
-          {rows.length ? <EvidenceTable rows={rows} compact /> : <p className="fired-none">No measures for this question.</p>}
+          {rows.length ? (
+            <EvidenceExport
+              rows={rows} heading="Evidence" name={`Evidence ${question.short}`} context={context} testId={`focus-evidence-${question.id}`}
+            />
+          ) : (
+            <>
+              <h4>Evidence</h4>
+              <p className="fired-none">No measures for this question.</p>
+            </>
+          )}
         </aside>
       </div>
     </section>

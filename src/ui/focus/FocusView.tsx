@@ -15,6 +15,7 @@
  *   focus-topography, focus-variance-map, focus-trial-stack, focus-spectrum   the figures' panels
  *   focus-lock-type, focus-lock-only, focus-lock-split, focus-trial-order    trial stack controls
  *   focus-trial-summary (data-epochs, data-groups), focus-lock-words        what the trial stack shows
+ *   focus-evidence-{where|when|locked|frequencies|other}, …-svg   an evidence table and its SVG export button
  *   focus-previous, focus-next   navigation buttons
  *   decision-keep, decision-remove, decision-undecided   verdict buttons (aria-pressed shows the current one)
  *   decision-reason     reason code <select> ('' = none)
@@ -26,13 +27,13 @@ import { defaultEventType, describeSelection, parseSelectionKey } from '../../co
 import type { FiredRule } from '../../core/review/suggest.ts';
 import { selectSuggestions, useWorkbench } from '../../state/index.ts';
 import { componentContext } from '../export/export-names.ts';
-import { EvidenceTable } from '../plots/EvidenceTable.tsx';
 import { evidenceRows } from '../plots/evidence-rows.ts';
 import { decompositionMontage } from '../plots/montage-positions.ts';
 import { ActivationPanel, type ActivationSettings } from './ActivationPanel.tsx';
 import { AnswerPanel } from './AnswerPanel.tsx';
 import { DecisionControls } from './DecisionControls.tsx';
 import { DipolePanel } from './DipolePanel.tsx';
+import { EvidenceExport } from './EvidenceExport.tsx';
 import { MapPanel } from './MapPanel.tsx';
 import { QuestionRail } from './QuestionRail.tsx';
 import { SpectrumPanel } from './SpectrumPanel.tsx';
@@ -178,7 +179,7 @@ export function FocusView() {
           <QuestionRail current={current.id} onChoose={setQuestion} answers={answers} ruleCounts={ruleCounts} />
         </nav>
         <div className="focus-answer">
-          <AnswerPanel question={current} rows={rowsBy[current.id]} rules={rulesBy[current.id]}>
+          <AnswerPanel question={current} rows={rowsBy[current.id]} rules={rulesBy[current.id]} context={context}>
             {figures}
           </AnswerPanel>
         </div>
@@ -193,7 +194,7 @@ export function FocusView() {
           {rowsBy.other.length ? (
             <details className="panel focus-other">
               <summary>Other measures ({rowsBy.other.length})</summary>
-              <EvidenceTable rows={rowsBy.other} compact />
+              <EvidenceExport rows={rowsBy.other} name="Evidence other" context={context} testId="focus-evidence-other" />
             </details>
           ) : null}
         </div>

@@ -76,6 +76,7 @@ describe('AnswerPanel', () => {
         question={q}
         rows={[{ key: 'rv', label: 'Dipole residual variance', value: '4.0', unit: '%', threshold: '≤ 15 %', source: 'ours', flagged: false, rules: [] }]}
         rules={[{ measure: 'dipole.residualVariance', value: 0.04, threshold: 0.15, direction: '≤', source: 'ours' }]}
+        context="component-03"
       >
         <svg data-figure="" />
       </AnswerPanel>,
@@ -86,6 +87,8 @@ describe('AnswerPanel', () => {
     expect(html).toContain('dipole residual variance');
     expect(html).toContain('4\u00a0% ≤ 15\u00a0% (ours)');
     expect(html).toContain('4.0\u00a0%');
+    // the evidence table has its own SVG export button (issue 14 item 11)
+    expect(html).toContain('data-testid="focus-evidence-where-svg"');
   });
 });
 
