@@ -114,6 +114,58 @@ test('the preview strip removes and restores a component while the cleaned signa
   await expect(checksum).toHaveText(before);
 });
 
+test('the preview strip is one Tab stop worked with the arrows, Home/End and Space', async ({ page }) => {
+  test.setTimeout(120_000);
+  const n = await openDemo(page);
+  expect(n).toBeGreaterThan(3);
+  await page.getByTestId('screen-preview').click();
+  await expect(page.getByTestId('preview-cleaned-checksum')).toHaveText(/^[0-9a-f]{8}$/, { timeout: 30_000 });
+  const strip = page.getByTestId('preview-strip');
+  await expect(strip).toHaveAttribute('role', 'toolbar');
+  // Roving tabindex (WAI-ARIA APG, Toolbar pattern): exactly one control of the strip is in the Tab order.
+  await expect(strip.locator('[tabindex="0"]')).toHaveCount(1);
+  const toggle = (i: number) => page.getByTestId(`preview-strip-toggle-${i}`);
+  const focusedInStrip = () => page.evaluate(() => document.activeElement?.closest('[data-testid="preview-strip"]') !== null);
+  // Tab from the control before the strip lands on the strip's one stop; the next Tab leaves it.
+  await toggle(1).focus();
+  await page.keyboard.press('Shift+Tab');
+  expect(await focusedInStrip()).toBe(false);
+  await page.keyboard.press('Tab');
+  await expect(toggle(1)).toBeFocused();
+  await page.keyboard.press('Tab');
+  expect(await focusedInStrip()).toBe(false);
+  await page.keyboard.press('Shift+Tab');
+  await expect(toggle(1)).toBeFocused();
+  // Arrows move (and the selection follows), Home/End jump, the ends stop.
+  await page.keyboard.press('ArrowRight');
+  await expect(toggle(2)).toBeFocused();
+  await expect(page.getByTestId('preview-strip-2')).toHaveAttribute('aria-current', 'true');
+  await expect(toggle(2)).toHaveAttribute('tabindex', '0');
+  await expect(toggle(1)).toHaveAttribute('tabindex', '-1');
+  await page.keyboard.press('ArrowDown');
+  await expect(toggle(3)).toBeFocused();
+  await page.keyboard.press('ArrowUp');
+  await expect(toggle(2)).toBeFocused();
+  await page.keyboard.press('End');
+  await expect(toggle(n)).toBeFocused();
+  await page.keyboard.press('ArrowRight');
+  await expect(toggle(n)).toBeFocused();
+  await page.keyboard.press('Home');
+  await expect(toggle(1)).toBeFocused();
+  await page.keyboard.press('ArrowLeft');
+  await expect(toggle(1)).toBeFocused();
+  // Space removes the focused component, Enter restores it.
+  await page.keyboard.press('ArrowRight');
+  await page.keyboard.press('Space');
+  await expect(toggle(2)).toHaveAttribute('aria-pressed', 'true');
+  await expect(page.getByTestId('preview-removed-count')).toHaveText('1');
+  await expect(toggle(2)).toBeFocused();
+  await page.keyboard.press('Enter');
+  await expect(toggle(2)).toHaveAttribute('aria-pressed', 'false');
+  await expect(page.getByTestId('preview-strip-2')).toHaveAttribute('data-verdict', 'keep');
+  await expect(page.getByTestId('preview-removed-count')).toHaveText('0');
+});
+
 test('the board works with the keyboard alone at 1280 × 720', async ({ page }) => {
   test.setTimeout(120_000);
   const n = await openDemo(page);

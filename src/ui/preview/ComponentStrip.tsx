@@ -4,14 +4,23 @@
  * cleaned signal can be watched while deciding. Choosing a chip's number selects that component (the same
  * selection as the board's and the focus view's).
  *
- * data-testid hooks: preview-strip (the list), preview-strip-<n> (one chip, data-verdict and
- * aria-current), preview-strip-toggle-<n> (its remove toggle, aria-pressed when removed),
- * preview-strip-select-<n> (its select button).
+ * Keyboard: the strip is one Tab stop, a toolbar of toggle buttons with a roving tabindex (WAI-ARIA
+ * Authoring Practices Guide 1.2, "Toolbar" pattern and "Managing Focus Within Components Using a Roving
+ * tabindex", https://www.w3.org/WAI/ARIA/apg/patterns/toolbar/). Only the selected component's toggle has
+ * tabindex 0; ←/→ (and ↑/↓) move to the previous/next component, Home/End to the first/last, and the
+ * selection follows the focus (as the review keys' arrows do on every screen); Space/Enter toggle the focused
+ * component (native buttons, aria-pressed when removed). The number buttons stay for the mouse, out of the
+ * Tab order.
+ *
+ * data-testid hooks: preview-strip (the toolbar), preview-strip-<n> (one chip, data-verdict and
+ * aria-current), preview-strip-toggle-<n> (its remove toggle, aria-pressed when removed, tabindex 0 on the
+ * selected one), preview-strip-select-<n> (its select button).
  */
+import { useRef, type KeyboardEvent } from 'react';
 import { UNDECIDED, type ReviewDecision } from '../../core/review/decisions-file.ts';
 import { useWorkbench } from '../../state/index.ts';
 import { VERDICT_GLYPH } from '../board/VerdictMark.tsx';
-import { stripToggleVerdict } from './preview-logic.ts';
+import { stripFocusTarget, stripToggleVerdict } from './preview-logic.ts';
 
 export interface ComponentStripProps {
   readonly nComponents: number;
@@ -36,15 +45,33 @@ export interface ComponentStripViewProps {
 
 /** The strip itself, from plain props (the store wiring is ComponentStrip). */
 export function ComponentStripView({ nComponents, decisions, selected, decide, select }: ComponentStripViewProps) {
+  const strip = useRef<HTMLDivElement>(null);
   const items = Array.from({ length: nComponents }, (_, i) => i + 1);
+  // The one toggle in the Tab order: the selected component's, else the first.
+  const active = selected !== null && selected >= 1 && selected <= nComponents ? selected : 1;
+  const onKey = (e: KeyboardEvent<HTMLDivElement>) => {
+    const next = stripFocusTarget(e.key, active, nComponents);
+    if (next === null) return;
+    // preventDefault also keeps the review keys (next/previous component, first/last) from acting on this press.
+    e.preventDefault();
+    if (next !== active) select(next);
+    strip.current?.querySelector<HTMLElement>(`[data-testid="preview-strip-toggle-${next}"]`)?.focus();
+  };
   return (
-    <ol className="component-strip" aria-label="Components: remove or restore while watching the cleaned signal" data-testid="preview-strip">
+    <div
+      className="component-strip"
+      role="toolbar"
+      aria-label="Components: remove or restore while watching the cleaned signal"
+      data-testid="preview-strip"
+      ref={strip}
+      onKeyDown={onKey}
+    >
       {items.map((n) => {
         const d = decisions[n] ?? UNDECIDED;
         const removed = d.verdict === 'remove';
         const isSelected = selected === n;
         return (
-          <li
+          <div
             key={n}
             className={`strip-chip verdict-${d.verdict}${isSelected ? ' strip-selected' : ''}`}
             data-testid={`preview-strip-${n}`}
@@ -54,6 +81,7 @@ export function ComponentStripView({ nComponents, decisions, selected, decide, s
             <button
               type="button"
               className="strip-select"
+              tabIndex={-1}
               onClick={() => select(n)}
               data-testid={`preview-strip-select-${n}`}
               title={`Select component ${n}${d.reason ? ` (${d.verdict}, ${d.reason})` : ` (${d.verdict})`}`}
@@ -63,16 +91,17 @@ export function ComponentStripView({ nComponents, decisions, selected, decide, s
             <button
               type="button"
               className="strip-toggle"
+              tabIndex={n === active ? 0 : -1}
               aria-pressed={removed}
-              aria-label={removed ? `Restore component ${n} (now removed)` : `Remove component ${n} (now ${d.verdict})`}
+              aria-label={`${removed ? `Restore component ${n} (now removed)` : `Remove component ${n} (now ${d.verdict})`}${isSelected ? ', selected' : ''}`}
               onClick={() => decide(n, { verdict: stripToggleVerdict(d.verdict) })}
               data-testid={`preview-strip-toggle-${n}`}
             >
               <span aria-hidden="true">✕</span>
             </button>
-          </li>
+          </div>
         );
       })}
-    </ol>
+    </div>
   );
 }

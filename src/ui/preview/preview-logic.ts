@@ -107,3 +107,19 @@ export function defaultTraceChannels(rows: ArrayLike<number>, max = 16): number[
 export function stripToggleVerdict(current: ReviewDecision['verdict']): ReviewDecision['verdict'] {
   return current === 'remove' ? 'keep' : 'remove';
 }
+
+/**
+ * The component a key moves the preview strip's focus to (1-based), or null when the key is not the strip's:
+ * ←/↑ previous, →/↓ next (stopping at the ends), Home first, End last (WAI-ARIA Authoring Practices Guide 1.2,
+ * "Toolbar" pattern, keyboard interaction).
+ */
+export function stripFocusTarget(key: string, current: number, nComponents: number): number | null {
+  if (nComponents < 1) return null;
+  switch (key) {
+    case 'ArrowLeft': case 'ArrowUp': return Math.max(1, current - 1);
+    case 'ArrowRight': case 'ArrowDown': return Math.min(nComponents, current + 1);
+    case 'Home': return 1;
+    case 'End': return nComponents;
+    default: return null;
+  }
+}
