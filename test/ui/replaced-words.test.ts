@@ -36,6 +36,8 @@ describe('replaced words stay out of what users read (issue 15)', () => {
     join(root, 'DEVELOPERS.md'),
     join(root, 'docs', 'methods.md'),
     join(root, 'docs', 'batch.md'),
+    join(root, 'docs', 'suggestion-rules.md'),
+    ...files(join(root, 'docs', 'validation'), /\.md$/),
   ];
   it.each(REPLACED.map(([re, instead]) => [String(re), re, instead] as const))('%s', (_name, re, instead) => {
     const hits: string[] = [];
