@@ -21,7 +21,7 @@
 import { readFile } from 'node:fs/promises';
 import { basename } from 'node:path';
 import { writeFileAtomic } from './atomic-write.ts';
-import { CliError, parseCommandArgs, type CliIo } from './cli-support.ts';
+import { CliError, parseCommandArgs, sha256OfFile, type CliIo } from './cli-support.ts';
 import { openCliRecording, readCliSignals } from './recording-files.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 import { computeEvidence, DEFAULT_EPOCH_WINDOW_S } from '../core/evidence/compute-evidence.ts';
@@ -133,6 +133,8 @@ export async function run(args: string[], io: CliIo): Promise<number> {
     for (const w of result.warnings) io.stderr(`warning: ${w}\n`);
     const header = {
       recording: recordingPath, decomposition: decompositionPath, aim, lineHz, lineHzSource: mains.origin,
+      // the input files' hashes, so a workbench can tell this evidence belongs to the files it opened
+      recordingSha256: await sha256OfFile(recordingPath), decompositionSha256: await sha256OfFile(decompositionPath),
       epochEvent: result.epochEvent, epochWindowS: epochWindow, thresholds, warnings: result.warnings, maxShuffles: LOCKING_MAX_SHUFFLES,
     };
     const text = formatEvidenceJson(header, result.components);

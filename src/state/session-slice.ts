@@ -9,7 +9,7 @@ import { getWorkbenchServices, resumeOfferFrom, reviewKey, type OnFraction } fro
 import { progressAt } from './task-progress.ts';
 import { confirmImport } from './replace-guards.ts';
 import { DEFAULT_ROI } from './view-slice.ts';
-import type { DecomposeOptions, SessionSlice, WorkbenchState } from './types.ts';
+import type { DecomposeOptions, ParticipantInput, SessionSlice, WorkbenchState } from './types.ts';
 import type { Decomposition } from '../core/decomposition.ts';
 
 /** Default decomposition when none is given: extended Infomax, seed 1, 1 Hz high-pass (docs/methods.md §14, common practice). */
@@ -85,6 +85,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     controller: AbortController,
     getDecomposition: () => Promise<{ decomposition: Decomposition; sha256: string; json?: string }>,
     decisionsFile: File | null,
+    reuseEvidence?: ParticipantInput['reuseEvidence'],
   ) {
     const { signal } = controller;
     const services = await getWorkbenchServices();
@@ -94,7 +95,12 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
     const made = await getDecomposition();
     signal.throwIfAborted();
     set({ decomposition: made.decomposition, decompositionSha256: made.sha256, decompositionJson: made.json ?? null, evidence: null, decisions: {}, past: [], future: [] });
-    const evidence = await step('Computing evidence', controller, (p) =>
+    // evidence a batch run left for these very files, when the caller offers it; else computed here
+    const reused = reuseEvidence
+      ? await reuseEvidence({ recording, recordingSha256, decomposition: made.decomposition, decompositionSha256: made.sha256 }).catch(() => null)
+      : null;
+    signal.throwIfAborted();
+    const evidence = reused ?? await step('Computing evidence', controller, (p) =>
       services.computeEvidence(recording, made.decomposition, signal, p),
     );
     signal.throwIfAborted();
@@ -122,7 +128,7 @@ export const createSessionSlice: StateCreator<WorkbenchState, [], [], SessionSli
         if (input.decompositionFiles && input.decompositionFiles.length > 0) {
           const files = input.decompositionFiles;
           await finish(controller, () => step('Reading the decomposition', controller, () =>
-            services.readDecomposition(files, recording, recordingSha256, signal)), input.decisionsFile ?? null);
+            services.readDecomposition(files, recording, recordingSha256, signal)), input.decisionsFile ?? null, input.reuseEvidence);
         } else if (input.decompose === null) {
           // Recording only: the start screen lists it and offers to compute or open a decomposition.
           set({ progress: null });

@@ -3,7 +3,7 @@ import { useStore } from 'zustand';
 import { studyStore, type StudyState } from './study-store.ts';
 
 export { studyStore, selectStudyRows, selectAgreement, studyExport, studyZip, recordingKey } from './study-store.ts';
-export type { StudyState, RecordingAgreement } from './study-store.ts';
+export type { StudyState, RecordingAgreement, BatchEvidence } from './study-store.ts';
 
 export function useStudy<T>(selector: (state: StudyState) => T): T {
   return useStore(studyStore, selector);

@@ -7,6 +7,11 @@
  * components' variance shares) is kept in localStorage under the dataset's name, written through at once,
  * so the overview survives a reload; the participant's own review autosaves as always (keyed by the
  * recording's and decomposition's hashes). Recordings are read only when opened — never all at once.
+ *
+ * A batch run's outputs under derivatives/winnow/ are picked up when a participant is opened: its
+ * decomposition, and its evidence when that file is evidence of the very recording and decomposition loaded
+ * (core/study/batch-evidence.ts: format version and both SHA-256 hashes match); a file that does not match is
+ * ignored with a notice naming it and why, and the evidence is computed as usual.
  */
 import { createStore } from 'zustand/vanilla';
 import { findRecordings, parseBidsName, sidecarFor, type DatasetRecording } from '../core/study/bids-dataset.ts';
@@ -18,6 +23,10 @@ import { buildAdjudicatedFile, disagreements, type Disagreement } from '../core/
 import { agreementByKey, type KeyedAgreement } from '../core/review/kappa.ts';
 import { REASON_CODES, VERDICTS } from '../core/review/vocabulary.ts';
 import { readEdfLayout } from '../core/formats/edf-header.ts';
+import { parseEvidenceJson } from '../core/formats/evidence-file.ts';
+import { matchBatchEvidence } from '../core/study/batch-evidence.ts';
+import type { ComponentEvidence } from '../core/evidence/types.ts';
+import type { ReuseEvidenceInput } from './types.ts';
 import { blobByteSource } from '../core/formats/byte-source.ts';
 import { workbenchStore } from './store.ts';
 import { decisionsFileFromState, SOFTWARE } from './exports.ts';
@@ -57,6 +66,18 @@ export interface RecordingAgreement {
   readonly disagreements: readonly Disagreement[];
 }
 
+/** Evidence loaded from a batch run's file instead of computed (shown in the recording summary). */
+export interface BatchEvidence {
+  /** The recording (path in the dataset) it was loaded for. */
+  readonly path: string;
+  /** The evidence file, relative to the dataset root. */
+  readonly file: string;
+  /** When the batch run wrote it (the file's modification time), "2026-12-02 21:30 UTC". */
+  readonly date: string;
+  /** The evidence handed to the workbench (the summary names the batch run only while it is still this one). */
+  readonly evidence: readonly ComponentEvidence[];
+}
+
 export interface StudyState {
   /** Dataset name (dataset_description.json Name, else the folder's name); null when no study is open. */
   name: string | null;
@@ -71,6 +92,10 @@ export interface StudyState {
   /** Adjudicated decisions by recording path and component index. */
   adjudicated: Readonly<Record<string, Readonly<Record<number, ReviewDecision>>>>;
   message: string | null;
+  /** Evidence of the current recording loaded from a batch run's file, or null. */
+  batchEvidence: BatchEvidence | null;
+  /** Why a batch run's evidence file of the current recording was ignored (it names the file), or null. */
+  batchEvidenceNotice: { readonly path: string; readonly text: string } | null;
 
   openFolder: (files: readonly File[]) => Promise<void>;
   /** Opens files already placed in the dataset (paths relative to its root). */
@@ -153,6 +178,39 @@ async function derivativeDecisions(files: readonly DatasetFile[], recordings: re
   return out;
 }
 
+/** A file time as "2026-12-02 21:30 UTC". */
+const utcMinute = (ms: number) => `${new Date(ms).toISOString().slice(0, 16).replace('T', ' ')} UTC`;
+
+/**
+ * Reads a batch run's evidence file and checks it against the loaded recording and decomposition
+ * (core/study/batch-evidence.ts): the evidence and its date when it matches, else a notice naming the file
+ * and why it was not used.
+ */
+export async function readBatchEvidence(
+  file: Blob & { lastModified?: number },
+  path: string,
+  loaded: ReuseEvidenceInput,
+): Promise<{ ok: true; evidence: ComponentEvidence[]; date: string } | { ok: false; notice: string }> {
+  const ignored = (why: string) => ({ ok: false as const, notice: `${path} was not used (${why}); the evidence is computed here instead.` });
+  let text: string;
+  try {
+    text = await file.text();
+  } catch (e) {
+    return ignored(`it could not be read: ${(e as Error)?.message ?? String(e)}`);
+  }
+  const parsed = parseEvidenceJson(text, path);
+  if (!parsed.ok) return ignored(parsed.error.message.startsWith(`${path}: `) ? parsed.error.message.slice(path.length + 2) : parsed.error.message);
+  const matched = matchBatchEvidence(parsed.value, {
+    recordingSha256: loaded.recordingSha256,
+    decompositionSha256: loaded.decompositionSha256,
+    nComponents: loaded.decomposition.nComponents,
+    channels: loaded.decomposition.channels,
+    sampleRate: loaded.recording.signals.sampleRate,
+  });
+  if (!matched.ok) return ignored(matched.why);
+  return { ok: true, evidence: matched.evidence, date: utcMinute(file.lastModified ?? Date.now()) };
+}
+
 export const studyStore = createStore<StudyState>()((set, get) => ({
   name: null,
   files: [],
@@ -163,6 +221,8 @@ export const studyStore = createStore<StudyState>()((set, get) => ({
   second: null,
   adjudicated: {},
   message: null,
+  batchEvidence: null,
+  batchEvidenceNotice: null,
 
   openFolder: async (picked) => {
     const { root, files } = datasetFiles(picked);
@@ -221,13 +281,29 @@ export const studyStore = createStore<StudyState>()((set, get) => ({
     }
     const decompositionPath = `derivatives/winnow/${rec.folder}/${rec.stem}_desc-winnow_decomposition.json`;
     const decomposition = byPath.get(decompositionPath);
+    const evidencePath = `derivatives/winnow/${rec.folder}/${rec.stem}_desc-winnow_evidence.json`;
+    const evidenceFile = decomposition ? byPath.get(evidencePath) : undefined;
+    const reuseEvidence = evidenceFile
+      ? async (loaded: ReuseEvidenceInput) => {
+          const r = await readBatchEvidence(evidenceFile, evidencePath, loaded);
+          if (get().current !== path) return null; // another recording was opened meanwhile
+          if (!r.ok) {
+            set({ batchEvidenceNotice: { path, text: r.notice } });
+            workbenchStore.getState().setNotice({ kind: 'info', text: r.notice });
+            return null;
+          }
+          set({ batchEvidence: { path, file: evidencePath, date: r.date, evidence: r.evidence } });
+          return r.evidence;
+        }
+      : undefined;
     const review = s.reviews[path];
     const decisionsFile = review ? new File([JSON.stringify(review.decisions)], `${rec.stem}_desc-winnow_decisions.json`, { type: 'application/json' }) : null;
-    set({ current: path, message: null });
+    set({ current: path, message: null, batchEvidence: null, batchEvidenceNotice: null });
     await workbenchStore.getState().loadParticipant({
       recordingFiles,
       decompositionFiles: decomposition ? [decomposition] : undefined,
       decisionsFile,
+      ...(reuseEvidence ? { reuseEvidence } : {}),
     });
     if (component !== undefined) {
       workbenchStore.getState().select(component);
@@ -286,7 +362,7 @@ export const studyStore = createStore<StudyState>()((set, get) => ({
   },
 
   closeStudy: () => {
-    set({ name: null, files: [], recordings: [], current: null, reviews: {}, headers: {}, second: null, adjudicated: {}, message: null });
+    set({ name: null, files: [], recordings: [], current: null, reviews: {}, headers: {}, second: null, adjudicated: {}, message: null, batchEvidence: null, batchEvidenceNotice: null });
     workbenchStore.getState().setScreen('start');
   },
 }));

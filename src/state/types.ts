@@ -46,6 +46,19 @@ export interface ParticipantInput {
   readonly decisionsFile?: File | null;
   /** Compute a decomposition when none is given (default true). */
   readonly decompose?: DecomposeOptions | null;
+  /**
+   * Evidence already computed for these files (a batch run's, issue 11), tried before computing it: resolves
+   * to that evidence when it belongs to the loaded recording and decomposition, else null (evidence computed).
+   */
+  readonly reuseEvidence?: (loaded: ReuseEvidenceInput) => Promise<ComponentEvidence[] | null>;
+}
+
+/** What a `reuseEvidence` check is given: the loaded recording and decomposition and their hashes. */
+export interface ReuseEvidenceInput {
+  readonly recording: LoadedRecording;
+  readonly recordingSha256: string;
+  readonly decomposition: Decomposition;
+  readonly decompositionSha256: string;
 }
 
 export interface DecomposeOptions {

@@ -1,4 +1,5 @@
 import { afterAll, describe, expect, it } from 'vitest';
+import { createHash } from 'node:crypto';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -113,6 +114,10 @@ describe('winnow evidence (issue 6 contract)', () => {
     const o = JSON.parse(readFileSync(out, 'utf8'));
     expect(o.format).toBe('winnow-evidence/1');
     expect(o.components).toHaveLength(8);
+    // the input files' hashes, as Node's crypto computes SHA-256 of their bytes (FIPS 180-4), for the workbench's reuse check
+    expect(o.recordingSha256).toBe(createHash('sha256').update(readFileSync(recording)).digest('hex'));
+    expect(o.decompositionSha256).toBe(createHash('sha256').update(readFileSync(decFile)).digest('hex'));
+    expect(o.components[0].variancePerChannel).toHaveLength(o.components[0].map.length);
     for (const c of o.components) {
       for (const key of ['index', 'varianceShare', 'spectrum', 'oneOverFExponent', 'alphaPeakHz', 'highFrequencyShare', 'mainsShare', 'dipole', 'suggestion'])
         expect(c).toHaveProperty(key);

@@ -1,5 +1,11 @@
-import { describe, expect, it } from 'vitest';
-import { datasetFiles, selectAgreement, selectStudyRows, studyExport } from '../../src/state/study-store.ts';
+import { afterEach, describe, expect, it } from 'vitest';
+import { datasetFiles, selectAgreement, selectStudyRows, studyExport, studyStore } from '../../src/state/study-store.ts';
+import { workbenchStore } from '../../src/state/index.ts';
+import { setWorkbenchServices } from '../../src/state/services.ts';
+import { formatEvidenceJson } from '../../src/core/formats/evidence-file.ts';
+import { defaultThresholds } from '../../src/core/review/thresholds.ts';
+import { fakeServices } from './fake-services.ts';
+import { syntheticEvidence } from '../ui/plots/synthetic-evidence.ts';
 import { findRecordings } from '../../src/core/study/bids-dataset.ts';
 import { buildDecisionsFile, type ReviewDecision } from '../../src/core/review/decisions-file.ts';
 
@@ -38,5 +44,66 @@ describe('study store selectors', () => {
     expect(rows.map((r) => [r.state, r.removed, r.removedVariance])).toEqual([['done', 1, 0.3], ['done', 1, null]]);
     const files = studyExport({ recordings: recs, reviews, second, adjudicated: {} }, 'c', '2026-12-02T01:00:00Z').map((f) => f.path);
     expect(files).toContain('derivatives/winnow/sub-01/eeg/sub-01_task-a_desc-adjudicated_decisions.json');
+  });
+});
+
+describe('study store: a batch run’s evidence (issue 11)', () => {
+  // In-memory services (fake-services.ts): recording SHA-256 r…, decomposition d…, 2 channels, 3 components.
+  const R = 'r'.repeat(64);
+  const D = 'd'.repeat(64);
+  const stem = 'sub-01_task-a';
+  const twoChannel = (i: number) => syntheticEvidence(i, { map: Float64Array.from([0.6, 0.8]), variancePerChannel: Float64Array.from([0.1, 0.2]), strongestChannel: { index: 1, label: 'Cz', weight: 1 } });
+  const evidenceText = (decompositionSha256: string) =>
+    formatEvidenceJson(
+      { recording: `${stem}_eeg.edf`, decomposition: `${stem}_desc-winnow_decomposition.json`, recordingSha256: R, decompositionSha256, aim: 'erp', lineHz: 50, lineHzSource: 'sidecar', epochEvent: 'stimulus', epochWindowS: [-0.2, 0.8], thresholds: defaultThresholds, warnings: [] },
+      [1, 2, 3].map(twoChannel),
+    );
+  const evidencePath = `derivatives/winnow/sub-01/eeg/${stem}_desc-winnow_evidence.json`;
+  const dataset = (evidence: string) => [
+    { path: `sub-01/eeg/${stem}_eeg.edf`, file: new File([new Uint8Array(4)], `${stem}_eeg.edf`) },
+    { path: `derivatives/winnow/sub-01/eeg/${stem}_desc-winnow_decomposition.json`, file: new File(['{}'], `${stem}_desc-winnow_decomposition.json`) },
+    { path: evidencePath, file: new File([evidence], `${stem}_desc-winnow_evidence.json`, { lastModified: Date.UTC(2026, 11, 1, 9, 30) }) },
+  ];
+  afterEach(() => {
+    studyStore.getState().closeStudy();
+    workbenchStore.setState(workbenchStore.getInitialState(), true);
+    setWorkbenchServices(null);
+  });
+
+  it('loads the matching evidence file instead of computing, and says so with its date', async () => {
+    const services = fakeServices();
+    setWorkbenchServices(services);
+    await studyStore.getState().openDataset(dataset(evidenceText(D)), 'ds');
+    await studyStore.getState().openRecording(`sub-01/eeg/${stem}_eeg.edf`);
+    expect(services.evidenceCalls).toBe(0);
+    const w = workbenchStore.getState();
+    expect(w.evidence?.map((e) => e.index)).toEqual([1, 2, 3]);
+    expect(w.evidence?.[0].variancePerChannel).toEqual(Float64Array.from([0.1, 0.2]));
+    const batch = studyStore.getState().batchEvidence;
+    expect(batch).toMatchObject({ file: evidencePath, date: '2026-12-01 09:30 UTC' });
+    expect(batch?.evidence).toBe(w.evidence);
+    expect(studyStore.getState().batchEvidenceNotice).toBeNull();
+  });
+
+  it('ignores a file made for another decomposition, with a notice naming it and why, and computes the evidence', async () => {
+    const services = fakeServices();
+    setWorkbenchServices(services);
+    await studyStore.getState().openDataset(dataset(evidenceText('e'.repeat(64))), 'ds');
+    await studyStore.getState().openRecording(`sub-01/eeg/${stem}_eeg.edf`);
+    expect(services.evidenceCalls).toBe(1);
+    expect(studyStore.getState().batchEvidence).toBeNull();
+    const notice = studyStore.getState().batchEvidenceNotice?.text ?? '';
+    expect(notice).toContain(evidencePath);
+    expect(notice).toContain('made for another decomposition');
+    expect(workbenchStore.getState().notice?.text).toBe(notice);
+  });
+
+  it('names a file that is not evidence at all', async () => {
+    const services = fakeServices();
+    setWorkbenchServices(services);
+    await studyStore.getState().openDataset(dataset('{"format":"something-else"}'), 'ds');
+    await studyStore.getState().openRecording(`sub-01/eeg/${stem}_eeg.edf`);
+    expect(services.evidenceCalls).toBe(1);
+    expect(studyStore.getState().batchEvidenceNotice?.text).toBe(`${evidencePath} was not used (format must be "winnow-evidence/1", got "something-else"); the evidence is computed here instead.`);
   });
 });

@@ -6,6 +6,8 @@
  *
  * Contents:
  *   format, recording, decomposition   "winnow-evidence/1" and the input file names as given
+ *   recordingSha256, decompositionSha256   SHA-256 (hex) of the two input files' bytes, when the writer knew them
+ *                                      (the browser reuses a batch run's evidence only when both match)
  *   aim                                the aim whose suggestion is in each component's `suggestion`
  *   lineHz, lineHzSource               mains frequency used and where it came from ("option", "sidecar", "assumed")
  *   epochEvent, epochWindowS           the event type epoched (null when none) and the epoch window, s
@@ -34,6 +36,7 @@
  *     timeLocking           [{ event, column?, value?, nEpochs, lockedShare, strength, p, shuffles }] per event type
  *     dipole                { position (mm, RAS), moment, residualVariance (0–1), atBoundary, region } or null
  *     strongestChannel      { index (0-based, decomposition order), label, weight }
+ *     variancePerChannel    per channel (decomposition order), A[c,i]² var(s_i) / var(x_c)
  *     map                   scalp map (unit L2 norm), decomposition channel order
  *     suggestion            { verdict, reason, because, rules } for `aim`
  *     suggestions           { erp, oscillations, conservative }, each { verdict, reason, because, rules };
@@ -54,6 +57,9 @@ export const EVIDENCE_FORMAT = 'winnow-evidence/1';
 export interface EvidenceFileHeader {
   readonly recording: string;
   readonly decomposition: string;
+  /** SHA-256 (hex) of the recording's and the decomposition file's bytes; written when given. */
+  readonly recordingSha256?: string | null;
+  readonly decompositionSha256?: string | null;
   readonly aim: Aim;
   readonly lineHz: number;
   readonly lineHzSource: string;
@@ -83,8 +89,11 @@ export interface EvidenceFileComponent {
   readonly [field: string]: unknown;
 }
 
-export interface EvidenceFile extends Omit<EvidenceFileHeader, 'maxShuffles'> {
+export interface EvidenceFile extends Omit<EvidenceFileHeader, 'maxShuffles' | 'recordingSha256' | 'decompositionSha256'> {
   readonly format: typeof EVIDENCE_FORMAT;
+  /** null in files written without them. */
+  readonly recordingSha256: string | null;
+  readonly decompositionSha256: string | null;
   readonly permutations: {
     readonly maxShuffles: number;
     readonly stopAfter: number;
@@ -172,6 +181,7 @@ export function componentJson(e: ComponentEvidence, aim: Aim, thresholds: Thresh
         }
       : null,
     strongestChannel: { index: e.strongestChannel.index, label: e.strongestChannel.label, weight: finite(e.strongestChannel.weight) },
+    variancePerChannel: list(e.variancePerChannel),
     map: list(e.map),
     suggestion: suggestions[aim],
     suggestions,
@@ -184,6 +194,8 @@ export function evidenceFileJson(header: EvidenceFileHeader, components: readonl
     format: EVIDENCE_FORMAT,
     recording: header.recording,
     decomposition: header.decomposition,
+    ...(header.recordingSha256 ? { recordingSha256: header.recordingSha256 } : {}),
+    ...(header.decompositionSha256 ? { decompositionSha256: header.decompositionSha256 } : {}),
     aim: header.aim,
     lineHz: header.lineHz,
     lineHzSource: header.lineHzSource,
@@ -256,6 +268,8 @@ export function parseEvidenceJson(text: string, file: string): ParseResult<Evide
       format: EVIDENCE_FORMAT,
       recording: String(o.recording ?? ''),
       decomposition: String(o.decomposition ?? ''),
+      recordingSha256: typeof o.recordingSha256 === 'string' ? o.recordingSha256 : null,
+      decompositionSha256: typeof o.decompositionSha256 === 'string' ? o.decompositionSha256 : null,
       aim: o.aim as Aim,
       lineHz: typeof o.lineHz === 'number' ? o.lineHz : NaN,
       lineHzSource: String(o.lineHzSource ?? ''),

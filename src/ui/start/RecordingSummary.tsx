@@ -5,6 +5,7 @@
 import { useMemo } from 'react';
 import type { LoadedRecording } from '../../core/recording.ts';
 import { LockColumnChoice, MainsChoice, MainsText } from './EvidenceChoices.tsx';
+import { BatchEvidenceNote } from '../study/BatchEvidenceNote.tsx';
 
 /** Event labels with their counts, most frequent first. */
 export function eventCounts(recording: Pick<LoadedRecording, 'events'>): { label: string; count: number; firstOnset: number }[] {
@@ -79,6 +80,7 @@ export function RecordingSummary({ recording }: { recording: LoadedRecording }) 
         <dt>Mains for evidence</dt><dd><MainsChoice recording={recording} /></dd>
         <dt>Reference</dt><dd data-testid="recording-reference">{referenceText(recording)}</dd>
         <dt>Sidecars paired</dt><dd data-testid="recording-sidecars">{sidecarsText(recording)}</dd>
+        <BatchEvidenceNote />
       </dl>
       {recording.warnings.length > 0 && (
         <ul className="warnings" aria-label="Warnings">
