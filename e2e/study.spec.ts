@@ -1,11 +1,13 @@
 /**
  * Issue 11, the study in the browser: open the simulated demo study, review two participants, see a flag
  * and follow it, export the study (a zip of BIDS derivatives, read back by Python's zipfile), import a
- * second reviewer's export, see Cohen's kappa and walk the disagreements.
+ * second reviewer's export, see Cohen's kappa and walk the disagreements. Then a dataset on disk with a
+ * batch run's outputs (`winnow simulate-study` + `winnow batch`): the batch evidence is loaded, not computed,
+ * and a file made for another decomposition is ignored with a notice.
  */
 import { expect, test, type Page } from '@playwright/test';
 import { spawnSync } from 'node:child_process';
-import { mkdir, mkdtemp, writeFile } from 'node:fs/promises';
+import { cp, mkdir, mkdtemp, readFile, writeFile } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 
@@ -108,4 +110,51 @@ test('a study: two participants reviewed, a flag followed, the study exported, a
   expect(c2.verdict).toBe('remove');
   expect(c2.raters.map((x: { verdict: string }) => x.verdict)).toEqual(['keep', 'remove']);
   expect(adj.adjudication.raters[1].reviewer).toBe('second');
+});
+
+test('a batch run’s evidence is reused when its hashes match, and ignored with a notice when they do not', async ({ page }) => {
+  test.setTimeout(240_000);
+  const dir = await mkdtemp(join(tmpdir(), 'winnow-study-batch-e2e-'));
+  const ds = join(dir, 'ds');
+  const cli = (...args: string[]) => {
+    const r = spawnSync(process.execPath, [join(process.cwd(), 'bin', 'winnow.mjs'), ...args], { encoding: 'utf8' });
+    expect(r.status, r.stderr).toBe(0);
+  };
+  cli('simulate-study', '--out', ds, '--participants', '1', '--minutes', '1');
+  cli('batch', ds, join(ds, 'derivatives', 'winnow'), 'participant');
+  const evidenceRel = 'derivatives/winnow/sub-01/eeg/sub-01_task-walkoddball_desc-winnow_evidence.json';
+  // the same dataset with the evidence file claiming another decomposition
+  const bad = join(dir, 'bad');
+  await cp(ds, bad, { recursive: true });
+  const ev = JSON.parse(await readFile(join(bad, evidenceRel), 'utf8'));
+  ev.decompositionSha256 = '0'.repeat(64);
+  await writeFile(join(bad, evidenceRel), JSON.stringify(ev));
+
+  await page.goto('/');
+  await page.getByTestId('study-folder').setInputFiles(ds);
+  await expect(page.getByTestId('study-row')).toHaveCount(1, { timeout: 60_000 });
+  await page.getByTestId('study-open').first().click();
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: LOAD_TIMEOUT });
+  await expect(page.locator('[data-testid^="tile-"]')).toHaveCount(ev.components.length);
+  await page.getByTestId('screen-start').click();
+  const origin = page.getByTestId('recording-evidence-origin');
+  await expect(origin).toHaveAttribute('data-origin', 'batch');
+  await expect(origin).toContainText(/evidence from batch run, \d{4}-\d\d-\d\d \d\d:\d\d UTC/);
+  await expect(origin).toContainText(evidenceRel);
+  // compute evidence again: computed here, and the summary no longer names the batch run
+  await page.getByTestId('recompute-evidence-batch').click();
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: LOAD_TIMEOUT });
+  await page.getByTestId('screen-start').click();
+  await expect(page.getByTestId('recording-summary')).toBeVisible();
+  await expect(origin).toHaveCount(0);
+
+  // a file made for another decomposition: ignored, named, and the evidence computed here
+  await page.goto('/');
+  await page.getByTestId('study-folder').setInputFiles(bad);
+  await expect(page.getByTestId('study-row')).toHaveCount(1, { timeout: 60_000 });
+  await page.getByTestId('study-open').first().click();
+  await expect(page.getByTestId('board')).toBeVisible({ timeout: LOAD_TIMEOUT });
+  await page.getByTestId('screen-start').click();
+  await expect(origin).toHaveAttribute('data-origin', 'ignored');
+  await expect(origin).toContainText(`${evidenceRel} was not used (made for another decomposition`);
 });
