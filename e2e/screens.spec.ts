@@ -79,6 +79,8 @@ test('board, focus and preview at 1280 × 720: screenshots, no horizontal scroll
   await expect(page.getByTestId('preview-spectra-note')).toHaveAttribute('aria-busy', 'false', { timeout: 30_000 });
   await expect(page.getByTestId('preview-scale')).toHaveText(/^\d+(\.\d+)?\u00a0µV\/div$/);
   await expect(page.getByTestId('preview-mode')).toHaveText('side by side');
+  // the residual check runs in a worker: wait for its notice, so the picture does not depend on timing
+  await expect(page.getByTestId('residual-notice')).toContainText('remains', { timeout: 30_000 });
   await expectNoHorizontalScroll(page, 'preview');
   await expectPanelsReachable(page, 'preview');
   await expect(page).toHaveScreenshot('preview.png', TOLERANCE);
