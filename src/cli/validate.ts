@@ -81,15 +81,19 @@ const pad = (s: string, w: number) => s.padStart(w);
 /** The readable summary: per-class rates, then per aim the confusion table and the remove figures. */
 export function formatSummary(p: PooledScore, title: string): string {
   const lines: string[] = [`${title} (${p.recordings} recordings)`, ''];
-  lines.push('class      sources  found  found+right reason (every aim)  right | found');
+  lines.push('class      sources  found  found+right reason (every aim)  right | found  held with a look-alike');
   for (const [cls, c] of Object.entries(p.classes)) {
     if (c.n === 0) continue;
-    lines.push(`${cls.padEnd(10)} ${pad(String(c.n), 7)}  ${pad(pct(c.foundRate), 7)}  ${pad(pct(c.foundAndRightRate), 30)}  ${pad(pct(c.rightGivenFoundRate), 12)}`);
+    lines.push(
+      `${cls.padEnd(10)} ${pad(String(c.n), 7)}  ${pad(pct(c.foundRate), 7)}  ${pad(pct(c.foundAndRightRate), 30)}  ${pad(pct(c.rightGivenFoundRate), 12)}  ${pad(String(c.heldWithLookAlike ?? 0), 22)}`,
+    );
   }
   for (const aim of AIMS) {
     const a = p.aims[aim];
     lines.push('', `aim ${aim}: remove precision ${pct(a.removePrecision)}, recall ${pct(a.removeRecall)}, false muscle ${a.falseMuscleTotal} (most in one recording ${a.falseMuscleMaxPerRecording}), neural removed ${a.neuralRemovedTotal}`);
     lines.push(`  removals beyond the true artefacts: most ${a.removalsBeyondTrueMax}, recordings over +2: ${a.recordingsOverTruePlus2}; residual artefact ratio ${a.residualArtefactRatioMean.toFixed(3)}, neural variance kept ${pct(a.neuralVarianceKeptMean)}`);
+    const byClass = Object.entries(a.residualByClassMean ?? {});
+    if (byClass.length) lines.push(`  left in the cleaned data, by class: ${byClass.map(([c, v]) => `${c} ${pct(v ?? NaN)}`).join(', ')}`);
     const w = 8;
     lines.push(`  ${'true \\ reason'.padEnd(13)}${REASON_CODES.map((r) => pad(r.slice(0, w - 1), w)).join('')}`);
     for (const cls of TRUE_CLASSES) {

@@ -60,4 +60,31 @@ describe('validation harness, small held-out run', () => {
     expect.soft(p.aims.oscillations.neuralVarianceKeptMean).toBeGreaterThan(0.8);
     expect.soft(p.aims.oscillations.residualArtefactRatioMean).toBeLessThan(0.3);
   });
+
+  it('reports what is left of each artefact class and which missed sources a look-alike component holds, apart from the found rate', () => {
+    for (const r of report.scenarios) {
+      for (const aim of AIMS) {
+        const byClass = r.score.aims[aim].residualByClass;
+        // one entry per artefact class the recording holds as expected sources, each a ratio in [0, 1]
+        const present = new Set(r.score.sources.filter((s) => s.expected && s.class !== 'neural').map((s) => s.class));
+        expect(new Set(Object.keys(byClass))).toEqual(present);
+        // ≥ 0; it can pass 1 a little: the cleaning projector I − A_r W_r is oblique, so removing a component can
+        // add a trace of its mixing error to another source (linear algebra, not a tolerance of ours)
+        for (const v of Object.values(byClass)) expect(v).toBeGreaterThanOrEqual(0), expect(v).toBeLessThanOrEqual(1.05);
+      }
+      const byId = new Map(r.score.sources.map((s) => [s.id, s]));
+      for (const s of r.score.sources) {
+        if (s.found) expect(s.heldWith).toBeNull();
+        if (s.heldWith) {
+          // held with: never found itself, and the look-alike was found
+          expect(s.found).toBe(false);
+          expect(byId.get(s.heldWith)?.found).toBe(true);
+        }
+      }
+    }
+    // ERP aim: eye artefact is what that aim removes (common practice), so little blink is left in the cleaned data
+    // (ours: a floor of 10 % left; where the blink component is found and removed the residual is its mixing error).
+    const blinkLeft = report.heldOutSummary!.aims.erp.residualByClassMean.blink;
+    if (blinkLeft !== undefined) expect.soft(blinkLeft).toBeLessThan(0.1);
+  });
 });
