@@ -49,25 +49,7 @@ function scheduleIdleShutdown(): void {
  * S_w = W (X_w − m) for one window, computed in the worker. `window` and `unmixing` are copied to the
  * worker (the caller keeps them); the result is transferred back.
  */
-export async function windowActivationsInWorker(input: WindowActivationsInput): Promise<Float64Array>;
-/** @deprecated The positional form, kept while src/ui/preview/usePreviewWindow.ts still calls it. */
-export async function windowActivationsInWorker(
-  unmixing: Float64Array,
-  k: number,
-  n: number,
-  window: Float32Array,
-  length: number,
-  channelMeans: Float64Array | null,
-): Promise<Float64Array>;
-export async function windowActivationsInWorker(
-  first: WindowActivationsInput | Float64Array,
-  ...rest: [] | [number, number, Float32Array, number, Float64Array | null]
-): Promise<Float64Array> {
-  let input: WindowActivationsInput;
-  if (first instanceof Float64Array) {
-    const [nComponents, nChannels, window, length, channelMeans] = rest as [number, number, Float32Array, number, Float64Array | null];
-    input = { unmixing: first, nComponents, nChannels, window, length, channelMeans };
-  } else input = first;
+export async function windowActivationsInWorker(input: WindowActivationsInput): Promise<Float64Array> {
   pending++;
   try {
     return await api().activations(input).catch(rethrowFromWorker);

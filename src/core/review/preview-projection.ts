@@ -75,29 +75,8 @@ export interface WindowActivationsInput {
  * (or null when the decomposition was computed on the data as is). Uses the register-blocked kernel,
  * then subtracts W m once per component: W (X − m) = W X − W m. Returns k × L (in `out` when given).
  */
-export function windowActivations(input: WindowActivationsInput, out?: Float64Array): Float64Array;
-/**
- * @deprecated The positional form, kept while src/ui/preview/usePreviewWindow.ts still calls it; pass one
- * WindowActivationsInput instead.
- */
-export function windowActivations(
-  unmixing: Float64Array,
-  k: number,
-  n: number,
-  window: Float32Array,
-  length: number,
-  channelMeans: Float64Array | null,
-  out?: Float64Array,
-): Float64Array;
-export function windowActivations(
-  first: WindowActivationsInput | Float64Array,
-  ...rest: [Float64Array?] | [number, number, Float32Array, number, Float64Array | null, Float64Array?]
-): Float64Array {
-  if (first instanceof Float64Array) {
-    const [nComponents, nChannels, window, length, channelMeans, out] = rest as [number, number, Float32Array, number, Float64Array | null, Float64Array?];
-    return activationsOf({ unmixing: first, nComponents, nChannels, window, length, channelMeans }, out);
-  }
-  return activationsOf(first, rest[0] as Float64Array | undefined);
+export function windowActivations(input: WindowActivationsInput, out?: Float64Array): Float64Array {
+  return activationsOf(input, out);
 }
 
 function activationsOf(input: WindowActivationsInput, out?: Float64Array): Float64Array {

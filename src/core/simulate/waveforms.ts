@@ -161,27 +161,7 @@ export interface KernelPlacement {
  * Adds `amplitude · kernel((i/fs) − onsetS)` to `out` for every sample with kernel time in
  * [startS, endS). The kernel is in seconds relative to the onset.
  */
-export function addKernel(out: Float64Array, placement: KernelPlacement): void;
-/** @deprecated The positional form, kept while src/core/simulate/family/simulate-family.ts still calls it. */
-export function addKernel(
-  out: Float64Array,
-  fs: number,
-  onsetS: number,
-  amplitude: number,
-  startS: number,
-  endS: number,
-  kernel: (tS: number) => number,
-): void;
-export function addKernel(
-  out: Float64Array,
-  first: KernelPlacement | number,
-  ...rest: [] | [number, number, number, number, (tS: number) => number]
-): void {
-  let p = first as KernelPlacement;
-  if (typeof first === 'number') {
-    const [onsetS, amplitude, startS, endS, kernel] = rest as [number, number, number, number, (tS: number) => number];
-    p = { fs: first, onsetS, amplitude, startS, endS, kernel };
-  }
+export function addKernel(out: Float64Array, p: KernelPlacement): void {
   const { fs, onsetS, amplitude, startS, endS, kernel } = p;
   const i0 = Math.max(0, Math.ceil((onsetS + startS) * fs));
   const i1 = Math.min(out.length, Math.ceil((onsetS + endS) * fs));

@@ -150,7 +150,7 @@ function muscleActivation(r: Rng, n: number, fs: number, bursts: readonly Burst[
   const hi = Math.min(100, 0.4 * fs);
   const noise = shapedNoise(r, n, fs, bandGain(15, hi, 8, Math.min(15, 0.5 * fs - hi)));
   const env = new Float64Array(n).fill(tonic);
-  for (const b of bursts) addKernel(env, fs, b.timeS, b.amplitude, 0, b.durS, (t) => burstWindow(t, b.durS));
+  for (const b of bursts) addKernel(env, { fs, onsetS: b.timeS, amplitude: b.amplitude, startS: 0, endS: b.durS, kernel: (t) => burstWindow(t, b.durS) });
   for (let i = 0; i < n; i++) noise[i] *= env[i];
   return noise;
 }
@@ -217,7 +217,7 @@ export function simulateFamily(params: FamilyParams): FamilySession {
     build: () => {
       const r = stream('blink');
       const act = new Float64Array(n);
-      for (const b of timeline.blinks) addKernel(act, fs, b.timeS, b.amplitude, 0, b.riseS + b.fallS, (t) => blinkKernel(t, b.riseS, b.fallS));
+      for (const b of timeline.blinks) addKernel(act, { fs, onsetS: b.timeS, amplitude: b.amplitude, startS: 0, endS: b.riseS + b.fallS, kernel: (t) => blinkKernel(t, b.riseS, b.fallS) });
       const { raw, dipoles } = dipoleMap(sphere, [jitter(r, eyes, [0, 0.6, 0.8], 4, 0.1)], r.between(60, 150));
       return { id: 'blink', class: 'blink', kind: 'blink', description: 'Eye blinks, frontal-pole maximum (corneo-retinal dipole and lid).', raw, dipoles, activation: act, expected: true };
     },
@@ -270,7 +270,7 @@ export function simulateFamily(params: FamilyParams): FamilySession {
         const rate = r.between(0.5, 4); // pops per minute
         for (let s = -Math.log(1 - r.uniform()) * (60 / rate); s < durationS; s += 1 - Math.log(1 - r.uniform()) * (60 / rate)) {
           const tau = r.between(0.3, 1.5);
-          addKernel(act, fs, Math.round(s * fs) / fs, (r.uniform() < 0.5 ? -1 : 1) * r.between(1.5, 4), 0, 8 * tau, (t) => Math.exp(-t / tau));
+          addKernel(act, { fs, onsetS: Math.round(s * fs) / fs, amplitude: (r.uniform() < 0.5 ? -1 : 1) * r.between(1.5, 4), startS: 0, endS: 8 * tau, kernel: (t) => Math.exp(-t / tau) });
         }
         const c0 = idx(params.looseElectrode!);
         const raw = sensorMap((c) => (c === c0 ? 1 : 0), r.between(15, 50));
@@ -291,7 +291,7 @@ export function simulateFamily(params: FamilyParams): FamilySession {
         const rr0 = 60 / bpm;
         const act = new Float64Array(n);
         for (let s = -r.between(0, rr0); s < durationS + 0.5; ) {
-          addKernel(act, fs, Math.round(s * fs) / fs, 1, -0.3, 0.5, heartbeatKernel);
+          addKernel(act, { fs, onsetS: Math.round(s * fs) / fs, amplitude: 1, startS: -0.3, endS: 0.5, kernel: heartbeatKernel });
           s += rr0 * (1 + 0.04 * Math.sin(2 * Math.PI * 0.25 * s)) + 0.015 * r.normal();
         }
         const d = unitVec([-0.5 + 0.3 * r.normal(), 0.35 + 0.3 * r.normal(), -0.8 + 0.2 * r.normal()]);
@@ -309,7 +309,7 @@ export function simulateFamily(params: FamilyParams): FamilySession {
         const tau = r.between(0.15, 0.3);
         for (const st of timeline.steps) {
           const amp = (st.foot === 'left' ? 1 : -1) * r.between(0.7, 1.3) * (st.turning ? 1.5 : 1);
-          addKernel(act, fs, st.timeS, amp, 0, 1, (t) => Math.exp(-t / tau) * Math.sin(2 * Math.PI * fSway * t));
+          addKernel(act, { fs, onsetS: st.timeS, amplitude: amp, startS: 0, endS: 1, kernel: (t) => Math.exp(-t / tau) * Math.sin(2 * Math.PI * fSway * t) });
         }
         const yCut = r.between(-0.8, -0.5);
         const gains = labels.map(() => 0.6 + 0.4 * r.uniform());
@@ -438,7 +438,7 @@ export function simulateFamily(params: FamilyParams): FamilySession {
       const act = new Float64Array(n);
       for (const tone of timeline.tones) {
         const amp = ra.between(0.7, 1.3) * (tone.rare ? 1.2 : 1);
-        addKernel(act, fs, tone.timeS, amp, 0, 0.35, (t) => -gaussianBump(t - 0.1, 0.018) + 0.55 * gaussianBump(t - 0.19, 0.03));
+        addKernel(act, { fs, onsetS: tone.timeS, amplitude: amp, startS: 0, endS: 0.35, kernel: (t) => -gaussianBump(t - 0.1, 0.018) + 0.55 * gaussianBump(t - 0.19, 0.03) });
       }
       const { raw, dipoles } = dipoleMap(brain, [jitter(ra, [-48, -12, 8], [0.25, 0.2, 0.95], 4, 0.08), jitter(ra, [48, -12, 8], [-0.25, 0.2, 0.95], 4, 0.08)], ra.between(3, 7));
       drafts.push({ id: 'auditory', class: 'neural', kind: 'event-locked', description: 'Auditory N1/P2 to every tone (two temporal dipoles).', raw, dipoles, activation: act, expected: true });
@@ -607,7 +607,7 @@ function p3Activation(timeline: Scenario, n: number, fs: number, r: Rng): Float6
   for (const tone of timeline.tones) {
     if (!tone.rare) continue;
     const lat = Math.min(0.4, Math.max(0.3, 0.35 + 0.025 * r.normal()));
-    addKernel(act, fs, tone.timeS + lat, r.between(0.7, 1.3), -0.3, 0.3, (t) => gaussianBump(t, 0.07));
+    addKernel(act, { fs, onsetS: tone.timeS + lat, amplitude: r.between(0.7, 1.3), startS: -0.3, endS: 0.3, kernel: (t) => gaussianBump(t, 0.07) });
   }
   return act;
 }
