@@ -72,7 +72,7 @@ export function TopographyMap({
       aria-label={title ?? 'scalp topography'}
     >
       {title ? <title>{title}</title> : null}
-      <image href={href} x={0} y={0} width={size} height={size} preserveAspectRatio="none" />
+      <image href={href || undefined} x={0} y={0} width={size} height={size} preserveAspectRatio="none" />
       <g fill="none" stroke="#333" strokeWidth={Math.max(1, size / 160)}>
         <path d={outline.head} />
         <path d={outline.nose} />

@@ -38,7 +38,7 @@ export function TrialStack({ rows, nEpochs, length, times, maxAbs, width = 380, 
   const showRt = rows.sortApplied === 'response-time';
   return (
     <svg className="trial-stack" width={width} height={height} viewBox={`0 0 ${width} ${height}`} role="img" aria-label={`trial stack, ${nEpochs} trials`}>
-      <image href={href} x={x(t0)} y={margin.top} width={x(t1) - x(t0)} height={plotH} preserveAspectRatio="none" style={{ imageRendering: 'pixelated' }} />
+      <image href={href || undefined} x={x(t0)} y={margin.top} width={x(t1) - x(t0)} height={plotH} preserveAspectRatio="none" style={{ imageRendering: 'pixelated' }} />
       <line x1={x(0)} x2={x(0)} y1={margin.top} y2={margin.top + plotH} stroke="#000" strokeDasharray="2 2" />
       {showRt
         ? Array.from(rows.keys, (k, r) =>
